@@ -1,0 +1,40 @@
+#!/usr/bin/env node
+// `npm start`: build when build/ is missing or older than any source, then serve build/index.js.
+// PORT (3000), HOST and ORIGIN are honoured; ORIGIN defaults to http://localhost:PORT because
+// adapter-node needs it to accept form posts.
+import { spawnSync, spawn } from 'node:child_process';
+import { existsSync, readdirSync, statSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+const root = resolve(fileURLToPath(new URL('..', import.meta.url)));
+process.chdir(root);
+
+const SOURCES = ['src', 'static', 'workers', 'drizzle'];
+const CONFIGS = ['package.json', 'package-lock.json', 'svelte.config.js', 'vite.config.ts', 'tsconfig.json'];
+
+/** Newest modification time under a path (0 when missing). */
+function newest(path) {
+	if (!existsSync(path)) return 0;
+	const stat = statSync(path);
+	if (!stat.isDirectory()) return stat.mtimeMs;
+	let latest = stat.mtimeMs;
+	for (const entry of readdirSync(path)) latest = Math.max(latest, newest(join(path, entry)));
+	return latest;
+}
+
+const built = join(root, 'build', 'index.js');
+const sourcesTime = Math.max(...SOURCES.map((p) => newest(join(root, p))), ...CONFIGS.map((p) => newest(join(root, p))));
+if (!existsSync(built) || statSync(built).mtimeMs < sourcesTime) {
+	console.log(existsSync(built) ? 'Sources changed; rebuilding…' : 'No build yet; building…');
+	const vite = join(root, 'node_modules', 'vite', 'bin', 'vite.js');
+	const result = spawnSync(process.execPath, [vite, 'build'], { stdio: 'inherit' });
+	if (result.status !== 0) process.exit(result.status ?? 1);
+}
+
+const port = process.env.PORT ?? '3000';
+const env = { ...process.env, PORT: port, ORIGIN: process.env.ORIGIN ?? `http://localhost:${port}` };
+console.log(`Conefield on ${env.ORIGIN} (demo accounts in README.md)`);
+const server = spawn(process.execPath, [built], { stdio: 'inherit', env });
+for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => server.kill(signal));
+server.on('exit', (code, signal) => process.exit(code ?? (signal ? 1 : 0)));

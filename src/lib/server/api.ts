@@ -1,0 +1,78 @@
+import { isHttpError, isRedirect, json, type RequestEvent, type RequestHandler } from '@sveltejs/kit';
+import { z } from 'zod';
+import { ERROR_CODES, ServiceError, type ErrorStatus } from './errors';
+
+/** Largest JSON body an endpoint reads unless it says otherwise. */
+export const MAX_JSON_BYTES = 1024 * 1024;
+
+export interface ApiIssue {
+	path: (string | number)[];
+	message: string;
+}
+
+/** `{ "error": { "code", "message", "issues"? } }` with the given status. */
+export function apiError(status: ErrorStatus, message: string, issues?: ApiIssue[], code: string = ERROR_CODES[status]): Response {
+	return json({ error: { code, message, ...(issues ? { issues } : {}) } }, { status });
+}
+
+/** Thrown inside an endpoint to answer with an API error. */
+export class ApiError extends ServiceError {
+	constructor(
+		status: ErrorStatus,
+		message: string,
+		readonly issues?: ApiIssue[]
+	) {
+		super(status, message);
+	}
+}
+
+function issuesOf(err: z.ZodError): ApiIssue[] {
+	return err.issues.map((i) => ({ path: i.path.map((p) => (typeof p === 'symbol' ? String(p) : p)), message: i.message }));
+}
+
+/**
+ * Reads a JSON body and validates it: 413 when larger than `maxBytes`, 400 when it is not JSON,
+ * 422 with the issues when it does not match the schema.
+ */
+export async function parseJson<S extends z.ZodType>(
+	request: Request,
+	schema: S,
+	{ maxBytes = MAX_JSON_BYTES } = {}
+): Promise<z.output<S>> {
+	const declared = Number(request.headers.get('content-length') ?? 0);
+	if (declared > maxBytes) throw new ApiError(413, `The request body is larger than ${maxBytes} bytes.`);
+	const text = await request.text();
+	if (Buffer.byteLength(text) > maxBytes) throw new ApiError(413, `The request body is larger than ${maxBytes} bytes.`);
+	let body: unknown;
+	try {
+		body = JSON.parse(text);
+	} catch {
+		throw new ApiError(400, 'The request body is not valid JSON.');
+	}
+	const parsed = schema.safeParse(body);
+	if (!parsed.success) throw new ApiError(422, 'The request body is not valid.', issuesOf(parsed.error));
+	return parsed.data;
+}
+
+/**
+ * Wraps a JSON endpoint so every refusal has the API's error shape: HttpErrors thrown by the
+ * authorization helper, ServiceErrors from services, ApiErrors from parsing. Anything else is logged and answers 500.
+ */
+export function endpoint<E extends RequestEvent = RequestEvent>(handler: (event: E) => Promise<Response> | Response) {
+	return (async (event: E) => {
+		try {
+			return await handler(event);
+		} catch (err) {
+			if (isRedirect(err)) throw err;
+			if (err instanceof ApiError) return apiError(err.status, err.message, err.issues);
+			if (err instanceof ServiceError) return apiError(err.status, err.message, undefined, err.code);
+			if (isHttpError(err)) {
+				const status = (err.status in ERROR_CODES ? err.status : 500) as ErrorStatus;
+				return apiError(status, err.body.message);
+			}
+			if (err instanceof z.ZodError) return apiError(422, 'The request is not valid.', issuesOf(err));
+			console.error('[api]', err);
+			return apiError(500, 'Something went wrong on the server.');
+		}
+	}) as unknown as RequestHandler;
+}

@@ -1,0 +1,28 @@
+/** HTTP statuses the JSON API answers with, and their machine-readable codes. */
+export const ERROR_CODES = {
+	400: 'bad_request',
+	401: 'unauthorized',
+	403: 'forbidden',
+	404: 'not_found',
+	409: 'conflict',
+	413: 'payload_too_large',
+	422: 'invalid',
+	500: 'internal'
+} as const;
+
+export type ErrorStatus = keyof typeof ERROR_CODES;
+
+/**
+ * A refusal a service can explain to the user (a conflict, a missing record). Routes turn it into a
+ * JSON error or a form message; anything else that is thrown is a bug and answers 500.
+ */
+export class ServiceError extends Error {
+	constructor(
+		readonly status: ErrorStatus,
+		message: string,
+		readonly code: string = ERROR_CODES[status]
+	) {
+		super(message);
+		this.name = 'ServiceError';
+	}
+}

@@ -1,0 +1,51 @@
+import { count } from 'drizzle-orm';
+import type { Db } from '$lib/server/db';
+import { memberships, projects, users, type ProjectRole, type SiteRole } from '$lib/server/db/schema';
+import { hashPassword } from '$lib/server/auth/password';
+
+/** The demo accounts. Their passwords are printed in the README: for a local demo only. */
+export const DEMO_ACCOUNTS: ReadonlyArray<{
+	email: string;
+	name: string;
+	password: string;
+	siteRole: SiteRole;
+	projectRole: ProjectRole | null;
+}> = [
+	{ email: 'admin@conefield.test', name: 'Ada Admin', password: 'demo-admin-pass', siteRole: 'admin', projectRole: null },
+	{ email: 'owner@conefield.test', name: 'Olu Owner', password: 'demo-owner-pass', siteRole: 'member', projectRole: 'owner' },
+	{ email: 'analyst@conefield.test', name: 'Ana Analyst', password: 'demo-analyst-pass', siteRole: 'member', projectRole: 'analyst' },
+	{ email: 'reviewer@conefield.test', name: 'Rui Reviewer', password: 'demo-reviewer-pass', siteRole: 'member', projectRole: 'reviewer' },
+	{ email: 'viewer@conefield.test', name: 'Vera Viewer', password: 'demo-viewer-pass', siteRole: 'member', projectRole: 'viewer' }
+];
+
+export const DEMO_PROJECT = {
+	name: 'Riverside levee (demo)',
+	description:
+		'An invented river levee reach on loose alluvial sands over soft clay, used to show the workflow from CPT soundings to conditional random fields.',
+	lengthUnit: 'm' as const
+};
+
+/**
+ * Seeds the demo accounts and project into an empty database (no users yet); does nothing otherwise.
+ * Returns the demo project's id when it seeded. Later stages add their demo data here.
+ */
+export async function seedDemo(db: Db): Promise<string | null> {
+	const existing = db.select({ n: count() }).from(users).get()?.n ?? 0;
+	if (existing > 0) return null;
+	const hashes = await Promise.all(DEMO_ACCOUNTS.map((a) => hashPassword(a.password)));
+	return db.transaction((tx) => {
+		const created = DEMO_ACCOUNTS.map((a, i) =>
+			tx
+				.insert(users)
+				.values({ email: a.email, name: a.name, passwordHash: hashes[i], siteRole: a.siteRole, emailVerified: new Date() })
+				.returning()
+				.get()
+		);
+		const owner = created[DEMO_ACCOUNTS.findIndex((a) => a.projectRole === 'owner')];
+		const project = tx.insert(projects).values({ ...DEMO_PROJECT, createdBy: owner.id }).returning().get();
+		DEMO_ACCOUNTS.forEach((a, i) => {
+			if (a.projectRole) tx.insert(memberships).values({ projectId: project.id, userId: created[i].id, role: a.projectRole }).run();
+		});
+		return project.id;
+	});
+}

@@ -1,0 +1,186 @@
+import { and, asc, count, eq, gt, isNull } from 'drizzle-orm';
+import { getDb } from '$lib/server/db';
+import { invitations, memberships, projects, users, type Project, type ProjectRole, type User } from '$lib/server/db/schema';
+import { generateToken, hashToken } from '$lib/server/auth/secrets';
+import { actionMail, sendMail } from '$lib/server/mail';
+import { ServiceError } from '$lib/server/errors';
+
+const INVITATION_LIFETIME_MS = 7 * 24 * 3600 * 1000;
+
+export interface MemberView {
+	userId: string;
+	email: string;
+	name: string | null;
+	role: ProjectRole;
+}
+
+export interface InvitationView {
+	id: string;
+	email: string;
+	role: ProjectRole;
+	expiresAt: string;
+}
+
+export function listMembers(projectId: string): MemberView[] {
+	return getDb()
+		.select({ userId: users.id, email: users.email, name: users.name, role: memberships.role })
+		.from(memberships)
+		.innerJoin(users, eq(users.id, memberships.userId))
+		.where(eq(memberships.projectId, projectId))
+		.orderBy(asc(users.email))
+		.all();
+}
+
+/** Invitations that were neither accepted nor have expired. */
+export function listPendingInvitations(projectId: string): InvitationView[] {
+	return getDb()
+		.select()
+		.from(invitations)
+		.where(
+			and(eq(invitations.projectId, projectId), isNull(invitations.acceptedAt), gt(invitations.expiresAt, new Date()))
+		)
+		.orderBy(asc(invitations.email))
+		.all()
+		.map((i) => ({ id: i.id, email: i.email, role: i.role, expiresAt: i.expiresAt.toISOString() }));
+}
+
+/**
+ * Invites an address to a project with a role and mails it a one-time accept link (valid 7 days).
+ * Inviting an existing member is a conflict; inviting the same address again replaces the earlier link.
+ */
+export async function inviteMember(
+	project: Project,
+	invitedBy: User | { id: string; name: string | null; email: string },
+	email: string,
+	role: ProjectRole,
+	origin: string
+): Promise<InvitationView> {
+	const db = getDb();
+	const already = db
+		.select({ id: users.id })
+		.from(memberships)
+		.innerJoin(users, eq(users.id, memberships.userId))
+		.where(and(eq(memberships.projectId, project.id), eq(users.email, email)))
+		.get();
+	if (already) throw new ServiceError(409, `${email} is already a member of this project.`);
+	const token = generateToken('invite');
+	const invitation = db.transaction((tx) => {
+		tx.delete(invitations)
+			.where(and(eq(invitations.projectId, project.id), eq(invitations.email, email), isNull(invitations.acceptedAt)))
+			.run();
+		return tx
+			.insert(invitations)
+			.values({
+				projectId: project.id,
+				email,
+				role,
+				tokenHash: hashToken(token),
+				invitedBy: invitedBy.id,
+				expiresAt: new Date(Date.now() + INVITATION_LIFETIME_MS)
+			})
+			.returning()
+			.get();
+	});
+	await sendMail(
+		actionMail(
+			email,
+			`You are invited to “${project.name}” on Conefield`,
+			[
+				`${invitedBy.name ?? invitedBy.email} invited you to the project “${project.name}” as ${role}.`,
+				'The link works once, within 7 days.'
+			],
+			{ label: 'Accept the invitation', url: `${origin}/invitations/${encodeURIComponent(token)}` }
+		)
+	);
+	return { id: invitation.id, email, role, expiresAt: invitation.expiresAt.toISOString() };
+}
+
+export function revokeInvitation(projectId: string, invitationId: string): void {
+	const result = getDb()
+		.delete(invitations)
+		.where(and(eq(invitations.projectId, projectId), eq(invitations.id, invitationId), isNull(invitations.acceptedAt)))
+		.run();
+	if (result.changes === 0) throw new ServiceError(404, 'Invitation not found.');
+}
+
+export interface PendingInvitation {
+	id: string;
+	email: string;
+	role: ProjectRole;
+	project: { id: string; name: string };
+}
+
+/** The invitation behind a token, when it is unused and unexpired. */
+export function findInvitation(token: string): PendingInvitation | undefined {
+	const row = getDb()
+		.select({ invitation: invitations, project: projects })
+		.from(invitations)
+		.innerJoin(projects, eq(projects.id, invitations.projectId))
+		.where(eq(invitations.tokenHash, hashToken(token)))
+		.get();
+	if (!row || row.invitation.acceptedAt || row.invitation.expiresAt.getTime() < Date.now()) return undefined;
+	const { id, email, role } = row.invitation;
+	return { id, email, role, project: { id: row.project.id, name: row.project.name } };
+}
+
+/** Makes the user a member with the invited role (keeping a higher role they already hold) and closes the invitation. */
+export function acceptInvitation(token: string, user: { id: string; email: string }): PendingInvitation {
+	const invitation = findInvitation(token);
+	if (!invitation) throw new ServiceError(404, 'This invitation has expired or was already used.');
+	if (invitation.email !== user.email.toLowerCase()) {
+		throw new ServiceError(403, `This invitation is for ${invitation.email}. Sign in with that address to accept it.`);
+	}
+	getDb().transaction((tx) => {
+		tx.insert(memberships)
+			.values({ projectId: invitation.project.id, userId: user.id, role: invitation.role })
+			.onConflictDoNothing()
+			.run();
+		tx.update(invitations).set({ acceptedAt: new Date() }).where(eq(invitations.id, invitation.id)).run();
+	});
+	return invitation;
+}
+
+function ownerCount(projectId: string): number {
+	return (
+		getDb()
+			.select({ n: count() })
+			.from(memberships)
+			.where(and(eq(memberships.projectId, projectId), eq(memberships.role, 'owner')))
+			.get()?.n ?? 0
+	);
+}
+
+function membership(projectId: string, userId: string) {
+	const row = getDb()
+		.select()
+		.from(memberships)
+		.where(and(eq(memberships.projectId, projectId), eq(memberships.userId, userId)))
+		.get();
+	if (!row) throw new ServiceError(404, 'Member not found.');
+	return row;
+}
+
+/** Changes a member's role; a project always keeps at least one owner. */
+export function changeMemberRole(projectId: string, userId: string, role: ProjectRole): void {
+	const current = membership(projectId, userId);
+	if (current.role === 'owner' && role !== 'owner' && ownerCount(projectId) <= 1) {
+		throw new ServiceError(409, 'A project needs at least one owner. Make someone else owner first.');
+	}
+	getDb()
+		.update(memberships)
+		.set({ role })
+		.where(and(eq(memberships.projectId, projectId), eq(memberships.userId, userId)))
+		.run();
+}
+
+/** Removes a member; the last owner cannot be removed. */
+export function removeMember(projectId: string, userId: string): void {
+	const current = membership(projectId, userId);
+	if (current.role === 'owner' && ownerCount(projectId) <= 1) {
+		throw new ServiceError(409, 'A project needs at least one owner. Make someone else owner first.');
+	}
+	getDb()
+		.delete(memberships)
+		.where(and(eq(memberships.projectId, projectId), eq(memberships.userId, userId)))
+		.run();
+}
