@@ -10,6 +10,8 @@ interface Design {
 	w: Float64Array;
 	/** 1 for a vertical bin, 0 for a horizontal one. */
 	vert: Uint8Array;
+	/** The largest γ̂; g holds γ̂ / scale, so huge or tiny variances neither overflow nor underflow in the weights. */
+	scale: number;
 }
 
 const TYPES = ['spherical', 'exponential', 'gaussian'] as const;
@@ -53,14 +55,18 @@ export function fitVariogram(input: FitInput, opts: FitOptions): VariogramModel 
 	const design = buildDesign(input, minPairs);
 	const nV = count(design.vert, 1);
 	const nH = design.h.length - nV;
-	const linear = makeLinearSolver(design, type, nugget, sill);
+	const scaled = (v: number | 'fit' | undefined) => (typeof v === 'number' ? v / design.scale : v);
+	const linear = makeLinearSolver(design, type, scaled(nugget), scaled(sill) as number | 'fit');
 
 	const boundsV = nV > 0 ? bounds(design, 1) : null;
 	const boundsH = nH > 0 ? bounds(design, 0) : null;
 	const [aV, aH] = searchRanges(boundsV, boundsH, (lv, lh) => linear(exp(lv), exp(lh)).wss);
 	const rangeV = boundsV ? exp(aV) : exp(aH);
 	const rangeH = boundsH ? exp(aH) : exp(aV);
-	const { c0, c } = linear(rangeV, rangeH);
+	const fitted = linear(rangeV, rangeH);
+	// A fixed nugget or sill is returned exactly as given, not as a rescaled round trip.
+	const c0 = typeof nugget === 'number' ? nugget : Math.min(fitted.c0 * design.scale, typeof sill === 'number' ? sill : Infinity);
+	const c = typeof sill === 'number' ? Math.max(0, sill - c0) : fitted.c * design.scale;
 
 	const structures: Structure[] = [];
 	if (nugget !== undefined) structures.push({ type: 'nugget', sill: c0, rangeMajor: 0, rangeMinor: 0, rangeVertical: 0 });
@@ -89,7 +95,7 @@ export function variogramMisfit(
 	for (let k = 0; k < d.h.length; k++) {
 		const h = d.h[k];
 		const gm = d.vert[k] ? m.gamma(0, 0, h) : m.gamma(h * rot.sin, h * rot.cos, 0);
-		const r = d.g[k] - gm;
+		const r = d.g[k] - gm / d.scale;
 		wss += d.w[k] * r * r;
 	}
 	return { wss, bins: d.h.length };
@@ -113,13 +119,14 @@ function buildDesign(input: FitInput, minPairs: number): Design {
 	let gmax = 0;
 	for (const r of rows) if (r.g > gmax) gmax = r.g;
 	if (gmax === 0) throw new Error('experimental variogram is zero');
-	const floor = 1e-6 * gmax;
 	const n = rows.length;
-	const d: Design = { h: new Float64Array(n), g: new Float64Array(n), w: new Float64Array(n), vert: new Uint8Array(n) };
+	const d: Design = { h: new Float64Array(n), g: new Float64Array(n), w: new Float64Array(n), vert: new Uint8Array(n), scale: gmax };
 	rows.forEach((r, k) => {
-		const gg = Math.max(r.g, floor);
+		// The misfit Σ N/γ̂²·(γ̂ − γ)² is scale-free, so working in units of the largest γ̂ changes nothing else.
+		const g = r.g / gmax;
+		const gg = Math.max(g, 1e-6);
 		d.h[k] = r.h;
-		d.g[k] = r.g;
+		d.g[k] = g;
 		d.w[k] = r.n / (gg * gg);
 		d.vert[k] = r.v;
 	});
