@@ -1,0 +1,111 @@
+import { describe, expect, it } from 'vitest';
+import { locateSounding, polylineLength, projectOntoPolyline } from '../../../src/lib/server/services/site';
+import { SECTION_LINE, scenarioSoundings } from '../../../src/lib/server/scenario/levee';
+import { expectAbsClose } from '../../asserts';
+
+// An L-shaped line: 100 along +x, then 100 along +y. Values below are worked by hand.
+const L: [number, number][] = [
+	[0, 0],
+	[100, 0],
+	[100, 100]
+];
+
+describe('projectOntoPolyline(line, x, y)', () => {
+	it('projectOntoPolyline(line, x, y) gives chainage and a right-positive offset on the first segment', () => {
+		// Looking along +x, the point at y = −10 is 10 to the right.
+		const p = projectOntoPolyline(L, 50, -10);
+		expect(p.segment).toBe(0);
+		expectAbsClose(p.chainage, 50, 1e-12, 'chainage');
+		expectAbsClose(p.offset, 10, 1e-12, 'offset');
+	});
+
+	it('projectOntoPolyline(line, x, y) adds the lengths of earlier segments', () => {
+		// Second segment runs along +y from (100, 0); x = 110 is 10 to its right; 100 + 50 along.
+		const p = projectOntoPolyline(L, 110, 50);
+		expect(p.segment).toBe(1);
+		expectAbsClose(p.chainage, 150, 1e-12, 'chainage');
+		expectAbsClose(p.offset, 10, 1e-12, 'offset');
+		const left = projectOntoPolyline(L, 90, 50);
+		expectAbsClose(left.offset, -10, 1e-12, 'left offset');
+	});
+
+	it('projectOntoPolyline(line, x, y) extends the end segments (negative chainage before the start)', () => {
+		const before = projectOntoPolyline(L, -20, 5);
+		expectAbsClose(before.chainage, -20, 1e-12, 'chainage');
+		expectAbsClose(before.offset, -5, 1e-12, 'offset');
+		const after = projectOntoPolyline(L, 100, 130);
+		expectAbsClose(after.chainage, 230, 1e-12, 'chainage');
+		expect(after.offset).toBe(0);
+	});
+
+	it('projectOntoPolyline(line, x, y) outside a corner goes to the vertex; the earlier segment wins a tie', () => {
+		// (120, −20) is √800 from the vertex (100, 0), equally far from both segments.
+		const p = projectOntoPolyline(L, 120, -20);
+		expect(p.segment).toBe(0);
+		expectAbsClose(p.chainage, 100, 1e-12, 'chainage');
+		expectAbsClose(p.offset, Math.sqrt(800), 1e-12, 'offset');
+	});
+
+	it('projectOntoPolyline(line, x, y) skips zero-length segments and handles huge coordinates', () => {
+		const dup: [number, number][] = [
+			[0, 0],
+			[0, 0],
+			[3, 4]
+		];
+		const p = projectOntoPolyline(dup, 3, 4);
+		expectAbsClose(p.chainage, 5, 1e-12, 'chainage');
+		const far: [number, number][] = [
+			[5e6, 5e6],
+			[5e6 + 10, 5e6]
+		];
+		const q = projectOntoPolyline(far, 5e6 + 4, 5e6 + 3);
+		expectAbsClose(q.chainage, 4, 1e-9, 'chainage');
+		expectAbsClose(q.offset, -3, 1e-9, 'offset');
+	});
+
+	it('projectOntoPolyline(line, x, y) rejects a degenerate line and non-finite points', () => {
+		expect(() => projectOntoPolyline([[1, 1]], 0, 0)).toThrow(RangeError);
+		expect(() => projectOntoPolyline([[1, 1], [1, 1]], 0, 0)).toThrow('two distinct points');
+		expect(() => projectOntoPolyline(L, NaN, 0)).toThrow('finite');
+		expect(() => projectOntoPolyline([[0, 0], [NaN, 1]], 0, 0)).toThrow(RangeError);
+	});
+
+	it('projectOntoPolyline(line, x, y) recovers the demo scenario chainages and offsets', () => {
+		const b = (SECTION_LINE.bearing * Math.PI) / 180;
+		const line: [number, number][] = [
+			[SECTION_LINE.start.x, SECTION_LINE.start.y],
+			[SECTION_LINE.start.x + SECTION_LINE.length * Math.sin(b), SECTION_LINE.start.y + SECTION_LINE.length * Math.cos(b)]
+		];
+		for (const s of scenarioSoundings()) {
+			const p = projectOntoPolyline(line, s.x, s.y);
+			// Coordinates are rounded to 0.01 m, so chainage and offset agree within 0.01 m.
+			expectAbsClose(p.chainage, s.chainage, 0.01, `${s.id} chainage`);
+			expectAbsClose(p.offset, s.offset, 0.01, `${s.id} offset`);
+		}
+	});
+});
+
+describe('polylineLength(line) and locateSounding(site, sounding)', () => {
+	it('polylineLength(line) sums segment lengths', () => {
+		expect(polylineLength(L)).toBe(200);
+		expect(polylineLength([])).toBe(0);
+	});
+
+	it('locateSounding(site, s) projects when it can, else uses the given chainage, and flags far soundings', () => {
+		const site = { sectionLine: L, offLineTolerance: 25 };
+		expect(locateSounding(site, { x: 50, y: -10, chainage: 999 })).toEqual({
+			chainage: 50,
+			offset: 10,
+			farOffLine: false,
+			source: 'projected'
+		});
+		expect(locateSounding(site, { x: 50, y: -30, chainage: null }).farOffLine).toBe(true);
+		expect(locateSounding({ sectionLine: null, offLineTolerance: 25 }, { x: 50, y: -30, chainage: 12 })).toEqual({
+			chainage: 12,
+			offset: null,
+			farOffLine: false,
+			source: 'given'
+		});
+		expect(locateSounding({ sectionLine: null, offLineTolerance: 25 }, { x: 1, y: 2, chainage: null }).source).toBe('none');
+	});
+});
