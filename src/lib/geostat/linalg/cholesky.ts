@@ -1,0 +1,55 @@
+/**
+ * In-place Cholesky factorisation A = L·Lᵀ of a symmetric positive-definite n×n matrix stored row-major in
+ * the first n² entries of `a` (Golub & Van Loan 2013, Matrix Computations, alg. 4.2.1). Only the lower
+ * triangle is read; on success it holds L (the strict upper triangle is left untouched).
+ *
+ * A pivot at or below `relTol` times the largest diagonal entry means the matrix is singular to working
+ * precision; the function then returns false (no throw: callers of the hot loop decide what to do).
+ * Mutates `a`. Inner-loop routine: it checks its sizes only.
+ * @throws {RangeError} if n is not a non-negative integer or `a` holds fewer than n² entries
+ */
+export function choleskyFactor(a: Float64Array, n: number, relTol = 1e-13): boolean {
+	if (!Number.isInteger(n) || n < 0) throw new RangeError('n must be a non-negative integer');
+	if (a.length < n * n) throw new RangeError('matrix buffer too small');
+	let dmax = 0;
+	for (let i = 0; i < n; i++) if (a[i * n + i] > dmax) dmax = a[i * n + i];
+	const tol = relTol * dmax;
+	for (let j = 0; j < n; j++) {
+		const rj = j * n;
+		let d = a[rj + j];
+		for (let k = 0; k < j; k++) d -= a[rj + k] * a[rj + k];
+		// `!(d > tol)` also catches NaN, so a NaN entry can never leak into a solution.
+		if (!(d > tol)) return false;
+		const ljj = Math.sqrt(d);
+		a[rj + j] = ljj;
+		const inv = 1 / ljj;
+		for (let i = j + 1; i < n; i++) {
+			const ri = i * n;
+			let s = a[ri + j];
+			for (let k = 0; k < j; k++) s -= a[ri + k] * a[rj + k];
+			a[ri + j] = s * inv;
+		}
+	}
+	return true;
+}
+
+/**
+ * Solves L·Lᵀ·x = b with the factor left in `l` by choleskyFactor (forward then back substitution).
+ * Writes x into `x` (which may be `b` itself) and returns it. Does not mutate `l`.
+ * @throws {RangeError} if a buffer is smaller than its size requires
+ */
+export function choleskySolve(l: Float64Array, n: number, b: Float64Array, x: Float64Array = new Float64Array(n)): Float64Array {
+	if (l.length < n * n || b.length < n || x.length < n) throw new RangeError('buffer too small');
+	for (let i = 0; i < n; i++) {
+		const ri = i * n;
+		let s = b[i];
+		for (let k = 0; k < i; k++) s -= l[ri + k] * x[k];
+		x[i] = s / l[ri + i];
+	}
+	for (let i = n - 1; i >= 0; i--) {
+		let s = x[i];
+		for (let k = i + 1; k < n; k++) s -= l[k * n + i] * x[k];
+		x[i] = s / l[i * n + i];
+	}
+	return x;
+}
