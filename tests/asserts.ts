@@ -30,3 +30,13 @@ export function expectSameBits(actual: ArrayLike<number>, expected: ArrayLike<nu
 		if (!Object.is(actual[i], expected[i])) expect.fail(`${label}[${i}]: ${actual[i]} is not bit-identical to ${expected[i]}`);
 	}
 }
+
+/** Element-wise |a[i] − b[i]| ≤ abs where b[i] is a number, and a[i] NaN exactly where b[i] is NaN. */
+export function expectAllAbsCloseOrNaN(actual: ArrayLike<number>, expected: ArrayLike<number>, abs: number, label = ''): void {
+	expect(actual.length, `${label} length`).toBe(expected.length);
+	for (let i = 0; i < expected.length; i++) {
+		if (Number.isNaN(expected[i])) {
+			if (!Number.isNaN(actual[i])) expect.fail(`${label}[${i}]: ${actual[i]} where NaN was expected`);
+		} else expectAbsClose(actual[i], expected[i], abs, `${label}[${i}]`);
+	}
+}

@@ -1,0 +1,160 @@
+import { CptParseError } from './errors';
+import type { ParseOptions } from './types';
+import { isMissingCell, prepareText, splitLines, splitQuoted } from './text';
+import { detectDelimiter, firstContentLine, parseCell, trimTrailing } from './delimitedText';
+import type { Delimiter } from './delimitedText';
+import type { DelimitedLengthUnit, DelimitedMapping, DelimitedStressUnit } from './parseDelimited';
+import { lengthUnitFactor, stressUnitFactor } from './units';
+
+/** A mapping guessed from the header; depth, qc or fs stay undefined when no column looks like them. */
+export type DelimitedMappingGuess = Omit<DelimitedMapping, 'depth' | 'qc' | 'fs'> & {
+	depth?: string;
+	qc?: string;
+	fs?: string;
+};
+
+/** What the column-mapping step shows: the header, the first rows and a guessed mapping. */
+export interface DelimitedPreview {
+	delimiter: Delimiter;
+	headers: string[];
+	/** The first rows as text cells (at most `rows`). */
+	rows: string[][];
+	/** Non-blank lines after the header in the whole file. */
+	rowCount: number;
+	guess: DelimitedMappingGuess;
+}
+
+/** Options of {@link previewDelimited}. */
+export interface PreviewOptions extends ParseOptions {
+	/** Rows to return; default 10. */
+	rows?: number;
+}
+
+/**
+ * Reads the header and first rows of delimited text and guesses a mapping for {@link parseDelimited}:
+ * columns by their names (depth, qc, fs, u2, sounding id, easting/northing or chainage, ground elevation,
+ * area ratio, and AGS-style names such as SCPT_RES), units from a unit in the header ("qc (MPa)", "fs [kPa]",
+ * "depth_ft"), else from the magnitude of the first values (qc above 300 read as kPa, fs and u2 below 2 as MPa
+ * — rules of our own). The guess is for a person to confirm, never applied silently.
+ *
+ * @throws CptParseError for empty, binary or oversized text, or a header without a delimiter.
+ */
+export function previewDelimited(text: string, options: PreviewOptions = {}): DelimitedPreview {
+	const { file, rows: wanted = 10 } = options;
+	const lines = splitLines(prepareText(text, file));
+	const header = firstContentLine(lines);
+	const delimiter = detectDelimiter(lines, header, file);
+	const headers = splitQuoted(lines[header], delimiter);
+	if (!headers) throw new CptParseError({ code: 'malformed', file, line: header + 1, detail: 'a quoted field is not closed' });
+	trimTrailing(headers, 0);
+
+	const rows: string[][] = [];
+	const sample: string[][] = [];
+	let rowCount = 0;
+	for (let i = header + 1; i < lines.length; i++) {
+		if (lines[i].trim() === '') continue;
+		rowCount++;
+		if (sample.length >= 200) continue;
+		const f = splitQuoted(lines[i], delimiter);
+		if (!f) continue;
+		const r = trimTrailing(f, headers.length);
+		sample.push(r);
+		if (rows.length < wanted) rows.push(r);
+	}
+
+	const names = headers.map(splitName);
+	const find = (re: RegExp, exclude?: RegExp): string | undefined => {
+		const k = names.findIndex((n) => re.test(n.key) && !(exclude && exclude.test(n.key)));
+		return k >= 0 ? headers[k] : undefined;
+	};
+	const column = (k: string | undefined): { column: string } | undefined => (k === undefined ? undefined : { column: k });
+	const values = (name: string | undefined): number[] => {
+		const k = name === undefined ? -1 : headers.indexOf(name);
+		const out: number[] = [];
+		if (k < 0) return out;
+		for (const r of sample) {
+			const cell = r[k];
+			if (cell === undefined || isMissingCell(cell)) continue;
+			const v = parseCell(cell, delimiter);
+			if (v !== undefined) out.push(v);
+		}
+		return out;
+	};
+	const unitIn = (name: string | undefined): string | undefined => (name === undefined ? undefined : names[headers.indexOf(name)].unit);
+
+	const depth = find(/^(depth|penetration|penetrationlength|dpth|scptdpth|correcteddepth)/);
+	const qc = find(/^(qc|coneresistance|tipresistance|conetip|coneres|scptres)/);
+	const fs = find(/^(fs|sleevefriction|localfriction|sleeve|friction|scptfres)/, /ratio|rf/);
+	const u2 = find(/^(u2|porepressure|porewaterpressure|pwp2|pwp|scptpwp2)/);
+	const id = find(/^(id|sounding|soundingid|cpt|cptid|test|testid|locaid|location|locationid|name|hole|holeid|borehole)$/);
+	const x = find(/^(x|easting|east|locanate)$/);
+	const y = find(/^(y|northing|north|locanatn)$/);
+	const chainage = find(/^(chainage|station|ch)$/);
+	const ground = find(/^(groundelevation|elevation|groundlevel|gl|surfaceelevation|zground|locagl)$/);
+	const area = find(/^(arearatio|netarearatio|a|car|scpgcar)$/);
+
+	const guess: DelimitedMappingGuess = {
+		delimiter,
+		depth,
+		qc,
+		fs,
+		units: {
+			depth: lengthUnit(unitIn(depth)) ?? 'm',
+			qc: stressUnit(unitIn(qc)) ?? (median(values(qc)) > 300 ? 'kPa' : 'MPa'),
+			fs: stressUnit(unitIn(fs)) ?? (median(values(fs)) < 2 ? 'MPa' : 'kPa')
+		}
+	};
+	if (u2 !== undefined) {
+		guess.u2 = u2;
+		guess.units.u2 = stressUnit(unitIn(u2)) ?? (median(values(u2).map(Math.abs)) < 2 ? 'MPa' : 'kPa');
+	}
+	const coordUnit = lengthUnit(unitIn(x ?? chainage ?? ground));
+	if (coordUnit) guess.units.coordinates = coordUnit;
+	if (id !== undefined) guess.id = id;
+	if (x !== undefined) guess.x = column(x);
+	if (y !== undefined) guess.y = column(y);
+	if (chainage !== undefined) guess.chainage = column(chainage);
+	if (ground !== undefined) guess.groundElevation = column(ground);
+	if (area !== undefined) guess.areaRatio = column(area);
+	return { delimiter, headers, rows, rowCount, guess };
+}
+
+/** A header split into a comparison key (letters and digits, lower case) and a unit, if it names one. */
+function splitName(header: string): { key: string; unit?: string } {
+	let name = header.trim();
+	let unit: string | undefined;
+	const bracket = /^(.*?)[[(]\s*([^\])]*?)\s*[\])]\s*$/.exec(name);
+	if (bracket) {
+		name = bracket[1];
+		unit = bracket[2];
+	} else {
+		const suffix = /^(.*?)[\s_]+([A-Za-z]+(?:\/[A-Za-z]+2?)?)$/.exec(name);
+		if (suffix && (stressUnitFactor(suffix[2]) !== undefined || lengthUnitFactor(suffix[2]) !== undefined)) {
+			name = suffix[1];
+			unit = suffix[2];
+		}
+	}
+	return { key: name.toLowerCase().replace(/[^a-z0-9]/g, ''), unit };
+}
+
+function stressUnit(unit: string | undefined): DelimitedStressUnit | undefined {
+	const f = unit === undefined ? undefined : stressUnitFactor(unit);
+	if (f === 1) return 'kPa';
+	if (f === 1000) return 'MPa';
+	if (f !== undefined && unit!.trim().toLowerCase() === 'tsf') return 'tsf';
+	return undefined;
+}
+
+function lengthUnit(unit: string | undefined): DelimitedLengthUnit | undefined {
+	const f = unit === undefined ? undefined : lengthUnitFactor(unit);
+	if (f === 1) return 'm';
+	if (f !== undefined && unit!.trim().toLowerCase() === 'ft') return 'ft';
+	return undefined;
+}
+
+function median(v: number[]): number {
+	if (v.length === 0) return NaN;
+	const s = [...v].sort((a, b) => a - b);
+	const h = s.length >> 1;
+	return s.length % 2 ? s[h] : (s[h - 1] + s[h]) / 2;
+}
