@@ -70,4 +70,10 @@ export { targetsFromDefinition } from './recipe/targets-from-definition';
 export { createRecipe, recipeInput } from './recipe/create-recipe';
 export { recipeHash } from './recipe/recipe-hash';
 export { regenerate } from './recipe/regenerate';
+export { dataReproduction } from './validation/data-reproduction';
+export type { DataReproduction } from './validation/data-reproduction';
+export { histogramReproduction } from './validation/histogram-reproduction';
+export type { HistogramReproduction } from './validation/histogram-reproduction';
+export { variogramReproduction } from './validation/variogram-reproduction';
+export type { VariogramReproductionLag } from './validation/variogram-reproduction';
 // --- end of part 2 ---

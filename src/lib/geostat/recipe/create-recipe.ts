@@ -1,0 +1,42 @@
+import { ENGINE_VERSION } from './engine-version';
+import { recipeSchema } from './schema';
+import type { Recipe, TargetDefinition } from './schema';
+import type { SimulationInput } from '../simulation/types';
+
+/**
+ * Builds a recipe from a simulation input and its targets' definition, stamped with ENGINE_VERSION and
+ * validated by recipeSchema. Infinite ranges (no variation along an axis) are written as null, since JSON
+ * has no Infinity. Returns a new object; inputs are not mutated.
+ * @throws {RangeError} listing the schema's issues when the input is not a valid recipe
+ */
+export function createRecipe(input: SimulationInput, targets: TargetDefinition): Recipe {
+	const raw = JSON.parse(
+		JSON.stringify({ engineVersion: ENGINE_VERSION, input, targets }, (_k, v) => (v === Infinity ? null : v))
+	);
+	const parsed = recipeSchema.safeParse(raw);
+	if (!parsed.success) {
+		throw new RangeError(`invalid recipe: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`);
+	}
+	return parsed.data;
+}
+
+/** The simulation input of a recipe, with null ranges turned back into Infinity. Returns a new object. */
+export function recipeInput(recipe: Recipe): SimulationInput {
+	return {
+		seed: recipe.input.seed,
+		domains: recipe.input.domains.map((d) => ({
+			...d,
+			samples: d.samples.map((s) => ({ ...s })),
+			model: {
+				azimuth: d.model.azimuth,
+				structures: d.model.structures.map((s) => ({
+					type: s.type,
+					sill: s.sill,
+					rangeMajor: s.rangeMajor ?? Infinity,
+					rangeMinor: s.rangeMinor ?? Infinity,
+					rangeVertical: s.rangeVertical ?? Infinity
+				}))
+			}
+		}))
+	};
+}

@@ -1,0 +1,11 @@
+/**
+ * Version of the engine's realization arithmetic. It goes up with any change that would alter a single bit
+ * of any realization (random stream, path, search, kriging, transforms, target expansion), so a recipe
+ * written by another version is recognised as such instead of silently regenerating different fields.
+ */
+export const ENGINE_VERSION = 'conefield-sgs/1';
+
+/** Whether a recipe was written by this engine version (and so regenerates bit for bit here). */
+export function isCurrentEngine(recipe: { engineVersion: string }): boolean {
+	return recipe !== null && typeof recipe === 'object' && recipe.engineVersion === ENGINE_VERSION;
+}

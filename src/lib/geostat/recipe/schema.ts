@@ -1,0 +1,106 @@
+import { z } from 'zod';
+
+// A range of null means "no variation along this axis" (Infinity in the engine), which JSON cannot hold.
+const range = z.number().positive().nullable();
+
+export const sampleSchema = z.object({
+	x: z.number(),
+	y: z.number(),
+	z: z.number(),
+	value: z.number(),
+	sounding: z.string().optional()
+});
+
+export const structureSchema = z.object({
+	type: z.enum(['nugget', 'spherical', 'exponential', 'gaussian']),
+	sill: z.number().nonnegative(),
+	rangeMajor: range,
+	rangeMinor: range,
+	rangeVertical: range
+});
+
+export const variogramModelSchema = z.object({
+	structures: z.array(structureSchema),
+	azimuth: z.number()
+});
+
+export const domainInputSchema = z
+	.object({
+		samples: z.array(sampleSchema),
+		weights: z.array(z.number().positive()).optional(),
+		model: variogramModelSchema,
+		transform: z.enum(['normal-score', 'none']),
+		mean: z.number().optional(),
+		kriging: z.enum(['simple', 'ordinary']),
+		zmin: z.number().optional(),
+		zmax: z.number().optional(),
+		search: z.object({
+			maxData: z.number().int().nonnegative(),
+			maxSimulated: z.number().int().nonnegative(),
+			maxPerSounding: z.number().int().positive().optional(),
+			radius: z.object({ major: z.number().positive(), minor: z.number().positive(), vertical: z.number().positive() }).optional()
+		})
+	})
+	.refine((d) => d.weights === undefined || d.weights.length === d.samples.length, { message: 'weights must match samples', path: ['weights'] })
+	.refine((d) => d.transform === 'none' || d.samples.length > 0, { message: 'a normal-score domain needs samples', path: ['samples'] });
+
+export const simulationInputSchema = z.object({
+	seed: z.string(),
+	domains: z.array(domainInputSchema)
+});
+
+const xyz = z.object({ x: z.number(), y: z.number(), z: z.number() });
+
+/** Run-length encoded domain indices in target order: [domain, count] pairs (domain −1: not simulated). */
+const domainRuns = z.array(z.tuple([z.number().int().min(-1), z.number().int().positive()]));
+
+/** A regular grid: targets origin + (i, j, k)·spacing, x fastest, then y, then z. */
+export const gridTargetsSchema = z
+	.object({
+		kind: z.literal('grid'),
+		origin: xyz,
+		spacing: z.object({ x: z.number().positive(), y: z.number().positive(), z: z.number().positive() }),
+		counts: z.object({ x: z.number().int().positive(), y: z.number().int().positive(), z: z.number().int().positive() }),
+		domainRuns
+	})
+	.refine((g) => g.domainRuns.reduce((s, r) => s + r[1], 0) === g.counts.x * g.counts.y * g.counts.z, {
+		message: 'domain runs must cover the grid',
+		path: ['domainRuns']
+	});
+
+/** Explicit target points. */
+export const pointTargetsSchema = z
+	.object({
+		kind: z.literal('points'),
+		x: z.array(z.number()),
+		y: z.array(z.number()),
+		z: z.array(z.number()),
+		domain: z.array(z.number().int().min(-1))
+	})
+	.refine((p) => p.y.length === p.x.length && p.z.length === p.x.length && p.domain.length === p.x.length, {
+		message: 'point columns must have equal lengths'
+	});
+
+export const targetDefinitionSchema = z.discriminatedUnion('kind', [gridTargetsSchema, pointTargetsSchema]);
+
+/**
+ * A recipe: everything a realization depends on — the resolved simulation input, the targets' definition
+ * and the engine version. Realization r of a recipe is a pure function of (recipe, r).
+ */
+export const recipeSchema = z
+	.object({
+		engineVersion: z.string(),
+		input: simulationInputSchema,
+		targets: targetDefinitionSchema
+	})
+	.refine(
+		(r) => {
+			const n = r.input.domains.length;
+			const ds = r.targets.kind === 'grid' ? r.targets.domainRuns.map((x) => x[0]) : r.targets.domain;
+			return ds.every((d) => d < n);
+		},
+		{ message: 'target domain out of range', path: ['targets'] }
+	);
+
+export type Recipe = z.infer<typeof recipeSchema>;
+export type TargetDefinition = z.infer<typeof targetDefinitionSchema>;

@@ -1,0 +1,46 @@
+import type { Sample, VariogramModel } from '../types';
+
+/** Target points of a simulation, as columns. `domain[i]` is the index of the domain of point i; −1: not simulated. */
+export interface TargetPoints {
+	x: Float64Array;
+	y: Float64Array;
+	z: Float64Array;
+	domain: Int32Array;
+}
+
+/** Search neighbourhood of one domain. */
+export interface SearchOptions {
+	/** Most conditioning data per kriging system (≥ 0). */
+	maxData: number;
+	/** Most previously simulated nodes per kriging system (≥ 0). */
+	maxSimulated: number;
+	/** Most conditioning data from one sounding; default no limit. */
+	maxPerSounding?: number;
+	/** Semi-axes of the search ellipsoid (same orientation as the model); default the model's largest ranges. */
+	radius?: { major: number; minor: number; vertical: number };
+}
+
+/** Everything one domain of a simulation needs. */
+export interface DomainInput {
+	/** Conditioning data in original units; may be empty (unconditional). */
+	samples: Sample[];
+	/** Declustering weights for the normal-score transform, one per sample. */
+	weights?: number[];
+	/** Variogram of the normal scores, or of the values when transform is 'none'. */
+	model: VariogramModel;
+	/** 'none': a Gaussian field of the values themselves with mean `mean`. */
+	transform: 'normal-score' | 'none';
+	/** Simple-kriging mean in the kriged space (normal scores or values); default 0. */
+	mean?: number;
+	kriging: 'simple' | 'ordinary';
+	/** Tail bounds of the back-transform. */
+	zmin?: number;
+	zmax?: number;
+	search: SearchOptions;
+}
+
+/** A whole simulation: one seed and the domains, indexed as TargetPoints.domain. */
+export interface SimulationInput {
+	seed: string;
+	domains: DomainInput[];
+}

@@ -1,0 +1,119 @@
+import { describe, it, expect } from 'vitest';
+import {
+	canonicalJson,
+	createRecipe,
+	recipeHash,
+	recipeInput,
+	recipeSchema,
+	targetsFromDefinition,
+	isCurrentEngine,
+	regenerate,
+	simulate,
+	ENGINE_VERSION
+} from '../../../src/lib/geostat/index';
+import type { SimulationInput, TargetDefinition } from '../../../src/lib/geostat/index';
+import { expectSameBits } from '../../asserts';
+
+const input: SimulationInput = {
+	seed: 'levee-A',
+	domains: [
+		{
+			samples: [
+				{ x: 2, y: 0, z: -1, value: 3.5, sounding: 'C1' },
+				{ x: 7, y: 0, z: -2, value: 5.25, sounding: 'C2' },
+				{ x: 7, y: 0, z: -1, value: 4.0, sounding: 'C2' }
+			],
+			model: { azimuth: 90, structures: [{ type: 'exponential', sill: 1, rangeMajor: 8, rangeMinor: Infinity, rangeVertical: 1.5 }] },
+			transform: 'normal-score',
+			kriging: 'simple',
+			search: { maxData: 8, maxSimulated: 8 }
+		}
+	]
+};
+const grid: TargetDefinition = {
+	kind: 'grid',
+	origin: { x: 0, y: 0, z: -3 },
+	spacing: { x: 1, y: 1, z: 0.5 },
+	counts: { x: 10, y: 1, z: 6 },
+	domainRuns: [[0, 50], [-1, 10]]
+};
+
+describe('canonicalJson(value)', () => {
+	it('canonicalJson sorts keys at every depth, so key order never changes the text (RFC 8785 idea)', () => {
+		expect(canonicalJson({ b: 1, a: { d: [1, { f: 2, e: 3 }], c: 'x' } })).toBe('{"a":{"c":"x","d":[1,{"e":3,"f":2}]},"b":1}');
+		expect(canonicalJson({ a: 1, b: 2 })).toBe(canonicalJson({ b: 2, a: 1 }));
+	});
+	it('canonicalJson writes numbers in shortest round-trip form and drops undefined members', () => {
+		expect(canonicalJson([0.1, 1e21, 1e-7, -0, 5, 1 / 3])).toBe('[0.1,1e+21,1e-7,0,5,0.3333333333333333]');
+		expect(canonicalJson({ a: undefined, b: null })).toBe('{"b":null}');
+		expect(canonicalJson(new Float64Array([1.5, 2]))).toBe('[1.5,2]');
+	});
+	it('canonicalJson rejects NaN, Infinity, functions and cycles', () => {
+		expect(() => canonicalJson(NaN)).toThrow(RangeError);
+		expect(() => canonicalJson([Infinity])).toThrow(RangeError);
+		expect(() => canonicalJson(() => 1)).toThrow(TypeError);
+		const cyc: Record<string, unknown> = {};
+		cyc.self = cyc;
+		expect(() => canonicalJson(cyc)).toThrow('cyclic structure');
+	});
+});
+
+describe('createRecipe / recipeHash', () => {
+	it('createRecipe stamps ENGINE_VERSION, writes infinite ranges as null and passes recipeSchema', () => {
+		const r = createRecipe(input, grid);
+		expect(r.engineVersion).toBe(ENGINE_VERSION);
+		expect(r.input.domains[0].model.structures[0].rangeMinor).toBeNull();
+		expect(recipeSchema.safeParse(JSON.parse(JSON.stringify(r))).success).toBe(true);
+		expect(recipeInput(r).domains[0].model.structures[0].rangeMinor).toBe(Infinity);
+		expect(isCurrentEngine(r)).toBe(true);
+		expect(isCurrentEngine({ ...r, engineVersion: 'conefield-sgs/0' })).toBe(false);
+	});
+
+	it('recipeHash is 64 hex digits, unchanged by key order, changed by any value', () => {
+		const r = createRecipe(input, grid);
+		const h = recipeHash(r);
+		expect(h).toMatch(/^[0-9a-f]{64}$/);
+		const reordered = JSON.parse(canonicalJson(r), (_k, v) =>
+			v && typeof v === 'object' && !Array.isArray(v) ? Object.fromEntries(Object.entries(v).reverse()) : v
+		);
+		expect(Object.keys(reordered)[0]).not.toBe(Object.keys(r)[0]);
+		expect(recipeHash(reordered)).toBe(h);
+		expect(recipeHash(createRecipe({ ...input, seed: 'levee-B' }, grid))).not.toBe(h);
+		expect(recipeHash({ ...r, engineVersion: 'conefield-sgs/0' })).not.toBe(h);
+	});
+
+	it('createRecipe rejects invalid inputs with RangeError naming the issue', () => {
+		expect(() => createRecipe(input, { ...grid, domainRuns: [[0, 5]] })).toThrow(/domain runs must cover the grid/);
+		expect(() => createRecipe(input, { ...grid, domainRuns: [[1, 60]] })).toThrow(/target domain out of range/);
+		const bad = { ...input, domains: [{ ...input.domains[0], samples: [] }] };
+		expect(() => createRecipe(bad, grid)).toThrow(/normal-score domain needs samples/);
+	});
+});
+
+describe('targetsFromDefinition(def)', () => {
+	it('targetsFromDefinition(grid) lists origin + index·spacing, x fastest, with the domain runs', () => {
+		const t = targetsFromDefinition(grid);
+		expect(t.x.length).toBe(60);
+		expect([t.x[0], t.z[0], t.x[9], t.x[10], t.z[10], t.z[59]]).toEqual([0, -3, 9, 0, -2.5, -0.5]);
+		expect(t.domain[49]).toBe(0);
+		expect(t.domain[50]).toBe(-1);
+	});
+	it('targetsFromDefinition(points) copies the columns and rejects unequal lengths', () => {
+		const t = targetsFromDefinition({ kind: 'points', x: [1, 2], y: [0, 0], z: [3, 4], domain: [0, -1] });
+		expect(Array.from(t.z)).toEqual([3, 4]);
+		expect(() => targetsFromDefinition({ kind: 'points', x: [1], y: [], z: [1], domain: [0] })).toThrow(RangeError);
+	});
+});
+
+describe('regenerate(recipe, r)', () => {
+	it('regenerate(recipe, r) equals simulate of the recipe input bit for bit, also after a JSON round trip', () => {
+		const r = createRecipe(input, grid);
+		const direct = simulate(input, targetsFromDefinition(grid), 3);
+		expectSameBits(regenerate(r, 3), direct);
+		expectSameBits(regenerate(JSON.parse(JSON.stringify(r)), 3), direct);
+	});
+	it('regenerate refuses a recipe of another engine version', () => {
+		const r = createRecipe(input, grid);
+		expect(() => regenerate({ ...r, engineVersion: 'conefield-sgs/0' }, 0)).toThrow('recipe is from engine version conefield-sgs/0');
+	});
+});

@@ -1,0 +1,293 @@
+import { describe, it, expect } from 'vitest';
+import { Matrix, CholeskyDecomposition } from 'ml-matrix';
+import {
+	simulate,
+	simulatePrepared,
+	prepareSimulation,
+	realizationStream,
+	krige,
+	covariance,
+	inverseNormalCdf,
+	dataReproduction,
+	histogramReproduction
+} from '../../../src/lib/geostat/index';
+import type { DomainInput, Sample, SimulationInput, TargetPoints, VariogramModel } from '../../../src/lib/geostat/index';
+import { expectAbsClose, expectSameBits } from '../../asserts';
+
+function lcg(seed: number) {
+	let s = seed;
+	return () => (s = (s * 16807) % 2147483647) / 2147483647;
+}
+
+function line(n: number, jitter = 0): TargetPoints {
+	const rnd = lcg(5);
+	return {
+		x: Float64Array.from({ length: n }, (_, i) => i + (jitter ? (rnd() - 0.5) * jitter : 0)),
+		y: new Float64Array(n),
+		z: new Float64Array(n),
+		domain: new Int32Array(n)
+	};
+}
+
+function section(nx: number, nz: number, dx: number, dz: number): TargetPoints {
+	const n = nx * nz;
+	const t: TargetPoints = { x: new Float64Array(n), y: new Float64Array(n), z: new Float64Array(n), domain: new Int32Array(n) };
+	for (let k = 0; k < nz; k++) for (let i = 0; i < nx; i++) {
+		t.x[k * nx + i] = i * dx;
+		t.z[k * nx + i] = -k * dz;
+	}
+	return t;
+}
+
+// Exponential model, practical range 10: C(h) = exp(−3h/10) (REFERENCES.md, practical-range forms).
+const expModel: VariogramModel = { azimuth: 90, structures: [{ type: 'exponential', sill: 1, rangeMajor: 10, rangeMinor: 10, rangeVertical: 10 }] };
+const LAGS = [1, 2, 5, 10];
+
+function gaussianDomain(extra: Partial<DomainInput> = {}): DomainInput {
+	return { samples: [], model: expModel, transform: 'none', kriging: 'simple', search: { maxData: 8, maxSimulated: 8 }, ...extra };
+}
+
+/** Pooled mean, variance and covariance at integer lags of fields on a line of unit spacing. */
+function lineStats(fields: Float64Array[], n: number) {
+	let s = 0;
+	let ss = 0;
+	const cov = LAGS.map(() => 0);
+	const cnt = LAGS.map(() => 0);
+	for (const f of fields) {
+		for (let i = 0; i < n; i++) {
+			s += f[i];
+			ss += f[i] * f[i];
+		}
+		LAGS.forEach((h, l) => {
+			for (let i = 0; i + h < n; i++) {
+				cov[l] += f[i] * f[i + h];
+				cnt[l]++;
+			}
+		});
+	}
+	const m = s / (fields.length * n);
+	return { mean: m, variance: ss / (fields.length * n) - m * m, cov: cov.map((c, l) => c / cnt[l]) };
+}
+
+// Ergodic tolerance: with R = 600 realizations of 40 nodes and an integral range of about 10/3·2 ≈ 7 nodes,
+// the pooled statistics rest on roughly 600·40/7 ≈ 3,400 independent values, a standard error near
+// √(2/3400) ≈ 0.025 for variance and covariances; 0.1 is four standard errors.
+const ERGODIC_TOL = 0.1;
+const R = 600;
+
+describe('simulate(input, targets, r) — unconditional, transform none', () => {
+	const n = 40;
+	const targets = line(n);
+	const input: SimulationInput = { seed: 'unconditional', domains: [gaussianDomain()] };
+	const prep = prepareSimulation(input, targets);
+	const fields = Array.from({ length: R }, (_, r) => simulatePrepared(prep, r));
+
+	it('simulate reproduces mean 0, variance = sill and the model covariance at lags 1, 2, 5, 10 (Deutsch & Journel 1998, ch. V) within 0.1', () => {
+		expect(prep.lattice).not.toBeNull();
+		const st = lineStats(fields, n);
+		expectAbsClose(st.mean, 0, ERGODIC_TOL, 'mean');
+		expectAbsClose(st.variance, 1, ERGODIC_TOL, 'variance');
+		LAGS.forEach((h, l) => expectAbsClose(st.cov[l], covariance(expModel, h, 0, 0), ERGODIC_TOL, `C(${h})`));
+	});
+
+	it('exact Gaussian simulation by Cholesky of the full covariance (Davis 1987, ml-matrix) gives the same statistics within 0.1', () => {
+		const C = new Matrix(Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => covariance(expModel, i - j, 0, 0))));
+		const L = new CholeskyDecomposition(C).lowerTriangularMatrix;
+		const exact = Array.from({ length: R }, (_, r) => {
+			const rand = realizationStream('exact-reference', r, 0);
+			const z = Matrix.columnVector(Array.from({ length: n }, () => inverseNormalCdf(rand())));
+			return Float64Array.from(L.mmul(z).to1DArray());
+		});
+		const ex = lineStats(exact, n);
+		const sg = lineStats(fields, n);
+		expectAbsClose(ex.mean, 0, ERGODIC_TOL, 'exact mean');
+		expectAbsClose(ex.variance, 1, ERGODIC_TOL, 'exact variance');
+		LAGS.forEach((h, l) => {
+			expectAbsClose(ex.cov[l], covariance(expModel, h, 0, 0), ERGODIC_TOL, `exact C(${h})`);
+			// Both estimate the same quantity with independent errors: 2 × the tolerance.
+			expectAbsClose(sg.cov[l], ex.cov[l], 2 * ERGODIC_TOL, `SGS vs exact C(${h})`);
+		});
+	});
+
+	it('simulate on scattered points (no lattice: bucket-grid search, direct covariances) reproduces the same statistics within 0.1', () => {
+		const pts = line(n, 1e-3);
+		const p2 = prepareSimulation(input, pts);
+		expect(p2.lattice).toBeNull();
+		const st = lineStats(Array.from({ length: 300 }, (_, r) => simulatePrepared(p2, r)), n);
+		// 300 realizations: standard errors √2 larger, tolerance too.
+		expectAbsClose(st.variance, 1, 1.5 * ERGODIC_TOL, 'variance');
+		LAGS.forEach((h, l) => expectAbsClose(st.cov[l], covariance(expModel, h, 0, 0), 1.5 * ERGODIC_TOL, `C(${h})`));
+	});
+});
+
+describe('simulate(input, targets, r) — conditional', () => {
+	const data: Sample[] = [
+		{ x: 3, y: 0, z: 0, value: 1.0 },
+		{ x: 9, y: 0, z: 0, value: -0.5 },
+		{ x: 16, y: 0, z: 0, value: 0.8 }
+	];
+
+	it('simulate at a node between data: mean and variance over 2,000 realizations ≈ the simple-kriging estimate and variance (Goovaerts 1997, ch. 8)', () => {
+		const targets = line(21);
+		const input: SimulationInput = { seed: 'between', domains: [gaussianDomain({ samples: data, search: { maxData: 3, maxSimulated: 20 } })] };
+		const prep = prepareSimulation(input, targets);
+		const Rn = 2000;
+		let s = 0;
+		let ss = 0;
+		for (let r = 0; r < Rn; r++) {
+			const v = simulatePrepared(prep, r)[6];
+			s += v;
+			ss += v * v;
+		}
+		const mean = s / Rn;
+		const variance = ss / Rn - mean * mean;
+		const sk = krige(data, { x: 6, y: 0, z: 0 }, expModel, { type: 'simple', mean: 0 });
+		// Four standard errors: √(σ²/R) for the mean, σ²·√(2/R) for the variance.
+		expectAbsClose(mean, sk.estimate, 4 * Math.sqrt(sk.variance / Rn), 'mean');
+		expectAbsClose(variance, sk.variance, 4 * sk.variance * Math.sqrt(2 / Rn), 'variance');
+	});
+
+	it('simulate honours the data exactly at data nodes, simple and ordinary, normal-score and none', () => {
+		const targets = section(30, 10, 1, 0.5);
+		const samples: Sample[] = [];
+		for (const x of [2, 11, 23]) for (let k = 0; k < 10; k += 2) samples.push({ x, y: 0, z: -k * 0.5, value: 10 + x + k * 1.7, sounding: `S${x}` });
+		samples.push({ x: 5.3, y: 0, z: -1.1, value: 42 });
+		const model: VariogramModel = { azimuth: 90, structures: [{ type: 'nugget', sill: 0.1, rangeMajor: 0, rangeMinor: 0, rangeVertical: 0 }, { type: 'spherical', sill: 0.9, rangeMajor: 12, rangeMinor: 12, rangeVertical: 2 }] };
+		for (const transform of ['normal-score', 'none'] as const) {
+			for (const kriging of ['simple', 'ordinary'] as const) {
+				const input: SimulationInput = { seed: 's', domains: [{ samples, model, transform, kriging, mean: transform === 'none' ? 20 : 0, search: { maxData: 6, maxSimulated: 6, maxPerSounding: 2 } }] };
+				const v = simulate(input, targets, 1);
+				const rep = dataReproduction(v, targets, samples);
+				expect(rep.count).toBe(15);
+				expect(rep.maxError).toBe(0);
+				expect(v.every(Number.isFinite)).toBe(true);
+			}
+		}
+	});
+
+	it('simulate with the normal-score transform reproduces the data quantiles within 15 % of the data 5–95 % range', () => {
+		const rnd = lcg(77);
+		const samples: Sample[] = [];
+		for (let i = 0; i < 150; i++) {
+			// Lognormal values by Box–Muller in the test (not engine code).
+			const g = Math.sqrt(-2 * Math.log(rnd())) * Math.cos(2 * Math.PI * rnd());
+			samples.push({ x: rnd() * 59, y: 0, z: -rnd() * 14.5, value: Math.exp(1 + 0.6 * g) });
+		}
+		const targets = section(60, 30, 1, 0.5);
+		const input: SimulationInput = {
+			seed: 'histogram',
+			domains: [{ samples, model: { azimuth: 90, structures: [{ type: 'exponential', sill: 1, rangeMajor: 10, rangeMinor: 10, rangeVertical: 2 }] }, transform: 'normal-score', kriging: 'simple', search: { maxData: 12, maxSimulated: 12 } }]
+		};
+		const prep = prepareSimulation(input, targets);
+		const pooled: number[] = [];
+		for (let r = 0; r < 8; r++) pooled.push(...simulatePrepared(prep, r));
+		const values = samples.map((s) => s.value);
+		const rep = histogramReproduction(pooled, values);
+		const spread = rep.reference[rep.reference.length - 1] - rep.reference[0];
+		expect(rep.maxError).toBeLessThan(0.15 * spread);
+	});
+});
+
+describe('simulate — independence, determinism, domains', () => {
+	const targets = section(25, 8, 1, 0.5);
+	const samples: Sample[] = [{ x: 4, y: 0, z: -1, value: 2, sounding: 'A' }, { x: 20, y: 0, z: -2, value: 5, sounding: 'B' }, { x: 20, y: 0, z: -0.5, value: 3, sounding: 'B' }];
+	const input: SimulationInput = {
+		seed: 'independence',
+		domains: [{ samples, model: { azimuth: 90, structures: [{ type: 'exponential', sill: 1, rangeMajor: 15, rangeMinor: 15, rangeVertical: 1.5 }] }, transform: 'normal-score', kriging: 'ordinary', search: { maxData: 4, maxSimulated: 10 } }]
+	};
+
+	it('simulate(input, t, 17) regenerated alone equals realization 17 of a full run of 0..19, bit for bit', () => {
+		const prep = prepareSimulation(input, targets);
+		const run = Array.from({ length: 20 }, (_, r) => simulatePrepared(prep, r));
+		expectSameBits(simulate(input, targets, 17), run[17]);
+		expect(Array.from(run[16])).not.toEqual(Array.from(run[17]));
+	});
+
+	it('simulate repeats bit for bit, depends on the seed, and does not mutate its inputs', () => {
+		const before = JSON.stringify(input) + Array.from(targets.x).join();
+		const a = simulate(input, targets, 2);
+		const b = simulate(input, targets, 2);
+		expectSameBits(a, b);
+		expect(Array.from(simulate({ ...input, seed: 'other' }, targets, 2))).not.toEqual(Array.from(a));
+		expect(JSON.stringify(input) + Array.from(targets.x).join()).toBe(before);
+	});
+
+	it('simulate keeps domains apart: NaN at domain −1, each domain its own mean, and changing one domain leaves the other bit-identical', () => {
+		const t: TargetPoints = { ...targets, domain: Int32Array.from(targets.x, (x, i) => (i % 25 === 0 ? -1 : x < 12 ? 0 : 1)) };
+		const d0 = gaussianDomain({ mean: 0 });
+		const two: SimulationInput = { seed: 'two', domains: [d0, gaussianDomain({ mean: 100 })] };
+		const v = simulate(two, t, 0);
+		for (let i = 0; i < v.length; i++) {
+			if (t.domain[i] < 0) expect(Number.isNaN(v[i])).toBe(true);
+			// Sill 1: a value beyond 8 standard deviations of its domain's mean would mean mixed domains.
+			else expect(Math.abs(v[i] - (t.domain[i] === 0 ? 0 : 100))).toBeLessThan(8);
+		}
+		const changed = simulate({ seed: 'two', domains: [d0, gaussianDomain({ mean: 100, model: expModel, search: { maxData: 2, maxSimulated: 3 } })] }, t, 0);
+		for (let i = 0; i < v.length; i++) if (t.domain[i] === 0) expect(Object.is(changed[i], v[i])).toBe(true);
+	});
+
+	it('simulate reports progress in increasing steps, ending at (total, total)', () => {
+		const calls: [number, number][] = [];
+		simulate(input, targets, 0, (d, t) => calls.push([d, t]));
+		expect(calls.length).toBeGreaterThan(10);
+		for (let i = 1; i < calls.length; i++) expect(calls[i][0]).toBeGreaterThanOrEqual(calls[i - 1][0]);
+		expect(calls[calls.length - 1]).toEqual([200, 200]);
+	});
+});
+
+describe('simulate — edge cases', () => {
+	it('simulate with no targets, or all at domain −1, returns an empty / all-NaN array', () => {
+		const input: SimulationInput = { seed: 'e', domains: [gaussianDomain()] };
+		expect(simulate(input, line(0), 0).length).toBe(0);
+		const t = line(3);
+		t.domain.fill(-1);
+		expect(Array.from(simulate(input, t, 0)).every(Number.isNaN)).toBe(true);
+	});
+
+	it('simulate with one target and no data draws from the mean and sill', () => {
+		const v = simulate({ seed: 'one', domains: [gaussianDomain({ mean: 7 })] }, line(1), 0);
+		expect(Math.abs(v[0] - 7)).toBeLessThan(8);
+	});
+
+	it('simulate merges duplicate data (a target there takes their mean) and rescues a near-singular Gaussian system', () => {
+		const samples: Sample[] = [{ x: 2, y: 0, z: 0, value: 1 }, { x: 2, y: 0, z: 0, value: 3 }, { x: 5, y: 0, z: 0, value: 0 }, { x: 5.00001, y: 0, z: 0, value: 0.1 }];
+		const gauss: VariogramModel = { azimuth: 90, structures: [{ type: 'gaussian', sill: 1, rangeMajor: 30, rangeMinor: 30, rangeVertical: 30 }] };
+		const v = simulate({ seed: 'dup', domains: [gaussianDomain({ samples, model: gauss })] }, line(10), 0);
+		expect(v[2]).toBe(2);
+		expect(v.every(Number.isFinite)).toBe(true);
+	});
+
+	it('simulate with a pure nugget model or no neighbours gives white noise of the sill (variance within 0.1 over 4,000 values)', () => {
+		const nug: VariogramModel = { azimuth: 0, structures: [{ type: 'nugget', sill: 2, rangeMajor: 0, rangeMinor: 0, rangeVertical: 0 }] };
+		for (const d of [gaussianDomain({ model: nug }), gaussianDomain({ search: { maxData: 0, maxSimulated: 0 } })]) {
+			const v = simulate({ seed: 'w', domains: [d] }, line(4000), 0);
+			const m = v.reduce((s, x) => s + x, 0) / v.length;
+			const s2 = v.reduce((s, x) => s + (x - m) ** 2, 0) / v.length;
+			// Standard error of a variance from 4,000 independent values: sill·√(2/4000) ≈ 0.045 for sill 2.
+			expectAbsClose(s2, d.model === nug ? 2 : 1, d.model === nug ? 0.18 : 0.09, 'white-noise variance');
+		}
+	});
+
+	it('simulate handles huge values (transform none, 1e12 scale) without overflow', () => {
+		const samples: Sample[] = [{ x: 3, y: 0, z: 0, value: 1e12 }];
+		const big: VariogramModel = { azimuth: 90, structures: [{ type: 'exponential', sill: 1e22, rangeMajor: 10, rangeMinor: 10, rangeVertical: 10 }] };
+		const v = simulate({ seed: 'big', domains: [gaussianDomain({ samples, model: big, mean: 1e12 })] }, line(10), 0);
+		expect(v[3]).toBe(1e12);
+		expect(v.every(Number.isFinite)).toBe(true);
+	});
+
+	it('simulate rejects bad input: TypeError for wrong types, RangeError for bad sizes and ranges', () => {
+		const ok: SimulationInput = { seed: 'x', domains: [gaussianDomain()] };
+		const t = line(3);
+		expect(() => simulate({ ...ok, seed: 1 as unknown as string }, t, 0)).toThrow(TypeError);
+		expect(() => simulate(ok, { ...t, x: [0, 1, 2] as unknown as Float64Array }, 0)).toThrow(TypeError);
+		expect(() => simulate(ok, { ...t, domain: Int32Array.from([0, 1, 0]) }, 0)).toThrow(/out of range/);
+		expect(() => simulate(ok, { ...t, z: new Float64Array([0, NaN, 0]) }, 0)).toThrow(RangeError);
+		expect(() => simulate(ok, { ...t, y: new Float64Array(2) }, 0)).toThrow(RangeError);
+		expect(() => simulate(ok, t, -1)).toThrow(RangeError);
+		expect(() => simulate(ok, t, 1.5)).toThrow(RangeError);
+		expect(() => simulate({ seed: 'x', domains: [gaussianDomain({ transform: 'normal-score' })] }, t, 0)).toThrow(/needs samples/);
+		expect(() => simulate({ seed: 'x', domains: [gaussianDomain({ search: { maxData: -1, maxSimulated: 2 } })] }, t, 0)).toThrow(RangeError);
+		expect(() => simulate({ seed: 'x', domains: [gaussianDomain({ samples: [{ x: 0, y: 0, z: 0, value: NaN }] })] }, t, 0)).toThrow(RangeError);
+	});
+});
