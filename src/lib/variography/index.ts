@@ -1,0 +1,24 @@
+// The variography workspace's computations: what workers/variography.ts runs, callable directly in tests.
+export type {
+	DomainSamplesData,
+	LagSettings,
+	VariogramSettings,
+	ExperimentalResult,
+	ModelParameters,
+	Misfit,
+	ModelMisfit,
+	RangeSensitivity,
+	Progress
+} from './types';
+export { prepareSamples } from './prepare-samples';
+export type { PreparedSamples } from './prepare-samples';
+export { computeVariograms, CancelledError } from './compute-variograms';
+export type { ComputeOptions } from './compute-variograms';
+export { modelFromParameters, parametersFromModel } from './model-parameters';
+export { modelMisfit, misfitOrNull } from './model-misfit';
+export { autoFit } from './auto-fit';
+export type { AutoFitOptions } from './auto-fit';
+export { rangeSensitivity } from './range-sensitivity';
+export type { SensitivityOptions } from './range-sensitivity';
+export { lagTableCsv } from './lag-table-csv';
+export { defaultSettings } from './default-settings';

@@ -1,0 +1,175 @@
+import { describe, expect, it } from 'vitest';
+import { fitVariogram, gamma, variogramMisfit, type VariogramModel } from '../../src/lib/geostat/index';
+import {
+	autoFit,
+	computeVariograms,
+	defaultSettings,
+	lagTableCsv,
+	modelFromParameters,
+	modelMisfit,
+	parametersFromModel,
+	prepareSamples,
+	rangeSensitivity,
+	type ExperimentalResult,
+	type VariogramSettings
+} from '../../src/lib/variography/index';
+import { expectRelClose } from '../asserts';
+import { handDomain } from './fixture';
+
+const settings: VariogramSettings = {
+	transform: 'normal',
+	declustered: true,
+	vertical: { lag: 0.1, nLags: 20, lagTolerance: 0.05 },
+	horizontal: { lag: 7.5, nLags: 12, lagTolerance: 3.75, verticalBand: 0.1, azimuth: null, angleTolerance: 22.5 },
+	minPairs: 30
+};
+
+async function bins(): Promise<ExperimentalResult> {
+	return computeVariograms(prepareSamples(handDomain(), settings), settings, { pause: async () => {} });
+}
+
+describe('autoFit(bins, options)', () => {
+	it('autoFit returns fitVariogram\'s parameters and variogramMisfit\'s misfit (exact)', async () => {
+		const r = await bins();
+		const input = { vertical: r.vertical, horizontal: r.horizontal };
+		const fit = autoFit(input, { type: 'exponential', nugget: 'fit', minPairs: 30, azimuth: 0 });
+		const direct = fitVariogram(input, { type: 'exponential', nugget: 'fit', minPairs: 30 });
+		expect(direct.structures[0].type).toBe('nugget');
+		expect(fit.parameters.nugget).toBe(direct.structures[0].sill);
+		expect(fit.parameters.sill).toBe(direct.structures[0].sill + direct.structures[1].sill);
+		expect(fit.parameters.rangeVertical).toBe(direct.structures[1].rangeVertical);
+		expect(fit.parameters.rangeHorizontal).toBe(direct.structures[1].rangeMajor);
+		const m = variogramMisfit(fit.model, input);
+		expect(fit.misfit.total).toEqual({ wss: m.wss, bins: m.bins, perBin: m.wss / m.bins });
+		// The model built back from the parameters gives the fitted γ within rounding of sill − nugget (1e-12 relative).
+		for (const h of [0.05, 0.3, 1.7]) expectRelClose(gamma(fit.model, 0, 0, h), gamma(direct, 0, 0, h), 1e-12, `γ(${h})`);
+	});
+
+	it("autoFit with nugget 'none' fits no nugget, and a fixed nugget is held", async () => {
+		const r = await bins();
+		const none = autoFit(r, { type: 'spherical', nugget: 'none', minPairs: 30, azimuth: 0 });
+		expect(none.parameters.nugget).toBe(0);
+		const held = autoFit(r, { type: 'gaussian', nugget: 0.05, minPairs: 30, azimuth: 0 });
+		expect(held.parameters.nugget).toBe(0.05);
+	});
+
+	it('autoFit throws the engine\'s Error when no bin has enough pairs', async () => {
+		const r = await bins();
+		expect(() => autoFit(r, { type: 'exponential', nugget: 'fit', minPairs: 1e9, azimuth: 0 })).toThrow('no bins with enough pairs');
+	});
+});
+
+describe('modelMisfit(model, bins, minPairs)', () => {
+	it('modelMisfit splits the misfit by direction; the parts add up to the total (1e-12 relative)', async () => {
+		const r = await bins();
+		const model = modelFromParameters({ type: 'exponential', nugget: 0.1, sill: 1, rangeVertical: 0.8, rangeHorizontal: 40, azimuth: 0 });
+		const m = modelMisfit(model, r, 30);
+		expect(m.vertical!.wss).toBe(variogramMisfit(model, { vertical: r.vertical }).wss);
+		expect(m.horizontal!.wss).toBe(variogramMisfit(model, { horizontal: r.horizontal }).wss);
+		expectRelClose(m.vertical!.wss + m.horizontal!.wss, m.total!.wss, 1e-12, 'sum');
+		expect(m.total!.bins).toBe(m.vertical!.bins + m.horizontal!.bins);
+	});
+
+	it('modelMisfit gives null for a direction without usable bins, and still throws on a bad model', async () => {
+		const r = await bins();
+		const model = modelFromParameters({ type: 'spherical', nugget: 0, sill: 1, rangeVertical: 1, rangeHorizontal: 10, azimuth: 0 });
+		const empty = r.horizontal.map((b) => ({ ...b, pairs: 0, gamma: NaN }));
+		expect(modelMisfit(model, { vertical: r.vertical, horizontal: empty }, 30).horizontal).toBeNull();
+		const bad = { azimuth: 0, structures: [{ type: 'spherical', sill: -1, rangeMajor: 1, rangeMinor: 1, rangeVertical: 1 }] } as VariogramModel;
+		expect(() => modelMisfit(bad, r, 30)).toThrow(RangeError);
+	});
+});
+
+describe('rangeSensitivity(model, horizontal)', () => {
+	it('rangeSensitivity halves and doubles the horizontal range only; numbers equal variogramMisfit (exact)', async () => {
+		const r = await bins();
+		const p = { type: 'exponential' as const, nugget: 0.1, sill: 1, rangeVertical: 0.8, rangeHorizontal: 40, azimuth: 0 };
+		const s = rangeSensitivity(modelFromParameters(p), r.horizontal)!;
+		const at = (range: number) => variogramMisfit(modelFromParameters({ ...p, rangeHorizontal: range }), { horizontal: r.horizontal });
+		expect(s.range).toBe(40);
+		expect(s.base.wss).toBe(at(40).wss);
+		expect(s.halved.wss).toBe(at(20).wss);
+		expect(s.doubled.wss).toBe(at(80).wss);
+		expect(s.curve).toHaveLength(25);
+		// Log-spaced from ¼ to 4 times the range; the middle point is the model itself (1e-12 relative).
+		expectRelClose(s.curve[0].range, 10, 1e-12, 'first');
+		expectRelClose(s.curve[24].range, 160, 1e-12, 'last');
+		expectRelClose(s.curve[12].range, 40, 1e-12, 'middle');
+		expectRelClose(s.curve[12].perBin, s.base.perBin, 1e-12, 'middle misfit');
+	});
+
+	it('rangeSensitivity at the automatic fit: halving or doubling the horizontal range never lowers the misfit', async () => {
+		// At the joint least-squares optimum the horizontal bins' misfit is minimal in the horizontal range with the
+		// other parameters held (else the joint objective could be lowered); 1e-9 relative for the fit's grid search.
+		// Bins of a known model (nugget 0.2 + exponential, sill 1, practical range 40 m) with a ±5 % wobble, 200 pairs each.
+		const truth = modelFromParameters({ type: 'exponential', nugget: 0.2, sill: 1, rangeVertical: 1, rangeHorizontal: 40, azimuth: 0 });
+		const horizontal = Array.from({ length: 12 }, (_, k) => {
+			const h = 7.5 * (k + 1);
+			return { h, gamma: gamma(truth, 0, h, 0) * (1 + 0.05 * Math.sin(3 * k)), pairs: 200 };
+		});
+		const r = { horizontal };
+		const fit = autoFit({ horizontal }, { type: 'exponential', nugget: 'fit', minPairs: 30, azimuth: 0 });
+		// The argument needs the fitted range inside the fit's search bounds [0.1·h_min, 10·h_max] (here 0.75–900 m).
+		expect(fit.parameters.rangeHorizontal).toBeGreaterThan(2 * 0.75);
+		expect(fit.parameters.rangeHorizontal).toBeLessThan(900 / 4);
+		const s = rangeSensitivity(fit.model, r.horizontal)!;
+		expect(s.halved.wss).toBeGreaterThanOrEqual(s.base.wss * (1 - 1e-9));
+		expect(s.doubled.wss).toBeGreaterThanOrEqual(s.base.wss * (1 - 1e-9));
+		for (const pt of s.curve) expect(pt.perBin).toBeGreaterThanOrEqual(s.base.perBin * (1 - 1e-6));
+	});
+
+	it('rangeSensitivity returns null without usable horizontal bins and rejects bad options', async () => {
+		const r = await bins();
+		const model = modelFromParameters({ type: 'spherical', nugget: 0, sill: 1, rangeVertical: 1, rangeHorizontal: 10, azimuth: 0 });
+		expect(rangeSensitivity(model, [])).toBeNull();
+		expect(() => rangeSensitivity(model, r.horizontal, { points: 1 })).toThrow(RangeError);
+		expect(() => rangeSensitivity({ azimuth: 0, structures: [{ type: 'nugget', sill: 1, rangeMajor: 0, rangeMinor: 0, rangeVertical: 0 }] }, r.horizontal)).toThrow(
+			'model has no horizontal range'
+		);
+	});
+});
+
+describe('modelFromParameters / parametersFromModel', () => {
+	it('modelFromParameters puts the nugget first and round-trips through parametersFromModel (exact)', () => {
+		const p = { type: 'gaussian' as const, nugget: 0.25, sill: 1.5, rangeVertical: 1.2, rangeHorizontal: 33, azimuth: 30 };
+		const m = modelFromParameters(p);
+		expect(m.structures.map((s) => s.type)).toEqual(['nugget', 'gaussian']);
+		expect(m.structures[1].sill).toBe(1.25);
+		expect(parametersFromModel(m)).toEqual(p);
+	});
+
+	it('modelFromParameters rejects a negative nugget, a sill below the nugget and zero ranges', () => {
+		const p = { type: 'spherical' as const, nugget: 0, sill: 1, rangeVertical: 1, rangeHorizontal: 1, azimuth: 0 };
+		expect(() => modelFromParameters({ ...p, nugget: -0.1 })).toThrow('nugget must be >= 0');
+		expect(() => modelFromParameters({ ...p, nugget: 2 })).toThrow('sill must be >= nugget');
+		expect(() => modelFromParameters({ ...p, rangeHorizontal: 0 })).toThrow('ranges must be > 0');
+		expect(() => modelFromParameters({ ...p, rangeVertical: NaN })).toThrow('ranges must be > 0');
+		expect(() => parametersFromModel({ azimuth: 0, structures: [] })).toThrow(RangeError);
+	});
+});
+
+describe('lagTableCsv(bins, options) and defaultSettings(data)', () => {
+	it('lagTableCsv writes one row per bin, blanks for empty bins, and the model column', () => {
+		const csv = lagTableCsv(
+			[
+				{ h: 0.9, gamma: 0.5, pairs: 40 },
+				{ h: 2, gamma: NaN, pairs: 0 }
+			],
+			{ lag: 1, lengthUnit: 'm', model: (h) => h / 2 }
+		);
+		expect(csv).toBe('bin,lag_m,mean_separation_m,gamma,pairs,model_gamma\n1,1,0.9,0.5,40,0.45\n2,2,,,0,1\n');
+	});
+
+	it('defaultSettings reads the reading spacing and the sounding spacing off the samples', () => {
+		// 0.05 m readings → vertical lag 0.1 m (the floor). Nearest-neighbour distances 7.5 m (×4) and 15 m (×4):
+		// median 11.25 m → horizontal lag 10 m (1-2-2.5-5 steps from below).
+		const s = defaultSettings(handDomain());
+		expect(s.vertical).toEqual({ lag: 0.1, nLags: 30, lagTolerance: 0.05 });
+		expect(s.horizontal.lag).toBe(10);
+		expect(s.horizontal.lagTolerance).toBe(5);
+		// Largest separation 105 m → lags to 52.5 m: 6 lags of 10 m.
+		expect(s.horizontal.nLags).toBe(6);
+		expect(s.horizontal.verticalBand).toBe(0.1);
+		expect(s.horizontal.azimuth).toBeNull();
+	});
+});
