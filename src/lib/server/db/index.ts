@@ -3,7 +3,10 @@ import { drizzle, type BetterSQLite3Database } from 'drizzle-orm/better-sqlite3'
 import { migrate } from 'drizzle-orm/better-sqlite3/migrator';
 import { mkdirSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
-import * as schema from './schema';
+import * as coreSchema from './schema';
+import * as siteSchema from './site-schema';
+
+const schema = { ...coreSchema, ...siteSchema };
 
 export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Database };
 
