@@ -1,6 +1,5 @@
 import { and, asc, eq, inArray } from 'drizzle-orm';
-import { derive, type DerivedSounding, type UnitAtSounding } from '$lib/cpt/derive';
-import { CptFlag } from '$lib/cpt/flags';
+import { CptFlag, derive, type DerivedSounding, type UnitAtSounding } from '$lib/cpt';
 import { getDb } from '$lib/server/db';
 import { fromFloat64Blob } from '$lib/server/db/float64';
 import { contacts, soundings, units, type SimulatedProperty, type Sounding, type Unit } from '$lib/server/db/site-schema';

@@ -1,0 +1,136 @@
+/** Request bodies of the site, stratigraphy, zonation and domain endpoints. */
+import { z } from 'zod';
+
+const finite = (label: string) => z.number({ error: `${label} must be a number.` }).refine(Number.isFinite, { error: `${label} must be finite.` });
+const positive = (label: string) => finite(label).refine((v) => v > 0, { error: `${label} must be greater than 0.` });
+const name = (label: string) =>
+	z
+		.string({ error: `Enter a ${label}.` })
+		.trim()
+		.min(1, { error: `Enter a ${label}.` })
+		.max(80, { error: `Use at most 80 characters for the ${label}.` });
+
+export const simulatedProperty = z.enum(['qc1Ncs', 'suRatio', 'Ic', 'qt', 'FC', 'Dr', 'su', 'Qtn'], {
+	error: 'Choose a property: qc1Ncs, suRatio, Ic, qt, FC, Dr, su or Qtn.'
+});
+
+export const colour = z
+	.string({ error: 'Enter a colour.' })
+	.regex(/^#[0-9a-fA-F]{6}$/, { error: 'Use a colour like #a07c4f.' })
+	.transform((c) => c.toLowerCase());
+
+const point = z.tuple([finite('Easting'), finite('Northing')]);
+
+export const siteUpdateSchema = z
+	.object({
+		geometry: z.enum(['2d', '3d'], { error: 'Choose 2d or 3d.' }),
+		sectionLine: z.array(point).min(2, { error: 'The section line needs at least two points.' }).max(200).nullable(),
+		offLineTolerance: positive('The off-line tolerance'),
+		groundwaterElevation: finite('The groundwater elevation').nullable()
+	})
+	.partial()
+	.strict();
+
+const unitFields = {
+	name: name('unit name'),
+	colour,
+	position: z.number().int({ error: 'The position must be a whole number.' }).min(0),
+	gammaAbove: positive('The unit weight above the water table').refine((v) => v <= 30, { error: 'Unit weights above 30 kN/m³ are not soil.' }),
+	gammaBelow: positive('The unit weight below the water table').refine((v) => v <= 30, { error: 'Unit weights above 30 kN/m³ are not soil.' }),
+	nkt: positive('Nkt').refine((v) => v <= 50, { error: 'Nkt above 50 is implausible.' }),
+	cfc: finite('CFC').refine((v) => v >= -1 && v <= 1, { error: 'CFC must lie within −1 and 1.' }),
+	property: simulatedProperty,
+	zoneNames: z.array(name('zone name')).max(20).nullable()
+};
+
+export const unitCreateSchema = z
+	.object(unitFields)
+	.partial()
+	.required({ name: true })
+	.strict();
+export const unitUpdateSchema = z.object(unitFields).partial().strict();
+
+export const contactPutSchema = z
+	.object({
+		soundingId: z.string().min(1, { error: 'Choose a sounding.' }),
+		unitId: z.string().min(1, { error: 'Choose a unit.' }),
+		topElevation: finite('The top elevation')
+	})
+	.strict();
+
+export const contactDeleteSchema = z
+	.object({ soundingId: z.string().min(1), unitId: z.string().min(1) })
+	.strict();
+
+export const zoneBoundarySchema = z
+	.object({
+		unitId: z.string().min(1, { error: 'Choose a unit.' }),
+		chainageTop: finite('The top chainage'),
+		elevationTop: finite('The top elevation'),
+		chainageBottom: finite('The bottom chainage'),
+		elevationBottom: finite('The bottom elevation')
+	})
+	.strict()
+	.refine((b) => b.elevationTop > b.elevationBottom, {
+		error: 'The top of a zone boundary must be higher than its bottom.',
+		path: ['elevationBottom']
+	});
+
+export const zoneBoundaryUpdateSchema = z.object({ id: z.string().min(1) }).and(zoneBoundarySchema);
+export const zoneBoundaryDeleteSchema = z.object({ id: z.string().min(1) }).strict();
+
+export const memberSchema = z
+	.object({
+		unitId: z.string().min(1, { error: 'Choose a unit.' }),
+		zone: z.number().int().min(-1, { error: 'The zone is −1 (whole unit) or a zone index from 0.' })
+	})
+	.strict();
+
+const declusterCell = z
+	.object({
+		x: positive('The cell size along x'),
+		y: positive('The cell size along y'),
+		/** null: one cell over the full height, the usual choice for vertical soundings. */
+		z: positive('The cell height').nullable()
+	})
+	.strict()
+	.nullable();
+
+const domainFields = {
+	name: name('domain name'),
+	property: simulatedProperty,
+	cellHeight: positive('The cell height').nullable(),
+	averaging: z.enum(['none', 'mean', 'median'], { error: 'Choose none, mean or median.' }),
+	declusterCell,
+	members: z.array(memberSchema).max(100)
+};
+
+export const domainCreateSchema = z
+	.object(domainFields)
+	.partial()
+	.required({ name: true, property: true })
+	.strict();
+export const domainUpdateSchema = z.object(domainFields).partial().strict();
+
+export const zonationCreateSchema = z
+	.object({
+		name: name('zonation name'),
+		description: z.string().trim().max(2000).default(''),
+		domains: z.array(domainCreateSchema).max(50).default([])
+	})
+	.strict();
+export const zonationUpdateSchema = z
+	.object({ name: name('zonation name'), description: z.string().trim().max(2000) })
+	.partial()
+	.strict();
+
+export type SiteUpdateInput = z.output<typeof siteUpdateSchema>;
+export type UnitCreate = z.output<typeof unitCreateSchema>;
+export type UnitUpdate = z.output<typeof unitUpdateSchema>;
+export type ContactPut = z.output<typeof contactPutSchema>;
+export type ZoneBoundaryInput = z.output<typeof zoneBoundarySchema>;
+export type MemberInput = z.output<typeof memberSchema>;
+export type DomainCreate = z.output<typeof domainCreateSchema>;
+export type DomainUpdate = z.output<typeof domainUpdateSchema>;
+export type ZonationCreate = z.output<typeof zonationCreateSchema>;
+export type ZonationUpdate = z.output<typeof zonationUpdateSchema>;

@@ -1,0 +1,411 @@
+import { and, asc, eq } from 'drizzle-orm';
+import { Delaunay } from 'd3';
+import { getDb, type Db } from '$lib/server/db';
+import { contacts, soundings, units, zoneBoundaries, type Unit, type ZoneBoundary } from '$lib/server/db/site-schema';
+import { ServiceError } from '$lib/server/errors';
+import type { ContactPut, UnitCreate, UnitUpdate, ZoneBoundaryInput } from '$lib/schemas/stratigraphy';
+import { getSite, locateSounding, type DbOrTx } from './site';
+
+/**
+ * Default unit colours, our own set: earthy hues that stay apart from each other and from the teal accent,
+ * light enough for dark labels on top. A new unit takes the next one not in use.
+ */
+export const DEFAULT_UNIT_COLOURS = [
+	'#a3845a', // umber
+	'#dcbf62', // ochre
+	'#6f8f99', // slate
+	'#c0763f', // rust
+	'#8d9a63', // olive
+	'#b07a88', // heather
+	'#5f8a70', // moss
+	'#cfa38a', // terracotta pink
+	'#8a7fa6', // lavender grey
+	'#9c9a8f' // stone
+] as const;
+
+/** A unit as the API returns it, with its zone names resolved against its zone boundaries. */
+export interface UnitView {
+	id: string;
+	name: string;
+	colour: string;
+	position: number;
+	gammaAbove: number;
+	gammaBelow: number;
+	nkt: number;
+	cfc: number;
+	property: Unit['property'];
+	/** One name per zone, west to east (by chainage); one entry, the unit's name, when it has no boundaries. */
+	zoneNames: string[];
+}
+
+export function unitView(u: Unit, boundaryCount: number): UnitView {
+	return {
+		id: u.id,
+		name: u.name,
+		colour: u.colour,
+		position: u.position,
+		gammaAbove: u.gammaAbove,
+		gammaBelow: u.gammaBelow,
+		nkt: u.nkt,
+		cfc: u.cfc,
+		property: u.property,
+		zoneNames: zoneNamesOf(u, boundaryCount)
+	};
+}
+
+/** Names of a unit's zones: the stored ones where they fit the boundary count, else "Zone 1", "Zone 2" … */
+export function zoneNamesOf(u: Pick<Unit, 'name' | 'zoneNames'>, boundaryCount: number): string[] {
+	const n = boundaryCount + 1;
+	if (n === 1) return [u.zoneNames?.length === 1 ? u.zoneNames[0] : u.name];
+	return Array.from({ length: n }, (_, k) => u.zoneNames?.[k] ?? `Zone ${k + 1}`);
+}
+
+/** The project's units in stacking order (position 0 on top). */
+export function listUnits(projectId: string, db: DbOrTx = getDb()): UnitView[] {
+	const rows = db.select().from(units).where(eq(units.projectId, projectId)).orderBy(asc(units.position), asc(units.name)).all();
+	const counts = boundaryCounts(projectId, db);
+	return rows.map((u) => unitView(u, counts.get(u.id) ?? 0));
+}
+
+export function getUnit(projectId: string, unitId: string, db: DbOrTx = getDb()): Unit {
+	const u = db.select().from(units).where(and(eq(units.id, unitId), eq(units.projectId, projectId))).get();
+	if (!u) throw new ServiceError(404, 'Unit not found.');
+	return u;
+}
+
+/** Adds a unit at `position` (default: at the bottom), shifting the units below it down; takes the next free default colour. */
+export function createUnit(projectId: string, input: UnitCreate, db: DbOrTx = getDb()): UnitView {
+	const existing = db.select().from(units).where(eq(units.projectId, projectId)).orderBy(asc(units.position)).all();
+	if (existing.some((u) => u.name.toLowerCase() === input.name.toLowerCase())) {
+		throw new ServiceError(409, `A unit named ${input.name} already exists.`);
+	}
+	const used = new Set(existing.map((u) => u.colour));
+	const colour = input.colour ?? DEFAULT_UNIT_COLOURS.find((c) => !used.has(c)) ?? DEFAULT_UNIT_COLOURS[existing.length % DEFAULT_UNIT_COLOURS.length];
+	const position = Math.min(input.position ?? existing.length, existing.length);
+	const run = (tx: DbOrTx) => {
+		const created = tx
+			.insert(units)
+			.values({ ...input, projectId, colour, position: existing.length })
+			.returning()
+			.get();
+		restack(tx, [...existing.map((u) => u.id).slice(0, position), created.id, ...existing.map((u) => u.id).slice(position)]);
+		return created.id;
+	};
+	const id = inTransaction(db, run);
+	return listUnits(projectId, db).find((u) => u.id === id)!;
+}
+
+/** Changes a unit's fields; a new position moves it in the stack and renumbers the others. */
+export function updateUnit(projectId: string, unitId: string, input: UnitUpdate, db: DbOrTx = getDb()): UnitView {
+	const unit = getUnit(projectId, unitId, db);
+	const existing = db.select().from(units).where(eq(units.projectId, projectId)).orderBy(asc(units.position)).all();
+	if (input.name && existing.some((u) => u.id !== unitId && u.name.toLowerCase() === input.name!.toLowerCase())) {
+		throw new ServiceError(409, `A unit named ${input.name} already exists.`);
+	}
+	const { position, ...fields } = input;
+	inTransaction(db, (tx) => {
+		if (Object.keys(fields).length > 0) tx.update(units).set(fields).where(eq(units.id, unit.id)).run();
+		if (position !== undefined && position !== unit.position) {
+			const order = existing.map((u) => u.id).filter((id) => id !== unit.id);
+			order.splice(Math.min(position, order.length), 0, unit.id);
+			restack(tx, order);
+		}
+	});
+	return listUnits(projectId, db).find((u) => u.id === unitId)!;
+}
+
+/** Deletes a unit with its contacts, zone boundaries and domain memberships; the others close up. */
+export function deleteUnit(projectId: string, unitId: string, db: DbOrTx = getDb()): void {
+	getUnit(projectId, unitId, db);
+	inTransaction(db, (tx) => {
+		tx.delete(units).where(eq(units.id, unitId)).run();
+		const rest = tx.select({ id: units.id }).from(units).where(eq(units.projectId, projectId)).orderBy(asc(units.position)).all();
+		restack(tx, rest.map((u) => u.id));
+	});
+}
+
+export interface ContactView {
+	soundingId: string;
+	soundingName: string;
+	unitId: string;
+	topElevation: number;
+}
+
+/** Every contact of the project, by sounding name then stacking order. */
+export function listContacts(projectId: string, db: DbOrTx = getDb()): ContactView[] {
+	return db
+		.select({ soundingId: contacts.soundingId, soundingName: soundings.name, unitId: contacts.unitId, topElevation: contacts.topElevation })
+		.from(contacts)
+		.innerJoin(soundings, eq(soundings.id, contacts.soundingId))
+		.innerJoin(units, eq(units.id, contacts.unitId))
+		.where(eq(units.projectId, projectId))
+		.orderBy(asc(soundings.name), asc(units.position))
+		.all();
+}
+
+/**
+ * Sets the top elevation of a unit at a sounding (creating or replacing the contact).
+ * @throws ServiceError 404 for a sounding or unit outside the project, 422 for a top above the ground surface
+ */
+export function putContact(projectId: string, input: ContactPut, db: DbOrTx = getDb()): ContactView {
+	const s = db
+		.select({ id: soundings.id, name: soundings.name, ground: soundings.groundElevation })
+		.from(soundings)
+		.where(and(eq(soundings.id, input.soundingId), eq(soundings.projectId, projectId)))
+		.get();
+	if (!s) throw new ServiceError(404, 'Sounding not found.');
+	getUnit(projectId, input.unitId, db);
+	// A millimetre of slack lets the top unit sit at a ground elevation typed with rounding.
+	if (input.topElevation > s.ground + 1e-3) {
+		throw new ServiceError(422, `The top elevation ${input.topElevation} lies above the ground surface of ${s.name} (${s.ground}).`);
+	}
+	db.insert(contacts)
+		.values(input)
+		.onConflictDoUpdate({ target: [contacts.soundingId, contacts.unitId], set: { topElevation: input.topElevation } })
+		.run();
+	return { soundingId: s.id, soundingName: s.name, unitId: input.unitId, topElevation: input.topElevation };
+}
+
+/** Removes a contact (the unit is then absent at that sounding). @throws ServiceError 404 when there is none */
+export function deleteContact(projectId: string, soundingId: string, unitId: string, db: DbOrTx = getDb()): void {
+	getUnit(projectId, unitId, db);
+	const r = db.delete(contacts).where(and(eq(contacts.soundingId, soundingId), eq(contacts.unitId, unitId))).run();
+	if (r.changes === 0) throw new ServiceError(404, 'Contact not found.');
+}
+
+/** A value known at a chainage; NaN marks a unit absent at that sounding. */
+export interface Station {
+	chainage: number;
+	value: number;
+}
+
+/**
+ * Linear interpolation along chainage between the two neighbouring stations; constant beyond the first
+ * and last station. Where either neighbour is NaN (the unit is absent there) the result is NaN: the
+ * pinch-out lies somewhere between them and linear interpolation cannot place it. Stations need not be
+ * sorted; at equal chainages the first given wins. Not mutating.
+ * @throws {RangeError} on no stations or a non-finite chainage
+ */
+export function interpolateAlongChainage(stations: ReadonlyArray<Station>, chainage: number): number {
+	if (stations.length === 0) throw new RangeError('no stations');
+	if (!Number.isFinite(chainage)) throw new RangeError('chainage must be finite');
+	const sorted = sortStations(stations);
+	if (chainage <= sorted[0].chainage) return sorted[0].value;
+	const last = sorted[sorted.length - 1];
+	if (chainage >= last.chainage) return last.value;
+	let lo = 0;
+	let hi = sorted.length - 1;
+	while (hi - lo > 1) {
+		const mid = (lo + hi) >> 1;
+		if (sorted[mid].chainage <= chainage) lo = mid;
+		else hi = mid;
+	}
+	const a = sorted[lo];
+	const b = sorted[hi];
+	if (chainage === a.chainage) return a.value;
+	const t = (chainage - a.chainage) / (b.chainage - a.chainage);
+	return a.value + t * (b.value - a.value);
+}
+
+/** A value known at a plan point; NaN marks a unit absent there. */
+export interface PlanPoint {
+	x: number;
+	y: number;
+	value: number;
+}
+
+/**
+ * A surface through plan points: linear on the triangles of their Delaunay triangulation (d3-delaunay),
+ * i.e. barycentric interpolation inside each triangle; the nearest point's value outside the convex hull.
+ * Points that all lie on one line are interpolated along that line instead. A triangle with a NaN corner
+ * gives NaN (the unit is absent there). Duplicate points keep the first value.
+ * @throws {RangeError} on no points or a non-finite coordinate
+ */
+export function triangulatedSurface(points: ReadonlyArray<PlanPoint>): (x: number, y: number) => number {
+	if (points.length === 0) throw new RangeError('no points');
+	for (const p of points) if (!Number.isFinite(p.x) || !Number.isFinite(p.y)) throw new RangeError('coordinates must be finite');
+	const pts = points.map((p) => ({ ...p }));
+	if (pts.length === 1) return () => pts[0].value;
+	const delaunay = Delaunay.from(pts, (p) => p.x, (p) => p.y);
+	const t = delaunay.triangles;
+	// d3-delaunay jitters collinear input into sliver triangles and marks it `collinear`; slivers would interpolate badly.
+	if (t.length === 0 || (delaunay as unknown as { collinear?: Int32Array }).collinear) {
+		// All on one line: measure positions along the direction from the first to the farthest point.
+		const o = pts[0];
+		let far = pts[0];
+		for (const p of pts) if ((p.x - o.x) ** 2 + (p.y - o.y) ** 2 > (far.x - o.x) ** 2 + (far.y - o.y) ** 2) far = p;
+		const len = Math.sqrt((far.x - o.x) ** 2 + (far.y - o.y) ** 2);
+		if (len === 0) return () => pts[0].value;
+		const ux = (far.x - o.x) / len;
+		const uy = (far.y - o.y) / len;
+		const stations = pts.map((p) => ({ chainage: (p.x - o.x) * ux + (p.y - o.y) * uy, value: p.value }));
+		return (x, y) => interpolateAlongChainage(stations, (x - o.x) * ux + (y - o.y) * uy);
+	}
+	// Relative to the triangle's size, so huge map coordinates do not defeat the inside test.
+	const EPS = 1e-12;
+	return (x, y) => {
+		for (let k = 0; k < t.length; k += 3) {
+			const a = pts[t[k]];
+			const b = pts[t[k + 1]];
+			const c = pts[t[k + 2]];
+			const det = (b.y - c.y) * (a.x - c.x) + (c.x - b.x) * (a.y - c.y);
+			const l1 = ((b.y - c.y) * (x - c.x) + (c.x - b.x) * (y - c.y)) / det;
+			const l2 = ((c.y - a.y) * (x - c.x) + (a.x - c.x) * (y - c.y)) / det;
+			const l3 = 1 - l1 - l2;
+			if (l1 >= -EPS && l2 >= -EPS && l3 >= -EPS) return l1 * a.value + l2 * b.value + l3 * c.value;
+		}
+		return pts[delaunay.find(x, y)].value;
+	};
+}
+
+/** A unit's top in the section: its stations at the soundings, and polylines between consecutive present ones. */
+export interface SectionContact {
+	unitId: string;
+	stations: { soundingId: string; chainage: number; topElevation: number | null }[];
+	/** Runs of [chainage, elevation] between soundings where the unit is present, broken where it is absent. */
+	lines: [number, number][][];
+}
+
+/**
+ * The contacts of every unit along the section, interpolated linearly along chainage between soundings
+ * (see {@link interpolateAlongChainage}). Soundings without a chainage are left out.
+ */
+export function sectionContacts(projectId: string, db: DbOrTx = getDb()): SectionContact[] {
+	const site = getSite(projectId, db);
+	const located = db
+		.select({ id: soundings.id, x: soundings.x, y: soundings.y, chainage: soundings.chainage })
+		.from(soundings)
+		.where(eq(soundings.projectId, projectId))
+		.all()
+		.map((s) => ({ id: s.id, chainage: locateSounding(site, s).chainage }))
+		.filter((s): s is { id: string; chainage: number } => s.chainage !== null)
+		.sort((a, b) => a.chainage - b.chainage);
+	const tops = new Map<string, number>();
+	for (const c of listContacts(projectId, db)) tops.set(`${c.soundingId}|${c.unitId}`, c.topElevation);
+	return listUnits(projectId, db).map((u) => {
+		const stations = located.map((s) => ({ soundingId: s.id, chainage: s.chainage, topElevation: tops.get(`${s.id}|${u.id}`) ?? null }));
+		const lines: [number, number][][] = [];
+		let run: [number, number][] = [];
+		for (const s of stations) {
+			if (s.topElevation === null) {
+				if (run.length) lines.push(run);
+				run = [];
+			} else run.push([s.chainage, s.topElevation]);
+		}
+		if (run.length) lines.push(run);
+		return { unitId: u.id, stations, lines };
+	});
+}
+
+/** The geometry of a zone boundary: a straight line in the section from its top to its bottom point. */
+export type BoundaryLine = Pick<ZoneBoundary, 'chainageTop' | 'elevationTop' | 'chainageBottom' | 'elevationBottom'>;
+
+/** Chainage of a boundary line at an elevation, on the line through its two points (extended beyond them). */
+export function boundaryChainageAt(b: BoundaryLine, elevation: number): number {
+	if (b.elevationTop === b.elevationBottom) return (b.chainageTop + b.chainageBottom) / 2;
+	const t = (b.elevationTop - elevation) / (b.elevationTop - b.elevationBottom);
+	return b.chainageTop + t * (b.chainageBottom - b.chainageTop);
+}
+
+/**
+ * The zone of a point (chainage, elevation) within a unit split by boundaries: the number of the unit's
+ * boundaries that lie at or west of the point at its elevation, so zones count from 0 by chainage and a point
+ * on a boundary belongs to the zone east of it. Boundaries are straight lines, vertical or inclined, taken
+ * as extending above and below their end points across the whole unit. Without boundaries the zone is 0.
+ * @throws {RangeError} on a non-finite chainage or elevation
+ */
+export function zoneOf(boundaries: ReadonlyArray<BoundaryLine>, chainage: number, elevation: number): number {
+	if (!Number.isFinite(chainage) || !Number.isFinite(elevation)) throw new RangeError('chainage and elevation must be finite');
+	let zone = 0;
+	for (const b of boundaries) if (boundaryChainageAt(b, elevation) <= chainage) zone++;
+	return zone;
+}
+
+export interface ZoneBoundaryView extends BoundaryLine {
+	id: string;
+	unitId: string;
+}
+
+/** The project's zone boundaries, by unit then west to east. */
+export function listZoneBoundaries(projectId: string, db: DbOrTx = getDb()): ZoneBoundaryView[] {
+	return db
+		.select({
+			id: zoneBoundaries.id,
+			unitId: zoneBoundaries.unitId,
+			chainageTop: zoneBoundaries.chainageTop,
+			elevationTop: zoneBoundaries.elevationTop,
+			chainageBottom: zoneBoundaries.chainageBottom,
+			elevationBottom: zoneBoundaries.elevationBottom
+		})
+		.from(zoneBoundaries)
+		.innerJoin(units, eq(units.id, zoneBoundaries.unitId))
+		.where(eq(units.projectId, projectId))
+		.orderBy(asc(units.position), asc(zoneBoundaries.chainageTop))
+		.all();
+}
+
+/** Boundaries grouped by unit id. */
+export function boundariesByUnit(projectId: string, db: DbOrTx = getDb()): Map<string, ZoneBoundaryView[]> {
+	const out = new Map<string, ZoneBoundaryView[]>();
+	for (const b of listZoneBoundaries(projectId, db)) {
+		if (!out.has(b.unitId)) out.set(b.unitId, []);
+		out.get(b.unitId)!.push(b);
+	}
+	return out;
+}
+
+export function createZoneBoundary(projectId: string, input: ZoneBoundaryInput, db: DbOrTx = getDb()): ZoneBoundaryView {
+	getUnit(projectId, input.unitId, db);
+	const row = db.insert(zoneBoundaries).values(input).returning().get();
+	return pickBoundary(row);
+}
+
+export function updateZoneBoundary(projectId: string, id: string, input: ZoneBoundaryInput, db: DbOrTx = getDb()): ZoneBoundaryView {
+	getBoundary(projectId, id, db);
+	getUnit(projectId, input.unitId, db);
+	const row = db.update(zoneBoundaries).set(input).where(eq(zoneBoundaries.id, id)).returning().get();
+	return pickBoundary(row);
+}
+
+export function deleteZoneBoundary(projectId: string, id: string, db: DbOrTx = getDb()): void {
+	getBoundary(projectId, id, db);
+	db.delete(zoneBoundaries).where(eq(zoneBoundaries.id, id)).run();
+}
+
+function getBoundary(projectId: string, id: string, db: DbOrTx): ZoneBoundary {
+	const row = db
+		.select({ b: zoneBoundaries })
+		.from(zoneBoundaries)
+		.innerJoin(units, eq(units.id, zoneBoundaries.unitId))
+		.where(and(eq(zoneBoundaries.id, id), eq(units.projectId, projectId)))
+		.get();
+	if (!row) throw new ServiceError(404, 'Zone boundary not found.');
+	return row.b;
+}
+
+function pickBoundary(b: ZoneBoundary): ZoneBoundaryView {
+	const { id, unitId, chainageTop, elevationTop, chainageBottom, elevationBottom } = b;
+	return { id, unitId, chainageTop, elevationTop, chainageBottom, elevationBottom };
+}
+
+function boundaryCounts(projectId: string, db: DbOrTx): Map<string, number> {
+	const counts = new Map<string, number>();
+	for (const b of listZoneBoundaries(projectId, db)) counts.set(b.unitId, (counts.get(b.unitId) ?? 0) + 1);
+	return counts;
+}
+
+/** Writes positions 0…n−1 in the given order. */
+function restack(db: DbOrTx, ids: string[]): void {
+	ids.forEach((id, position) => db.update(units).set({ position }).where(eq(units.id, id)).run());
+}
+
+function sortStations(stations: ReadonlyArray<Station>): Station[] {
+	for (const s of stations) if (!Number.isFinite(s.chainage)) throw new RangeError('chainage must be finite');
+	const sorted = stations.map((s, i) => ({ s, i })).sort((a, b) => a.s.chainage - b.s.chainage || a.i - b.i).map(({ s }) => s);
+	return sorted.filter((s, k) => k === 0 || s.chainage !== sorted[k - 1].chainage);
+}
+
+/** Runs `fn` in a transaction (a savepoint when `db` already is one). */
+export function inTransaction<T>(db: DbOrTx, fn: (tx: DbOrTx) => T): T {
+	return (db as Db).transaction((tx) => fn(tx));
+}
