@@ -18,6 +18,8 @@ interface Group {
 	headings?: string[];
 	headingLine?: number;
 	units?: string[];
+	/** SCPT column indices and unit factors, resolved at the group's first DATA row. */
+	scpt?: { kId: number; kDepth: number; kQc: number; kFs: number; kT: number; kU2: number; fDepth: number; fQc: number; fFs: number; fU2: number };
 }
 
 interface Test {
@@ -148,12 +150,17 @@ export function parseAgs4(text: string, options: ParseOptions = {}): ParsedSound
 				car.set(key(id, kT >= 0 ? row[kT] : ''), v);
 			}
 		} else if (g.name === 'SCPT') {
-			const kId = need(g, 'LOCA_ID');
-			const kDepth = need(g, 'SCPT_DPTH');
-			const kQc = need(g, 'SCPT_RES');
-			const kFs = need(g, 'SCPT_FRES');
-			const kT = heading(g, 'SCPG_TESN');
-			const kU2 = heading(g, 'SCPT_PWP2');
+			if (!g.scpt) {
+				const kDepth = need(g, 'SCPT_DPTH');
+				const kQc = need(g, 'SCPT_RES');
+				const kFs = need(g, 'SCPT_FRES');
+				const kU2 = heading(g, 'SCPT_PWP2');
+				g.scpt = {
+					kId: need(g, 'LOCA_ID'), kDepth, kQc, kFs, kT: heading(g, 'SCPG_TESN'), kU2,
+					fDepth: lengthFactor(g, kDepth), fQc: stressFactor(g, kQc), fFs: stressFactor(g, kFs), fU2: kU2 >= 0 ? stressFactor(g, kU2) : 1
+				};
+			}
+			const { kId, kDepth, kQc, kFs, kT, kU2, fDepth, fQc, fFs, fU2 } = g.scpt;
 			const id = row[kId];
 			if (id.trim() === '') fail('missing-value', lineNo, 'LOCA_ID is empty', 'LOCA_ID');
 			const tesn = kT >= 0 ? row[kT] : '';
@@ -163,15 +170,15 @@ export function parseAgs4(text: string, options: ParseOptions = {}): ParsedSound
 				t = { loca: id, tesn, depth: new Column(), qc: new Column(), fs: new Column(), u2: new Column(), hasU2: kU2 >= 0 };
 				tests.set(k, t);
 			}
-			const d = cellNumber(row, kDepth, lineNo, 'SCPT_DPTH') * lengthFactor(g, kDepth);
+			const d = cellNumber(row, kDepth, lineNo, 'SCPT_DPTH') * fDepth;
 			if (Number.isNaN(d)) fail('missing-value', lineNo, 'depth is empty', 'SCPT_DPTH');
 			if (t.depth.length > 0 && !(d > t.depth.last())) {
 				fail('depth-not-increasing', lineNo, `depth ${d} m does not increase from ${t.depth.last()} m`, 'SCPT_DPTH');
 			}
 			t.depth.push(d);
-			t.qc.push(cellNumber(row, kQc, lineNo, 'SCPT_RES') * stressFactor(g, kQc));
-			t.fs.push(cellNumber(row, kFs, lineNo, 'SCPT_FRES') * stressFactor(g, kFs));
-			t.u2.push(kU2 >= 0 ? cellNumber(row, kU2, lineNo, 'SCPT_PWP2') * stressFactor(g, kU2) : NaN);
+			t.qc.push(cellNumber(row, kQc, lineNo, 'SCPT_RES') * fQc);
+			t.fs.push(cellNumber(row, kFs, lineNo, 'SCPT_FRES') * fFs);
+			t.u2.push(kU2 >= 0 ? cellNumber(row, kU2, lineNo, 'SCPT_PWP2') * fU2 : NaN);
 			if (kU2 >= 0) t.hasU2 = true;
 		}
 	}

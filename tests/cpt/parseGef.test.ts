@@ -1,0 +1,199 @@
+import { describe, expect, it } from 'vitest';
+import { CptParseError, MAX_FILE_BYTES, formatGef, parseGef } from '$lib/cpt';
+import type { CptParseErrorCode, ParsedSounding } from '$lib/cpt';
+import { expectAbsClose, expectAllAbsClose, expectAllAbsCloseOrNaN } from '../asserts';
+
+// A hand-written GEF CPT file (keywords from memory of the GEF-CPT report, see REFERENCES.md): semicolon
+// columns, "!" record ends, qc in MPa, fs in kPa, u2 in MPa, corrected depth beside penetration length.
+const HEADER = [
+	'#GEFID= 1, 1, 0',
+	'#FILEOWNER= Example Lab',
+	'#TESTID= CPT-07',
+	'#COLUMN= 5',
+	'#COLUMNINFO= 1, m, penetration length, 1',
+	'#COLUMNINFO= 2, MPa, cone resistance, 2',
+	'#COLUMNINFO= 3, kPa, local friction, 3',
+	'#COLUMNINFO= 4, MPa, pore pressure u2, 6',
+	'#COLUMNINFO= 5, m, corrected depth, 11',
+	'#COLUMNVOID= 2, -9999.0',
+	'#COLUMNVOID= 3, -9999.0',
+	'#COLUMNVOID= 4, -9999.0',
+	'#COLUMNSEPARATOR= ;',
+	'#RECORDSEPARATOR= !',
+	'#XYID= 31000, 155000.00, 463000.00, 0.01, 0.01',
+	'#ZID= 31000, -1.25, 0.01',
+	'#MEASUREMENTVAR= 3, 0.75, -, net area quotient of the cone tip',
+	'#EOH='
+];
+const DATA = ['0.020;0.512;5.1;0.0012;0.020;!', '0.040;0.530;-9999.0;0.0020;0.039;!', '0.060;-9999.0;6.0;0.0031;0.059;!'];
+const GEF = [...HEADER, ...DATA].join('\r\n') + '\r\n';
+
+function expectError(fn: () => unknown, code: CptParseErrorCode, line?: number, column?: string): CptParseError {
+	try {
+		fn();
+	} catch (e) {
+		expect(e).toBeInstanceOf(CptParseError);
+		const err = e as CptParseError;
+		expect(err.code).toBe(code);
+		expect(err.line).toBe(line);
+		expect(err.column).toBe(column);
+		return err;
+	}
+	return expect.fail('expected a CptParseError');
+}
+
+describe('parseGef(text)', () => {
+	it('parseGef(text) reads columns by quantity number and converts declared units to m and kPa', () => {
+		const [s] = parseGef(GEF);
+		expect(s.id).toBe('CPT-07');
+		// Corrected depth (quantity 11) takes precedence over penetration length (1).
+		expectAllAbsClose(s.depth, [0.02, 0.039, 0.059], 1e-12, 'depth');
+		expectAllAbsCloseOrNaN(s.qc, [512, 530, NaN], 1e-9, 'qc');
+		expectAllAbsCloseOrNaN(s.fs, [5.1, NaN, 6], 1e-12, 'fs');
+		expectAllAbsClose(s.u2!, [1.2, 2.0, 3.1], 1e-9, 'u2');
+		expect(s.x).toBe(155000);
+		expect(s.y).toBe(463000);
+		expect(s.groundElevation).toBe(-1.25);
+		expect(s.areaRatio).toBe(0.75);
+		expectAllAbsClose(s.extra!['penetration length'], [0.02, 0.04, 0.06], 1e-12, 'extra');
+		expect(s.meta?.TESTID).toBe('CPT-07');
+		expect(s.depth).toBeInstanceOf(Float64Array);
+	});
+
+	it('parseGef(text) reads whitespace columns, kPa cone resistance, cm depth and fs from the friction ratio', () => {
+		const text = [
+			'#GEFID= 1, 1, 0',
+			'#COLUMN= 3',
+			'#COLUMNINFO= 1, cm, penetration length, 1',
+			'#COLUMNINFO= 2, kPa, cone resistance, 2',
+			'#COLUMNINFO= 3, %, friction ratio, 4',
+			'#EOH=',
+			'  10   2000   1.5',
+			'\t20\t2500\t2.0'
+		].join('\n');
+		const [s] = parseGef(text, { file: 'site/CPT-3.gef' });
+		expect(s.id).toBe('CPT-3');
+		expectAllAbsClose(s.depth, [0.1, 0.2], 1e-12, 'depth');
+		expectAllAbsClose(s.qc, [2000, 2500], 1e-12, 'qc');
+		// fs = Rf·qc/100: 1.5 % of 2000 = 30 kPa, 2 % of 2500 = 50 kPa.
+		expectAllAbsClose(s.fs, [30, 50], 1e-9, 'fs');
+		expect(s.u2).toBeUndefined();
+		expect(s.areaRatio).toBeUndefined();
+	});
+
+	it('parseGef(text) accepts several records on a line and no #COLUMN keyword', () => {
+		const text = [
+			'#GEFID= 1, 1, 0',
+			'#COLUMNINFO= 1, m, penetration length, 1',
+			'#COLUMNINFO= 2, MPa, cone resistance, 2',
+			'#COLUMNINFO= 3, MPa, local friction, 3',
+			'#RECORDSEPARATOR= !',
+			'#EOH=',
+			'0.1 1.0 0.010 ! 0.2 1.1 0.011 !'
+		].join('\n');
+		const [s] = parseGef(text);
+		expectAllAbsClose(s.depth, [0.1, 0.2], 1e-12, 'depth');
+		expectAllAbsClose(s.fs, [10, 11], 1e-9, 'fs');
+	});
+
+	it('parseGef(text) names line and column for a non-numeric cell', () => {
+		const bad = [...HEADER, DATA[0], '0.040;abc;5.0;0.0020;0.039;!'].join('\n');
+		const err = expectError(() => parseGef(bad, { file: 'x.gef' }), 'not-a-number', HEADER.length + 2, 'cone resistance');
+		expect(err.message).toBe(`x.gef: line ${HEADER.length + 2}, column cone resistance: 'abc' is not a number`);
+	});
+
+	it('parseGef(text) rejects an unknown unit on its #COLUMNINFO line', () => {
+		const bad = GEF.replace('2, MPa, cone resistance', '2, furlongs, cone resistance');
+		expectError(() => parseGef(bad), 'unknown-unit', 6, 'cone resistance');
+		const rf = GEF.replace('3, kPa, local friction, 3', '3, -, friction ratio, 4');
+		expectError(() => parseGef(rf), 'unknown-unit', 7, 'friction ratio');
+	});
+
+	it('parseGef(text) rejects depths that do not increase', () => {
+		const bad = [...HEADER, DATA[0], '0.040;0.530;5.0;0.0020;0.020;!'].join('\n');
+		expectError(() => parseGef(bad), 'depth-not-increasing', HEADER.length + 2, 'corrected depth');
+	});
+
+	it('parseGef(text) rejects a void depth', () => {
+		const text = ['#GEFID= 1, 1, 0', '#COLUMNINFO= 1, m, penetration length, 1', '#COLUMNINFO= 2, MPa, cone resistance, 2',
+			'#COLUMNINFO= 3, MPa, local friction, 3', '#COLUMNVOID= 1, -1', '#EOH=', '-1 1 0.01'].join('\n');
+		expectError(() => parseGef(text), 'missing-value', 7, 'penetration length');
+	});
+
+	it('parseGef(text) reports missing required columns at #EOH', () => {
+		const noQc = GEF.replace('#COLUMNINFO= 2, MPa, cone resistance, 2', '#COLUMNINFO= 2, MPa, something else, 99');
+		expectError(() => parseGef(noQc), 'missing-column', HEADER.length, 'qc');
+		const noFs = GEF.replace('3, kPa, local friction, 3', '3, kPa, other, 98');
+		expectError(() => parseGef(noFs), 'missing-column', HEADER.length, 'fs');
+		const noDepth = GEF.replace('1, m, penetration length, 1', '1, m, a, 97').replace('5, m, corrected depth, 11', '5, m, b, 96');
+		expectError(() => parseGef(noDepth), 'missing-column', HEADER.length, 'depth');
+	});
+
+	it('parseGef(text) rejects malformed structure with the line', () => {
+		expectError(() => parseGef('depth,qc\n1,2'), 'malformed', 1);
+		expectError(() => parseGef(HEADER.slice(0, -1).join('\n')), 'malformed', HEADER.length - 1);
+		expectError(() => parseGef(HEADER.join('\n')), 'malformed', HEADER.length);
+		expectError(() => parseGef([...HEADER, '0.020;0.512;5.1;!'].join('\n')), 'malformed', HEADER.length + 1);
+		expectError(() => parseGef(GEF.replace('#COLUMN= 5', '#COLUMN= 4')), 'malformed', 9);
+		expectError(() => parseGef(GEF.replace('3, 0.75, -', '3, 1.75, -')), 'malformed', 17);
+		expectError(() => parseGef(GEF.replace('#ZID= 31000, -1.25', '#ZID= 31000, high')), 'not-a-number', 16, 'ZID');
+	});
+
+	it('parseGef(text) rejects empty, binary and oversized text', () => {
+		expectError(() => parseGef(''), 'empty-file', 1);
+		expectError(() => parseGef(' \n\n'), 'empty-file', 1);
+		expectError(() => parseGef('#GEFID= 1\n\u0000\u0001'), 'binary-file', 2);
+		expectError(() => parseGef('#'.repeat(MAX_FILE_BYTES + 1)), 'file-too-large', undefined);
+		expect(() => parseGef(42 as unknown as string)).toThrow(TypeError);
+	});
+});
+
+describe('formatGef(sounding, options)', () => {
+	const sounding: ParsedSounding = {
+		id: 'S-1',
+		x: 1234.5,
+		y: 6789.25,
+		groundElevation: 2.4,
+		areaRatio: 0.8,
+		depth: Float64Array.from([0.02, 0.04, 0.06, 0.08]),
+		qc: Float64Array.from([512.3, 530, NaN, 1800.7]),
+		fs: Float64Array.from([5.12, 6.3, 7, NaN]),
+		u2: Float64Array.from([12.5, NaN, 20, -3.25])
+	};
+
+	it('formatGef(sounding) round-trips through parseGef within its written decimals', () => {
+		const [s] = parseGef(formatGef(sounding));
+		expect(s.id).toBe('S-1');
+		expectAllAbsClose(s.depth, sounding.depth, 5e-4, 'depth');
+		// Defaults: qc 4 decimals of MPa (0.05 kPa), fs and u2 5 decimals of MPa (0.005 kPa).
+		expectAllAbsCloseOrNaN(s.qc, sounding.qc, 0.05, 'qc');
+		expectAllAbsCloseOrNaN(s.fs, sounding.fs, 0.005, 'fs');
+		expectAllAbsCloseOrNaN(s.u2!, sounding.u2!, 0.005, 'u2');
+		expectAbsClose(s.x!, 1234.5, 5e-4);
+		expectAbsClose(s.y!, 6789.25, 5e-4);
+		expectAbsClose(s.groundElevation!, 2.4, 5e-4);
+		expect(s.areaRatio).toBe(0.8);
+	});
+
+	it('formatGef(sounding, options) round-trips with separators and many decimals', () => {
+		const text = formatGef(sounding, { columnSeparator: ';', recordSeparator: '!', decimals: { depth: 9, qc: 12, fs: 12, u2: 12 } });
+		expect(text).toContain('#COLUMNSEPARATOR= ;');
+		const [s] = parseGef(text);
+		expectAllAbsClose(s.depth, sounding.depth, 1e-9, 'depth');
+		expectAllAbsCloseOrNaN(s.qc, sounding.qc, 1e-8, 'qc');
+		expectAllAbsCloseOrNaN(s.fs, sounding.fs, 1e-8, 'fs');
+	});
+
+	it('formatGef(sounding) writes no u2 column when there is none', () => {
+		const { u2: _u2, ...rest } = sounding;
+		const text = formatGef(rest);
+		expect(text).toContain('#COLUMN= 3');
+		expect(parseGef(text)[0].u2).toBeUndefined();
+	});
+
+	it('formatGef(sounding, options) throws for bad options and unequal columns', () => {
+		expect(() => formatGef({ ...sounding, qc: Float64Array.from([1]) })).toThrow(RangeError);
+		expect(() => formatGef(sounding, { decimals: { qc: 1.5 } })).toThrow('qc decimals must be an integer within 0–20');
+		expect(() => formatGef(sounding, { columnSeparator: '.' })).toThrow(TypeError);
+	});
+});
