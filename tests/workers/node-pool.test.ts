@@ -1,0 +1,73 @@
+import { describe, it, expect, afterAll } from 'vitest';
+import { createNodePool } from '../../workers/node-pool';
+import { CancelledError } from '../../workers/realization-pool';
+import { simulate } from '../../src/lib/geostat/index';
+import type { SimulationInput, TargetPoints } from '../../src/lib/geostat/index';
+import { expectSameBits } from '../asserts';
+
+function section(nx: number, nz: number): TargetPoints {
+	const n = nx * nz;
+	return {
+		x: Float64Array.from({ length: n }, (_, i) => i % nx),
+		y: new Float64Array(n),
+		z: Float64Array.from({ length: n }, (_, i) => -Math.floor(i / nx) * 0.25),
+		domain: new Int32Array(n)
+	};
+}
+const input: SimulationInput = {
+	seed: 'pool',
+	domains: [
+		{
+			samples: [
+				{ x: 3, y: 0, z: -0.5, value: 12, sounding: 'A' },
+				{ x: 30, y: 0, z: -1, value: 20, sounding: 'B' },
+				{ x: 30, y: 0, z: -1.25, value: 15, sounding: 'B' }
+			],
+			model: { azimuth: 90, structures: [{ type: 'exponential', sill: 1, rangeMajor: 20, rangeMinor: 20, rangeVertical: 1 }] },
+			transform: 'normal-score',
+			kriging: 'simple',
+			search: { maxData: 8, maxSimulated: 12 }
+		}
+	]
+};
+
+describe('createNodePool (worker_threads + comlink node adapter)', () => {
+	const pool = createNodePool({ size: 2 });
+	afterAll(() => pool.close());
+
+	it('pool.run gives each realization bit-identical to simulate(input, targets, r) in this thread, with progress to (total, total)', async () => {
+		const t = section(40, 12);
+		const calls: [number, number][] = [];
+		const res = await pool.run(input, t, [0, 5, 17, 3], { onProgress: (d, tot) => calls.push([d, tot]) });
+		expect([...res.keys()].sort((a, b) => a - b)).toEqual([0, 3, 5, 17]);
+		for (const r of [0, 3, 5, 17]) expectSameBits(res.get(r)!, simulate(input, t, r), `realization ${r}`);
+		expect(calls.length).toBeGreaterThan(4);
+		for (let i = 1; i < calls.length; i++) expect(calls[i][0]).toBeGreaterThanOrEqual(calls[i - 1][0]);
+		expect(calls[calls.length - 1]).toEqual([4 * 480, 4 * 480]);
+	}, 60_000);
+
+	it('pool.cancel() rejects the run with CancelledError, and the pool runs again afterwards', async () => {
+		const big = section(200, 40);
+		let cancelledAt = -1;
+		const run = pool.run(input, big, [0, 1, 2, 3, 4, 5], {
+			onProgress: (d) => {
+				if (cancelledAt < 0) {
+					cancelledAt = d;
+					pool.cancel();
+				}
+			}
+		});
+		await expect(run).rejects.toBeInstanceOf(CancelledError);
+		expect(cancelledAt).toBeGreaterThan(0);
+		const again = await pool.run(input, section(40, 12), [1]);
+		expectSameBits(again.get(1)!, simulate(input, section(40, 12), 1));
+	}, 60_000);
+
+	it('pool.run honours an AbortSignal and rejects bad realization numbers', async () => {
+		const ac = new AbortController();
+		const run = pool.run(input, section(200, 40), [0, 1, 2], { signal: ac.signal, onProgress: () => ac.abort() });
+		await expect(run).rejects.toThrow('cancelled');
+		await expect(pool.run(input, section(4, 1), [-1])).rejects.toThrow(RangeError);
+		expect((await pool.run(input, section(4, 1), [])).size).toBe(0);
+	}, 60_000);
+});

@@ -1,0 +1,140 @@
+/**
+ * A pool of simulation workers that runs N realizations on all cores, with overall progress and cancel.
+ * Environment-neutral: the browser (browser-pool.ts) and Node.js (node-pool.ts) only supply the way to
+ * start a worker. Each worker prepares the simulation once per run and then takes realizations from a
+ * shared queue; results come back keyed by realization number, so their order and the number of workers
+ * never change a bit of any realization (each depends only on the recipe and its number).
+ */
+import * as Comlink from 'comlink';
+import type { Remote } from 'comlink';
+import type { SimulationApi } from './simulation-api';
+import type { SimulationInput, TargetPoints } from '../src/lib/geostat/index';
+
+/** A started worker: its comlink proxy and how to stop it. */
+export interface PoolWorker {
+	remote: Remote<SimulationApi>;
+	terminate(): void | Promise<unknown>;
+}
+
+/** Options of RealizationPool.run. */
+export interface RunOptions {
+	/** Overall progress: simulated nodes over all requested realizations. */
+	onProgress?: (done: number, total: number) => void;
+	/** Called as each realization arrives (in completion order), e.g. to stream an export. */
+	onRealization?: (realization: number, values: Float64Array) => void;
+	/** Aborting cancels the run like cancel(). */
+	signal?: AbortSignal;
+}
+
+/** Error of a cancelled run. */
+export class CancelledError extends Error {
+	constructor() {
+		super('cancelled');
+		this.name = 'CancelledError';
+	}
+}
+
+export class RealizationPool {
+	private workers: PoolWorker[] = [];
+	private cancelRun: (() => void) | null = null;
+
+	/**
+	 * @param spawn starts one worker
+	 * @param size number of workers (default 1); a run never starts more workers than realizations
+	 * @throws {RangeError} if size is not a positive integer
+	 */
+	constructor(
+		private readonly spawn: () => PoolWorker,
+		readonly size = 1
+	) {
+		if (!Number.isInteger(size) || size < 1) throw new RangeError('pool size must be a positive integer');
+	}
+
+	/**
+	 * Runs the given realizations of a simulation; resolves with a map from realization number to values.
+	 * One run at a time.
+	 * @throws {CancelledError} (rejects) when cancelled or aborted
+	 * @throws {Error} (rejects) if a run is already in progress, or with a worker's error
+	 */
+	async run(input: SimulationInput, targets: TargetPoints, realizations: number[], opts: RunOptions = {}): Promise<Map<number, Float64Array>> {
+		if (this.cancelRun) throw new Error('a run is already in progress');
+		for (const r of realizations) if (!Number.isSafeInteger(r) || r < 0) throw new RangeError('realizations must be integers >= 0');
+		const results = new Map<number, Float64Array>();
+		if (realizations.length === 0) return results;
+		const { onProgress, onRealization, signal } = opts;
+		if (signal?.aborted) throw new CancelledError();
+		const n = Math.min(this.size, realizations.length);
+		while (this.workers.length < n) this.workers.push(this.spawn());
+		const queue = realizations.slice();
+		let perRealization = 0;
+		const partial = new Map<number, number>();
+		let completedNodes = 0;
+		const report = () => {
+			if (!onProgress || perRealization === 0) return;
+			let sum = completedNodes;
+			for (const v of partial.values()) sum += v;
+			onProgress(sum, perRealization * realizations.length);
+		};
+
+		let cancelled = false;
+		const cancelPromise = new Promise<never>((_, reject) => {
+			this.cancelRun = () => {
+				cancelled = true;
+				reject(new CancelledError());
+			};
+		});
+		const onAbort = () => this.cancel();
+		signal?.addEventListener('abort', onAbort);
+
+		const work = async (w: PoolWorker) => {
+			perRealization = await w.remote.prepare(input, targets);
+			for (let r = queue.shift(); r !== undefined && !cancelled; r = queue.shift()) {
+				const rr = r;
+				const progress = onProgress
+					? Comlink.proxy((done: number) => {
+							// Progress travels on its own port and may arrive after the result, or after a cancel.
+							if (cancelled || results.has(rr)) return;
+							partial.set(rr, done);
+							report();
+						})
+					: undefined;
+				const values = await w.remote.realize(rr, progress);
+				if (cancelled) return;
+				partial.delete(rr);
+				completedNodes += perRealization;
+				results.set(rr, values);
+				report();
+				onRealization?.(rr, values);
+			}
+		};
+		try {
+			await Promise.race([Promise.all(this.workers.slice(0, n).map(work)), cancelPromise]);
+			return results;
+		} finally {
+			signal?.removeEventListener('abort', onAbort);
+			this.cancelRun = null;
+			// Swallow the pending rejection of a promise that lost the race.
+			cancelPromise.catch(() => undefined);
+		}
+	}
+
+	/**
+	 * Cancels the run in progress: its workers are terminated at once (a realization is one synchronous
+	 * computation, so stopping the thread is the only prompt way) and restarted on the next run.
+	 */
+	cancel(): void {
+		const stop = this.cancelRun;
+		if (!stop) return;
+		for (const w of this.workers) void w.terminate();
+		this.workers = [];
+		stop();
+	}
+
+	/** Stops all workers; the pool may still be used afterwards (workers restart on demand). */
+	async close(): Promise<void> {
+		this.cancel();
+		const ws = this.workers;
+		this.workers = [];
+		await Promise.all(ws.map((w) => w.terminate()));
+	}
+}
