@@ -38,7 +38,8 @@ export interface Qc1NcsOptions {
  *   m = 1.338 − 0.249·min(254, max(21, qc1Ncs))^0.264,  CN = min(1.7, (pa/σ'v)^m),  qc1N = CN·qc/pa,
  *   Δqc1N = (11.9 + qc1N/14.6)·exp(1.63 − 9.7/(FC + 2) − (15.7/(FC + 2))²),  qc1Ncs = qc1N + Δqc1N.
  *
- * Where u2 is measured, callers pass the corrected resistance qt as qc (the derive pipeline does).
+ * The derive pipeline passes the corrected resistance qt as qc where u2 is measured — our choice: the two
+ * differ by a few per cent in sands, and qt removes the pore-pressure effect on the tip in silts.
  * σ'v ≤ 0 or NaN input gives NaN values with converged = false.
  *
  * @throws RangeError when FC is outside 0–100 %.
