@@ -1,0 +1,152 @@
+import { and, asc, count, eq } from 'drizzle-orm';
+import { getDb } from '$lib/server/db';
+import { fromFloat64Blob } from '$lib/server/db/float64';
+import { soundings, sourceFiles, type SourceFormat } from '$lib/server/db/site-schema';
+import { ServiceError } from '$lib/server/errors';
+import { getSite, locateSounding, type DbOrTx, type SiteView } from './site';
+
+/** A sounding as the table lists it: location, extent and where it came from, without its readings. */
+export interface SoundingSummary {
+	id: string;
+	name: string;
+	x: number | null;
+	y: number | null;
+	/** Chainage in the section: projected from x, y onto the section line, else as the file gave it. */
+	chainage: number | null;
+	/** Signed offset from the section line when projected. */
+	offset: number | null;
+	farOffLine: boolean;
+	chainageSource: 'projected' | 'given' | 'none';
+	groundElevation: number;
+	areaRatio: number;
+	groundwaterElevation: number | null;
+	readings: number;
+	/** m below ground. */
+	maxDepth: number;
+	/** kPa. */
+	maxQc: number;
+	sourceFile: { id: string; name: string; format: SourceFormat } | null;
+	createdAt: string;
+}
+
+/** The measured columns of one sounding, decoded from their Float64 BLOBs (m, kPa; NaN where void). */
+export interface SoundingColumns {
+	depth: Float64Array;
+	qc: Float64Array;
+	fs: Float64Array;
+	u2: Float64Array | null;
+	/** Extra columns as they stood in the file, by name. */
+	extras: Record<string, Float64Array>;
+}
+
+export interface SoundingDetail extends SoundingSummary {
+	columns: SoundingColumns;
+}
+
+const summaryColumns = {
+	id: soundings.id,
+	name: soundings.name,
+	x: soundings.x,
+	y: soundings.y,
+	chainage: soundings.chainage,
+	groundElevation: soundings.groundElevation,
+	areaRatio: soundings.areaRatio,
+	groundwaterElevation: soundings.groundwaterElevation,
+	readings: soundings.readings,
+	maxDepth: soundings.maxDepth,
+	maxQc: soundings.maxQc,
+	createdAt: soundings.createdAt,
+	fileId: sourceFiles.id,
+	fileName: sourceFiles.name,
+	fileFormat: sourceFiles.format
+};
+
+type SummaryRow = Omit<SoundingSummary, 'sourceFile' | 'createdAt' | 'offset' | 'farOffLine' | 'chainageSource'> & {
+	createdAt: Date;
+	fileId: string | null;
+	fileName: string | null;
+	fileFormat: SourceFormat | null;
+};
+
+function summaryOf(r: SummaryRow, site: SiteView): SoundingSummary {
+	const at = locateSounding(site, r);
+	return {
+		id: r.id,
+		name: r.name,
+		x: r.x,
+		y: r.y,
+		chainage: at.chainage,
+		offset: at.offset,
+		farOffLine: at.farOffLine,
+		chainageSource: at.source,
+		groundElevation: r.groundElevation,
+		areaRatio: r.areaRatio,
+		groundwaterElevation: r.groundwaterElevation,
+		readings: r.readings,
+		maxDepth: r.maxDepth,
+		maxQc: r.maxQc,
+		sourceFile: r.fileId && r.fileName && r.fileFormat ? { id: r.fileId, name: r.fileName, format: r.fileFormat } : null,
+		createdAt: r.createdAt.toISOString()
+	};
+}
+
+/** The project's soundings by name (natural order, so LV-2 sorts before LV-10). */
+export function listSoundings(projectId: string, db: DbOrTx = getDb()): SoundingSummary[] {
+	const rows = db
+		.select(summaryColumns)
+		.from(soundings)
+		.leftJoin(sourceFiles, eq(sourceFiles.id, soundings.sourceFileId))
+		.where(eq(soundings.projectId, projectId))
+		.orderBy(asc(soundings.name))
+		.all();
+	const byName = new Intl.Collator('en', { numeric: true, sensitivity: 'base' });
+	const site = getSite(projectId, db);
+	return rows.map((r) => summaryOf(r, site)).sort((a, b) => byName.compare(a.name, b.name));
+}
+
+/**
+ * One sounding with its readings decoded.
+ * @throws ServiceError 404 when the sounding is not in the project.
+ */
+export function getSounding(projectId: string, soundingId: string, db: DbOrTx = getDb()): SoundingDetail {
+	const row = db
+		.select({ ...summaryColumns, depth: soundings.depth, qc: soundings.qc, fs: soundings.fs, u2: soundings.u2, extras: soundings.extras })
+		.from(soundings)
+		.leftJoin(sourceFiles, eq(sourceFiles.id, soundings.sourceFileId))
+		.where(and(eq(soundings.projectId, projectId), eq(soundings.id, soundingId)))
+		.get();
+	if (!row) throw new ServiceError(404, 'Sounding not found.');
+	const extras: Record<string, Float64Array> = {};
+	for (const [name, base64] of Object.entries(row.extras ?? {})) extras[name] = fromFloat64Blob(Buffer.from(base64, 'base64'));
+	return {
+		...summaryOf(row, getSite(projectId, db)),
+		columns: {
+			depth: fromFloat64Blob(row.depth),
+			qc: fromFloat64Blob(row.qc),
+			fs: fromFloat64Blob(row.fs),
+			u2: row.u2 ? fromFloat64Blob(row.u2) : null,
+			extras
+		}
+	};
+}
+
+/**
+ * Deletes a sounding (its contacts go with it, ON DELETE CASCADE). When it was the last sounding of its
+ * source file, the stored file goes too, so the same file can be imported again.
+ * @throws ServiceError 404 when the sounding is not in the project.
+ */
+export function deleteSounding(projectId: string, soundingId: string, db: DbOrTx = getDb()): void {
+	db.transaction((tx) => {
+		const row = tx
+			.select({ sourceFileId: soundings.sourceFileId })
+			.from(soundings)
+			.where(and(eq(soundings.projectId, projectId), eq(soundings.id, soundingId)))
+			.get();
+		if (!row) throw new ServiceError(404, 'Sounding not found.');
+		tx.delete(soundings).where(eq(soundings.id, soundingId)).run();
+		if (row.sourceFileId) {
+			const left = tx.select({ n: count() }).from(soundings).where(eq(soundings.sourceFileId, row.sourceFileId)).get()?.n ?? 0;
+			if (left === 0) tx.delete(sourceFiles).where(eq(sourceFiles.id, row.sourceFileId)).run();
+		}
+	});
+}
