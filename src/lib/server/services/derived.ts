@@ -93,16 +93,47 @@ export function deriveSounding(projectId: string, soundingId: string, db: DbOrTx
 	return deriveWithContext(row, loadDeriveContext(projectId, db));
 }
 
-/** Derived properties of several soundings of a project (all of them when `soundingIds` is omitted), by name. */
+/**
+ * Derived properties of several soundings of a project (all of them when `soundingIds` is omitted), by name.
+ * All-sounding results are cached per project until a sounding, unit, contact or site setting changes
+ * (deriving the 25 demo soundings takes most of a second); callers must not mutate them.
+ */
 export function deriveSoundings(projectId: string, soundingIds?: string[], db: DbOrTx = getDb()): DerivedSoundingResult[] {
-	const where =
-		soundingIds === undefined
-			? eq(soundings.projectId, projectId)
-			: and(eq(soundings.projectId, projectId), inArray(soundings.id, soundingIds.length ? soundingIds : ['']));
-	const rows = db.select().from(soundings).where(where).orderBy(asc(soundings.name)).all();
 	const ctx = loadDeriveContext(projectId, db);
+	if (soundingIds === undefined) {
+		const heads = db
+			.select({
+				id: soundings.id,
+				createdAt: soundings.createdAt,
+				x: soundings.x,
+				y: soundings.y,
+				chainage: soundings.chainage,
+				ground: soundings.groundElevation,
+				a: soundings.areaRatio,
+				gw: soundings.groundwaterElevation,
+				n: soundings.readings
+			})
+			.from(soundings)
+			.where(eq(soundings.projectId, projectId))
+			.all();
+		const key = JSON.stringify([heads, ctx.site, ctx.units, [...ctx.contacts].map(([k, m]) => [k, [...m]])]);
+		const hit = cache.get(projectId);
+		if (hit && hit.key === key) return hit.results;
+		const rows = db.select().from(soundings).where(eq(soundings.projectId, projectId)).orderBy(asc(soundings.name)).all();
+		const results = rows.map((r) => deriveWithContext(r, ctx));
+		cache.delete(projectId);
+		cache.set(projectId, { key, results });
+		if (cache.size > CACHE_PROJECTS) cache.delete(cache.keys().next().value!);
+		return results;
+	}
+	const where = and(eq(soundings.projectId, projectId), inArray(soundings.id, soundingIds.length ? soundingIds : ['']));
+	const rows = db.select().from(soundings).where(where).orderBy(asc(soundings.name)).all();
 	return rows.map((r) => deriveWithContext(r, ctx));
 }
+
+/** Projects whose derived soundings are kept (least recently derived dropped first). */
+const CACHE_PROJECTS = 4;
+const cache = new Map<string, { key: string; results: DerivedSoundingResult[] }>();
 
 /** The derivation of one stored sounding given the project context (pure apart from decoding BLOBs). */
 export function deriveWithContext(row: Sounding, ctx: DeriveContext): DerivedSoundingResult {
