@@ -9,9 +9,7 @@ export interface TestProject {
 }
 
 export async function testProject(name = 'Test project'): Promise<TestProject> {
-	const db = openDatabase(':memory:');
-	await ensureSiteTables(db);
-	return addProject(db, name);
+	return addProject(openDatabase(':memory:'), name);
 }
 
 /** Another project (with its own owner) in the same database. */
@@ -20,16 +18,4 @@ export function addProject(db: Db, name: string): TestProject {
 	const project = db.insert(projects).values({ name, createdBy: user.id }).returning().get();
 	db.insert(memberships).values({ projectId: project.id, userId: user.id, role: 'owner' }).run();
 	return { db, projectId: project.id, userId: user.id };
-}
-
-// TEMPORARY until the site-model migration is committed: creates the site tables from site-schema.ts.
-async function ensureSiteTables(db: Db): Promise<void> {
-	const has = db.$client.prepare("SELECT name FROM sqlite_master WHERE type = 'table' AND name = 'soundings'").get();
-	if (has) return;
-	const api = await import('drizzle-kit/api');
-	const base = await import('../../../src/lib/server/db/schema');
-	const site = await import('../../../src/lib/server/db/site-schema');
-	const prev = await api.generateSQLiteDrizzleJson({ ...base });
-	const next = await api.generateSQLiteDrizzleJson({ ...base, ...site });
-	for (const statement of await api.generateSQLiteMigration(prev, next)) db.$client.exec(statement);
 }

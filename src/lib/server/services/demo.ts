@@ -2,6 +2,7 @@ import { count } from 'drizzle-orm';
 import type { Db } from '$lib/server/db';
 import { memberships, projects, users, type ProjectRole, type SiteRole } from '$lib/server/db/schema';
 import { hashPassword } from '$lib/server/auth/password';
+import { seedDemoSoundings } from './demo-soundings';
 
 /** The demo accounts. Their passwords are printed in the README: for a local demo only. */
 export const DEMO_ACCOUNTS: ReadonlyArray<{
@@ -46,6 +47,7 @@ export async function seedDemo(db: Db): Promise<string | null> {
 		DEMO_ACCOUNTS.forEach((a, i) => {
 			if (a.projectRole) tx.insert(memberships).values({ projectId: project.id, userId: created[i].id, role: a.projectRole }).run();
 		});
+		seedDemoSoundings(tx, project.id, owner.id);
 		return project.id;
 	});
 }
