@@ -82,6 +82,14 @@ describe('createRecipe / recipeHash', () => {
 		expect(recipeHash({ ...r, engineVersion: 'conefield-sgs/0' })).not.toBe(h);
 	});
 
+	it('recipeSchema accepts a nugget with ranges 0 and rejects a non-nugget range of 0', () => {
+		const nug = { type: 'nugget', sill: 0.1, rangeMajor: 0, rangeMinor: 0, rangeVertical: 0 } as const;
+		const withNugget = { ...input, domains: [{ ...input.domains[0], model: { azimuth: 0, structures: [nug, input.domains[0].model.structures[0]] } }] };
+		expect(() => createRecipe(withNugget, grid)).not.toThrow();
+		const bad = { ...input, domains: [{ ...input.domains[0], model: { azimuth: 0, structures: [{ ...nug, type: 'spherical' as const }] } }] };
+		expect(() => createRecipe(bad, grid)).toThrow(/ranges must be > 0/);
+	});
+
 	it('createRecipe rejects invalid inputs with RangeError naming the issue', () => {
 		expect(() => createRecipe(input, { ...grid, domainRuns: [[0, 5]] })).toThrow(/domain runs must cover the grid/);
 		expect(() => createRecipe(input, { ...grid, domainRuns: [[1, 60]] })).toThrow(/target domain out of range/);

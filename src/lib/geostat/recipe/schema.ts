@@ -1,7 +1,8 @@
 import { z } from 'zod';
 
 // A range of null means "no variation along this axis" (Infinity in the engine), which JSON cannot hold.
-const range = z.number().positive().nullable();
+// A nugget ignores its ranges (0 is usual); every other structure needs ranges > 0.
+const range = z.number().nonnegative().nullable();
 
 export const sampleSchema = z.object({
 	x: z.number(),
@@ -11,13 +12,17 @@ export const sampleSchema = z.object({
 	sounding: z.string().optional()
 });
 
-export const structureSchema = z.object({
-	type: z.enum(['nugget', 'spherical', 'exponential', 'gaussian']),
-	sill: z.number().nonnegative(),
-	rangeMajor: range,
-	rangeMinor: range,
-	rangeVertical: range
-});
+export const structureSchema = z
+	.object({
+		type: z.enum(['nugget', 'spherical', 'exponential', 'gaussian']),
+		sill: z.number().nonnegative(),
+		rangeMajor: range,
+		rangeMinor: range,
+		rangeVertical: range
+	})
+	.refine((s) => s.type === 'nugget' || [s.rangeMajor, s.rangeMinor, s.rangeVertical].every((r) => r === null || r > 0), {
+		message: 'ranges must be > 0'
+	});
 
 export const variogramModelSchema = z.object({
 	structures: z.array(structureSchema),
