@@ -146,6 +146,13 @@ describe('robertson2009(p)', () => {
 		expect(Number.isFinite(r.Ic)).toBe(true);
 	});
 
+	it('robertson2009(p) stays finite for huge resistances and flags them off the chart', () => {
+		const r = robertson2009({ qt: 1e9, fs: 1e3, sigmaV: 100, sigmaVeff: 60 });
+		expect(Number.isFinite(r.Ic)).toBe(true);
+		expect(r.converged).toBe(true);
+		expect(r.flags & CptFlag.icOutOfChart).toBeTruthy();
+	});
+
 	it('robertson2009(p) honours maxIterations and tolerance', () => {
 		const p = { qt: 10000, fs: 50, sigmaV: 94, sigmaVeff: 54.8 };
 		expect(robertson2009(p, { maxIterations: 1 }).converged).toBe(false);

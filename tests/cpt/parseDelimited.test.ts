@@ -80,6 +80,17 @@ describe('parseDelimited(text, mapping)', () => {
 		expect(s.u2).toBeUndefined();
 	});
 
+	it('parseDelimited(text, mapping) honours a spreadsheet "sep=" line and reads a one-row file', () => {
+		const text = 'sep=;\ndepth;qc;fs\n2,5;1,5;12\n';
+		const [s] = parseDelimited(text, { depth: 'depth', qc: 'qc', fs: 'fs', units: { depth: 'm', qc: 'MPa', fs: 'kPa' } });
+		expectAllAbsClose(s.depth, [2.5], 1e-12, 'depth');
+		expectAllAbsClose(s.qc, [1500], 1e-9, 'qc');
+		const p = previewDelimited('sep=\t\n\ndepth\tqc\tfs\n1\t2\t3\n');
+		expect(p.delimiter).toBe('\t');
+		expect(p.headers).toEqual(['depth', 'qc', 'fs']);
+		expectError(() => previewDelimited('sep=,\n'), 'malformed', 1);
+	});
+
 	it('parseDelimited(text, mapping) keeps extra columns and takes the default id', () => {
 		const text = 'z,qc,fs,FC\n1,2,20,15\n2,3,30,\n';
 		const [s] = parseDelimited(text, { depth: 'z', qc: 'qc', fs: 'fs', extra: ['FC'], defaultId: 'X1', units: { depth: 'm', qc: 'MPa', fs: 'kPa' } });

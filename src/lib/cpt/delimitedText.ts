@@ -6,10 +6,23 @@ import { parseNumber, splitQuoted } from './text';
 export type Delimiter = ',' | ';' | '\t';
 export const DELIMITERS: Delimiter[] = [',', ';', '\t'];
 
-/** Index of the first non-blank line, or −1. */
-export function firstContentLine(lines: string[]): number {
-	for (let i = 0; i < lines.length; i++) if (lines[i].trim() !== '') return i;
-	return -1;
+/**
+ * The header line and delimiter of delimited text. A spreadsheet's "sep=;" first line names the delimiter
+ * and is skipped; otherwise the header is the first non-blank line and the delimiter is detected.
+ */
+export function locateHeader(lines: string[], file: string | undefined, given?: Delimiter): { header: number; delimiter: Delimiter } {
+	let header = 0;
+	while (header < lines.length && lines[header].trim() === '') header++;
+	const sep = /^\s*sep=(.)\s*$/i.exec(lines[header] ?? '');
+	let named: Delimiter | undefined;
+	if (sep) {
+		named = DELIMITERS.find((d) => d === sep[1]);
+		const sepLine = header + 1;
+		header++;
+		while (header < lines.length && lines[header].trim() === '') header++;
+		if (header >= lines.length) throw new CptParseError({ code: 'malformed', file, line: sepLine, detail: 'no header after the sep= line' });
+	}
+	return { header, delimiter: given ?? named ?? detectDelimiter(lines, header, file) };
 }
 
 /**

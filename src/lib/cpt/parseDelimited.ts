@@ -3,7 +3,7 @@ import { CptParseError } from './errors';
 import type { CptParseErrorCode } from './errors';
 import type { ParseOptions, ParsedSounding } from './types';
 import { Column, isMissingCell, prepareText, splitLines, splitQuoted, stem } from './text';
-import { detectDelimiter, firstContentLine, parseCell, trimTrailing } from './delimitedText';
+import { locateHeader, parseCell, trimTrailing } from './delimitedText';
 import type { Delimiter } from './delimitedText';
 
 /** Length units of delimited text. */
@@ -71,8 +71,7 @@ export function parseDelimited(text: string, mapping: DelimitedMapping, options:
 		throw new CptParseError({ code, file, line, column, detail });
 	};
 	const lines = splitLines(prepareText(text, file));
-	const header = firstContentLine(lines);
-	const delimiter = mapping.delimiter ?? detectDelimiter(lines, header, file);
+	const { header, delimiter } = locateHeader(lines, file, mapping.delimiter);
 	const headers = splitQuoted(lines[header], delimiter);
 	if (!headers) return fail('malformed', header + 1, 'a quoted field is not closed');
 	trimTrailing(headers, 0);

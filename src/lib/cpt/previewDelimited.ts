@@ -1,7 +1,7 @@
 import { CptParseError } from './errors';
 import type { ParseOptions } from './types';
 import { isMissingCell, prepareText, splitLines, splitQuoted } from './text';
-import { detectDelimiter, firstContentLine, parseCell, trimTrailing } from './delimitedText';
+import { locateHeader, parseCell, trimTrailing } from './delimitedText';
 import type { Delimiter } from './delimitedText';
 import type { DelimitedLengthUnit, DelimitedMapping, DelimitedStressUnit } from './parseDelimited';
 import { lengthUnitFactor, stressUnitFactor } from './units';
@@ -42,8 +42,7 @@ export interface PreviewOptions extends ParseOptions {
 export function previewDelimited(text: string, options: PreviewOptions = {}): DelimitedPreview {
 	const { file, rows: wanted = 10 } = options;
 	const lines = splitLines(prepareText(text, file));
-	const header = firstContentLine(lines);
-	const delimiter = detectDelimiter(lines, header, file);
+	const { header, delimiter } = locateHeader(lines, file);
 	const headers = splitQuoted(lines[header], delimiter);
 	if (!headers) throw new CptParseError({ code: 'malformed', file, line: header + 1, detail: 'a quoted field is not closed' });
 	trimTrailing(headers, 0);
