@@ -5,7 +5,7 @@ import * as Comlink from 'comlink';
 import { MessageChannel } from 'node:worker_threads';
 import { variographyApi, type VariographyApi } from '../../workers/variography';
 import { experimentalVariogram, fitVariogram } from '../../src/lib/geostat/index';
-import { prepareSamples, type VariogramSettings } from '../../src/lib/variography/index';
+import { prepareSamples, type Progress, type VariogramSettings } from '../../src/lib/variography/index';
 import { handDomain } from './fixture';
 
 const channel = new MessageChannel();
@@ -29,7 +29,7 @@ describe('workers/variography through comlink', () => {
 
 	it('variograms(job, data, settings, progress) equals direct engine calls on the normal scores and reports progress', async () => {
 		const seen: number[] = [];
-		const r = await api.variograms(1, data, settings, Comlink.proxy((p) => seen.push(p.done)));
+		const r = await api.variograms(1, data, settings, Comlink.proxy((p: Progress) => seen.push(p.done)));
 		const samples = prepareSamples(data, settings).samples;
 		const v = experimentalVariogram(samples, { direction: 'vertical', lag: 0.1, nLags: 20, lagTolerance: 0.05 });
 		const h = experimentalVariogram(samples, { direction: 'horizontal', lag: 7.5, nLags: 12, lagTolerance: 3.75, verticalBand: 0.1 });
@@ -49,7 +49,7 @@ describe('workers/variography through comlink', () => {
 			2,
 			data,
 			settings,
-			Comlink.proxy((p) => {
+			Comlink.proxy((p: Progress) => {
 				if (p.done === 1 && !sent) {
 					sent = true;
 					void api.cancel(2);
