@@ -5,18 +5,9 @@ import { deriveSoundings } from './derived';
 import { getSite, type DbOrTx } from './site';
 import { boundariesByUnit, zoneOf, type BoundaryLine } from './stratigraphy';
 import { getDomain, WHOLE_UNIT } from './zonations';
+import { PROPERTY_INFO } from '$lib/schemas/stratigraphy';
 
-/** Label and unit of each simulated property, for axes and tables. */
-export const PROPERTY_INFO: Record<SimulatedProperty, { label: string; unit: string; description: string }> = {
-	qc1Ncs: { label: 'qc1Ncs', unit: '–', description: 'Clean-sand equivalent normalised cone resistance (Boulanger & Idriss 2014)' },
-	suRatio: { label: 'su/σ′v', unit: '–', description: 'Undrained strength ratio, su = (qt − σv)/Nkt (Lunne et al. 1997)' },
-	Ic: { label: 'Ic', unit: '–', description: 'Soil behaviour type index (Robertson 2009)' },
-	qt: { label: 'qt', unit: 'kPa', description: 'Corrected cone resistance (Lunne et al. 1997)' },
-	FC: { label: 'FC', unit: '%', description: 'Fines content from Ic (Boulanger & Idriss 2014) or measured' },
-	Dr: { label: 'Dr', unit: '–', description: 'Relative density (Idriss & Boulanger 2008)' },
-	su: { label: 'su', unit: 'kPa', description: 'Undrained shear strength (Lunne et al. 1997)' },
-	Qtn: { label: 'Qtn', unit: '–', description: 'Normalised cone resistance (Robertson 2009)' }
-};
+export { PROPERTY_INFO };
 
 export interface Cdf {
 	value: number[];

@@ -3,8 +3,9 @@ import { Delaunay } from 'd3';
 import { getDb, type Db } from '$lib/server/db';
 import { contacts, soundings, units, zoneBoundaries, type Unit, type ZoneBoundary } from '$lib/server/db/site-schema';
 import { ServiceError } from '$lib/server/errors';
-import type { ContactPut, UnitCreate, UnitUpdate, ZoneBoundaryInput } from '$lib/schemas/stratigraphy';
-import { getSite, locateSounding, type DbOrTx } from './site';
+import { SECTION_PROPERTY_INFO, type ContactPut, type SectionProperty, type UnitCreate, type UnitUpdate, type ZoneBoundaryInput } from '$lib/schemas/stratigraphy';
+import { deriveSoundings } from './derived';
+import { getSite, locateSounding, type DbOrTx, type SiteView } from './site';
 
 /**
  * Default unit colours, our own set: earthy hues that stay apart from each other and from the teal accent,
@@ -295,6 +296,65 @@ export function sectionContacts(projectId: string, db: DbOrTx = getDb()): Sectio
 		if (run.length) lines.push(run);
 		return { unitId: u.id, stations, lines };
 	});
+}
+
+/** Everything the section plot draws. */
+export interface SectionView {
+	site: SiteView;
+	property: { key: SectionProperty; label: string; unit: string };
+	/** Located soundings by chainage, with the chosen property against elevation (null where undefined). */
+	soundings: {
+		id: string;
+		name: string;
+		chainage: number;
+		offset: number | null;
+		farOffLine: boolean;
+		groundElevation: number;
+		groundwaterElevation: number;
+		elevation: number[];
+		value: (number | null)[];
+		/** Index into `units` per reading, −1 for none. */
+		unit: number[];
+	}[];
+	/** Names of soundings without a chainage (not drawn). */
+	unlocated: string[];
+	units: UnitView[];
+	contacts: SectionContact[];
+	boundaries: ZoneBoundaryView[];
+}
+
+/** The section of a project: soundings as traces of a property at their chainage, contacts and zone boundaries. */
+export function sectionView(projectId: string, property: SectionProperty, db: DbOrTx = getDb()): SectionView {
+	const derived = deriveSoundings(projectId, undefined, db);
+	const info = SECTION_PROPERTY_INFO[property];
+	const located = derived.filter((d) => d.sounding.chainage !== null).sort((a, b) => a.sounding.chainage! - b.sounding.chainage!);
+	return {
+		site: getSite(projectId, db),
+		property: { key: property, label: info.label, unit: info.unit },
+		soundings: located.map((d) => {
+			const values = property === 'qc' ? d.qc : property === 'fs' ? d.fs : property === 'u2' ? d.u2 : d.derived[property];
+			return {
+				id: d.sounding.id,
+				name: d.sounding.name,
+				chainage: d.sounding.chainage!,
+				offset: d.sounding.offset,
+				farOffLine: d.sounding.farOffLine,
+				groundElevation: d.sounding.groundElevation,
+				groundwaterElevation: d.sounding.groundwaterElevation,
+				// Millimetres and five significant figures are finer than a plot can show and keep the payload small.
+				elevation: Array.from(d.derived.elevation, (z) => Math.round(z * 1000) / 1000),
+				value: Array.from({ length: d.depth.length }, (_, i) => {
+					const v = values ? values[i] : NaN;
+					return Number.isFinite(v) ? Number(v.toPrecision(5)) : null;
+				}),
+				unit: Array.from(d.unit)
+			};
+		}),
+		unlocated: derived.filter((d) => d.sounding.chainage === null).map((d) => d.sounding.name),
+		units: listUnits(projectId, db),
+		contacts: sectionContacts(projectId, db),
+		boundaries: listZoneBoundaries(projectId, db)
+	};
 }
 
 /** The geometry of a zone boundary: a straight line in the section from its top to its bottom point. */
