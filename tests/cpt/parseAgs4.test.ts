@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { CptParseError, formatAgs4, parseAgs4 } from '$lib/cpt';
-import type { CptParseErrorCode, ParsedSounding } from '$lib/cpt';
-import { expectAbsClose, expectAllAbsClose, expectAllAbsCloseOrNaN } from '../asserts';
+import { parseAgs4 } from '$lib/cpt';
+import { expectAllAbsClose, expectAllAbsCloseOrNaN } from '../asserts';
+import { expectParseError } from './expectParseError';
 
 // A hand-written AGS4 file (groups and headings from memory of the AGS4 dictionary, see REFERENCES.md).
 const LINES = [
@@ -38,19 +38,6 @@ const LINES = [
 ];
 const AGS = LINES.join('\r\n') + '\r\n';
 
-function expectError(fn: () => unknown, code: CptParseErrorCode, line?: number, column?: string): CptParseError {
-	try {
-		fn();
-	} catch (e) {
-		expect(e).toBeInstanceOf(CptParseError);
-		const err = e as CptParseError;
-		expect(err.code).toBe(code);
-		expect(err.line).toBe(line);
-		expect(err.column).toBe(column);
-		return err;
-	}
-	return expect.fail('expected a CptParseError');
-}
 
 const withLine = (n: number, text: string) => LINES.map((l, i) => (i === n - 1 ? text : l)).join('\n');
 
@@ -94,89 +81,38 @@ describe('parseAgs4(text)', () => {
 	});
 
 	it('parseAgs4(text) names line and heading for a non-numeric cell', () => {
-		const err = expectError(() => parseAgs4(withLine(27, '"DATA","CPT1","1","0.20","abc","","0.020","1.5"'), { file: 'a.ags' }), 'not-a-number', 27, 'SCPT_RES');
+		const err = expectParseError(() => parseAgs4(withLine(27, '"DATA","CPT1","1","0.20","abc","","0.020","1.5"'), { file: 'a.ags' }), 'not-a-number', 27, 'SCPT_RES');
 		expect(err.message).toBe("a.ags: line 27, column SCPT_RES: 'abc' is not a number");
 	});
 
 	it('parseAgs4(text) rejects an unknown or missing unit on the SCPT heading', () => {
-		expectError(() => parseAgs4(withLine(24, '"UNIT","","","m","psi","kN/m2","MN/m2","MN/m2"')), 'unknown-unit', 23, 'SCPT_RES');
-		expectError(() => parseAgs4(withLine(24, '"UNIT","","","m","","kN/m2","MN/m2","MN/m2"')), 'unknown-unit', 23, 'SCPT_RES');
-		expectError(() => parseAgs4(withLine(24, '"UNIT","","","yd","MN/m2","kN/m2","MN/m2","MN/m2"')), 'unknown-unit', 23, 'SCPT_DPTH');
+		expectParseError(() => parseAgs4(withLine(24, '"UNIT","","","m","psi","kN/m2","MN/m2","MN/m2"')), 'unknown-unit', 23, 'SCPT_RES');
+		expectParseError(() => parseAgs4(withLine(24, '"UNIT","","","m","","kN/m2","MN/m2","MN/m2"')), 'unknown-unit', 23, 'SCPT_RES');
+		expectParseError(() => parseAgs4(withLine(24, '"UNIT","","","yd","MN/m2","kN/m2","MN/m2","MN/m2"')), 'unknown-unit', 23, 'SCPT_DPTH');
 	});
 
 	it('parseAgs4(text) rejects depths that do not increase within a test', () => {
-		expectError(() => parseAgs4(withLine(27, '"DATA","CPT1","1","0.10","1.500","","0.020","1.5"')), 'depth-not-increasing', 27, 'SCPT_DPTH');
-		expectError(() => parseAgs4(withLine(27, '"DATA","CPT1","1","","1.500","","0.020","1.5"')), 'missing-value', 27, 'SCPT_DPTH');
+		expectParseError(() => parseAgs4(withLine(27, '"DATA","CPT1","1","0.10","1.500","","0.020","1.5"')), 'depth-not-increasing', 27, 'SCPT_DPTH');
+		expectParseError(() => parseAgs4(withLine(27, '"DATA","CPT1","1","","1.500","","0.020","1.5"')), 'missing-value', 27, 'SCPT_DPTH');
 	});
 
 	it('parseAgs4(text) reports a missing required heading on its HEADING line', () => {
 		const bad = AGS.replace('"SCPT_FRES"', '"SCPT_XXXX"');
-		expectError(() => parseAgs4(bad), 'missing-column', 23, 'SCPT_FRES');
+		expectParseError(() => parseAgs4(bad), 'missing-column', 23, 'SCPT_FRES');
 	});
 
 	it('parseAgs4(text) rejects malformed structure with the line', () => {
-		expectError(() => parseAgs4('"HEADING","LOCA_ID"\n'), 'malformed', 1);
-		expectError(() => parseAgs4(withLine(28, '"DATA","CPT2","1","0.10","2.000"')), 'malformed', 28);
-		expectError(() => parseAgs4(withLine(28, '"DATA","CPT2","1","0.10","2.000,"20.0","","2.0"')), 'malformed', 28);
-		expectError(() => parseAgs4(withLine(28, '"NOTE","CPT2"')), 'malformed', 28);
-		expectError(() => parseAgs4(withLine(18, '"DATA","CPT1","1","1.75"')), 'malformed', 18, 'SCPG_CAR');
-		expectError(() => parseAgs4(LINES.slice(0, 20).join('\n')), 'malformed', undefined);
-		expectError(() => parseAgs4(LINES.slice(0, 25).join('\n')), 'malformed', undefined);
+		expectParseError(() => parseAgs4('"HEADING","LOCA_ID"\n'), 'malformed', 1);
+		expectParseError(() => parseAgs4(withLine(28, '"DATA","CPT2","1","0.10","2.000"')), 'malformed', 28);
+		expectParseError(() => parseAgs4(withLine(28, '"DATA","CPT2","1","0.10","2.000,"20.0","","2.0"')), 'malformed', 28);
+		expectParseError(() => parseAgs4(withLine(28, '"NOTE","CPT2"')), 'malformed', 28);
+		expectParseError(() => parseAgs4(withLine(18, '"DATA","CPT1","1","1.75"')), 'malformed', 18, 'SCPG_CAR');
+		expectParseError(() => parseAgs4(LINES.slice(0, 20).join('\n')), 'malformed', undefined);
+		expectParseError(() => parseAgs4(LINES.slice(0, 25).join('\n')), 'malformed', undefined);
 	});
 
 	it('parseAgs4(text) rejects empty and binary text', () => {
-		expectError(() => parseAgs4(''), 'empty-file', 1);
-		expectError(() => parseAgs4('"GROUP","SCPT"\n\u0000'), 'binary-file', 2);
-	});
-});
-
-describe('formatAgs4(soundings, options)', () => {
-	const soundings: ParsedSounding[] = [
-		{
-			id: 'CPT "A"',
-			x: 100.25,
-			y: 200.5,
-			groundElevation: 1.75,
-			areaRatio: 0.8,
-			depth: Float64Array.from([0.02, 0.04, 0.06]),
-			qc: Float64Array.from([512.3, NaN, 1800.7]),
-			fs: Float64Array.from([5.12, 6.3, 7]),
-			u2: Float64Array.from([12.5, 15, -3.25])
-		},
-		{ id: 'B', depth: Float64Array.from([1, 2]), qc: Float64Array.from([3000, 3500]), fs: Float64Array.from([30, 35]) }
-	];
-
-	it('formatAgs4(soundings) round-trips through parseAgs4 within its written decimals', () => {
-		const text = formatAgs4(soundings);
-		expect(text).toContain('"GROUP","SCPT"');
-		expect(text.includes('\r\n')).toBe(true);
-		const [a, b] = parseAgs4(text);
-		expect(a.id).toBe('CPT "A"');
-		expectAllAbsClose(a.depth, soundings[0].depth, 5e-4, 'depth');
-		// Defaults: qc 3 decimals of MN/m2 (0.5 kPa), fs 1 decimal of kN/m2, u2 4 decimals of MN/m2.
-		expectAllAbsCloseOrNaN(a.qc, soundings[0].qc, 0.5, 'qc');
-		expectAllAbsClose(a.fs, soundings[0].fs, 0.05, 'fs');
-		expectAllAbsClose(a.u2!, soundings[0].u2!, 0.05, 'u2');
-		expectAbsClose(a.x!, 100.25, 5e-3);
-		expectAbsClose(a.groundElevation!, 1.75, 5e-3);
-		expect(a.areaRatio).toBe(0.8);
-		expect(a.meta?.PROJ_ID).toBe('CONEFIELD');
-		expect(b.id).toBe('B');
-		expect(b.x).toBeUndefined();
-		// A sounding without u2 in a file where others have it reads back as void u2.
-		expect(Array.from(b.u2!).every(Number.isNaN)).toBe(true);
-		expectAllAbsClose(b.qc, [3000, 3500], 1e-9, 'qc');
-	});
-
-	it('formatAgs4(soundings, options) keeps more decimals on request', () => {
-		const [a] = parseAgs4(formatAgs4(soundings, { projectId: 'X', decimals: { depth: 9, qc: 12, fs: 9, u2: 12, coordinates: 6 } }));
-		expectAllAbsCloseOrNaN(a.qc, soundings[0].qc, 1e-8, 'qc');
-		expectAllAbsClose(a.fs, soundings[0].fs, 1e-8, 'fs');
-		expect(a.meta?.PROJ_ID).toBe('X');
-	});
-
-	it('formatAgs4(soundings) throws RangeError for duplicate ids and unequal columns', () => {
-		expect(() => formatAgs4([soundings[1], soundings[1]])).toThrow('sounding ids must be unique');
-		expect(() => formatAgs4([{ ...soundings[1], fs: Float64Array.from([1]) }])).toThrow('columns must have equal lengths');
+		expectParseError(() => parseAgs4(''), 'empty-file', 1);
+		expectParseError(() => parseAgs4('"GROUP","SCPT"\n\u0000'), 'binary-file', 2);
 	});
 });

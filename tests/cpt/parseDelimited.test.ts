@@ -1,21 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { CptParseError, FT_TO_M, TSF_TO_KPA, formatDelimited, parseDelimited, previewDelimited } from '$lib/cpt';
-import type { CptParseErrorCode, DelimitedMapping, ParsedSounding } from '$lib/cpt';
+import { FT_TO_M, TSF_TO_KPA, parseDelimited, previewDelimited } from '$lib/cpt';
+import type { DelimitedMapping } from '$lib/cpt';
 import { expectAbsClose, expectAllAbsClose, expectAllAbsCloseOrNaN } from '../asserts';
+import { expectParseError } from './expectParseError';
 
-function expectError(fn: () => unknown, code: CptParseErrorCode, line?: number, column?: string): CptParseError {
-	try {
-		fn();
-	} catch (e) {
-		expect(e).toBeInstanceOf(CptParseError);
-		const err = e as CptParseError;
-		expect(err.code).toBe(code);
-		expect(err.line).toBe(line);
-		expect(err.column).toBe(column);
-		return err;
-	}
-	return expect.fail('expected a CptParseError');
-}
 
 const CSV = [
 	'sounding,depth,qc,fs,u2,easting,northing,gl',
@@ -88,7 +76,7 @@ describe('parseDelimited(text, mapping)', () => {
 		const p = previewDelimited('sep=\t\n\ndepth\tqc\tfs\n1\t2\t3\n');
 		expect(p.delimiter).toBe('\t');
 		expect(p.headers).toEqual(['depth', 'qc', 'fs']);
-		expectError(() => previewDelimited('sep=,\n'), 'malformed', 1);
+		expectParseError(() => previewDelimited('sep=,\n'), 'malformed', 1);
 	});
 
 	it('parseDelimited(text, mapping) keeps extra columns and takes the default id', () => {
@@ -102,116 +90,28 @@ describe('parseDelimited(text, mapping)', () => {
 		const rows = ['depth,qc,fs'];
 		for (let i = 1; i <= 15; i++) rows.push(`${i},1,10`);
 		rows.push('16,abc,10');
-		const err = expectError(() => parseDelimited(rows.join('\n'), { depth: 'depth', qc: 'qc', fs: 'fs', units: { depth: 'm', qc: 'MPa', fs: 'kPa' } }), 'not-a-number', 17, 'qc');
+		const err = expectParseError(() => parseDelimited(rows.join('\n'), { depth: 'depth', qc: 'qc', fs: 'fs', units: { depth: 'm', qc: 'MPa', fs: 'kPa' } }), 'not-a-number', 17, 'qc');
 		expect(err.message).toBe("line 17, column qc: 'abc' is not a number");
 	});
 
 	it('parseDelimited(text, mapping) rejects a missing column, unknown units and depths that do not increase', () => {
-		expectError(() => parseDelimited(CSV, { ...MAPPING, fs: 'sleeve' }, { file: 'f.csv' }), 'missing-column', 1, 'sleeve');
-		expectError(() => parseDelimited(CSV, { ...MAPPING, units: { ...MAPPING.units, qc: 'bar' as 'MPa' } }), 'unknown-unit', undefined, 'qc');
-		expectError(() => parseDelimited(CSV, { ...MAPPING, units: { ...MAPPING.units, depth: 'yd' as 'm' } }), 'unknown-unit', undefined, 'depth');
+		expectParseError(() => parseDelimited(CSV, { ...MAPPING, fs: 'sleeve' }, { file: 'f.csv' }), 'missing-column', 1, 'sleeve');
+		expectParseError(() => parseDelimited(CSV, { ...MAPPING, units: { ...MAPPING.units, qc: 'bar' as 'MPa' } }), 'unknown-unit', undefined, 'qc');
+		expectParseError(() => parseDelimited(CSV, { ...MAPPING, units: { ...MAPPING.units, depth: 'yd' as 'm' } }), 'unknown-unit', undefined, 'depth');
 		const bad = CSV.replace('A,1.5,1.80', 'A,0.9,1.80');
-		expectError(() => parseDelimited(bad, MAPPING), 'depth-not-increasing', 5, 'depth');
-		expectError(() => parseDelimited(CSV.replace('A,1.0,1.50', 'A,,1.50'), MAPPING), 'missing-value', 3, 'depth');
-		expectError(() => parseDelimited(CSV.replace('B,0.5', ',0.5'), MAPPING), 'missing-value', 4, 'sounding');
+		expectParseError(() => parseDelimited(bad, MAPPING), 'depth-not-increasing', 5, 'depth');
+		expectParseError(() => parseDelimited(CSV.replace('A,1.0,1.50', 'A,,1.50'), MAPPING), 'missing-value', 3, 'depth');
+		expectParseError(() => parseDelimited(CSV.replace('B,0.5', ',0.5'), MAPPING), 'missing-value', 4, 'sounding');
 	});
 
 	it('parseDelimited(text, mapping) rejects malformed rows and files', () => {
-		expectError(() => parseDelimited(CSV.replace('A,1.0,1.50,,8', 'A,1.0,1.50,8'), MAPPING), 'malformed', 3);
-		expectError(() => parseDelimited('depth qc fs\n1 2 3', MAPPING), 'malformed', 1);
-		expectError(() => parseDelimited(CSV.split('\n')[0], MAPPING), 'malformed', 1);
-		expectError(() => parseDelimited('depth,depth,qc,fs\n1,1,1,1', MAPPING), 'malformed', 1, 'depth');
-		expectError(() => parseDelimited(CSV.replace('100,200,3.0', '100,200,"3.0'), MAPPING), 'malformed', 2);
-		expectError(() => parseDelimited(CSV, { ...MAPPING, areaRatio: { column: 'gl' } }), 'malformed', 2, 'gl');
-		expectError(() => parseDelimited('', MAPPING), 'empty-file', 1);
-		expectError(() => parseDelimited('a,b\n\u0000', MAPPING), 'binary-file', 2);
-	});
-});
-
-describe('previewDelimited(text, options)', () => {
-	it('previewDelimited(text) returns headers, the first rows and a guessed mapping', () => {
-		const p = previewDelimited(CSV, { rows: 2 });
-		expect(p.delimiter).toBe(',');
-		expect(p.headers).toEqual(['sounding', 'depth', 'qc', 'fs', 'u2', 'easting', 'northing', 'gl']);
-		expect(p.rows).toEqual([
-			['A', '0.5', '1.20', '10', '5', '100', '200', '3.0'],
-			['A', '1.0', '1.50', '', '8', '100', '200', '3.0']
-		]);
-		expect(p.rowCount).toBe(5);
-		expect(p.guess).toEqual({
-			delimiter: ',',
-			id: 'sounding',
-			depth: 'depth',
-			qc: 'qc',
-			fs: 'fs',
-			u2: 'u2',
-			units: { depth: 'm', qc: 'MPa', fs: 'kPa', u2: 'kPa' },
-			x: { column: 'easting' },
-			y: { column: 'northing' },
-			groundElevation: { column: 'gl' }
-		});
-	});
-
-	it('previewDelimited(text) takes units from the header and from magnitudes', () => {
-		const a = previewDelimited('Test ID;Depth [ft];Cone resistance (tsf);Sleeve friction (tsf);U2 (MPa);Chainage (ft)\nX;1;50;0.5;0.01;10\n');
-		expect(a.delimiter).toBe(';');
-		expect(a.guess.units).toEqual({ depth: 'ft', qc: 'tsf', fs: 'tsf', u2: 'MPa', coordinates: 'ft' });
-		expect(a.guess.id).toBe('Test ID');
-		expect(a.guess.chainage).toEqual({ column: 'Chainage (ft)' });
-		// Rules of our own: qc above 300 reads as kPa, fs below 2 as MPa.
-		const b = previewDelimited('depth\tqc\tfs\n1\t2500\t0.02\n2\t3000\t0.03\n');
-		expect(b.delimiter).toBe('\t');
-		expect(b.guess.units.qc).toBe('kPa');
-		expect(b.guess.units.fs).toBe('MPa');
-		// Friction ratio is not sleeve friction.
-		const c = previewDelimited('depth,qc,friction ratio\n1,2,3\n');
-		expect(c.guess.fs).toBeUndefined();
-	});
-
-	it('previewDelimited(text) rejects text without a delimiter and empty text', () => {
-		expectError(() => previewDelimited('just one column\n1\n'), 'malformed', 1);
-		expectError(() => previewDelimited('\n\n'), 'empty-file', 1);
-	});
-});
-
-describe('formatDelimited(soundings, options)', () => {
-	const soundings: ParsedSounding[] = [
-		{
-			id: 'A,1',
-			x: 10.5,
-			y: 20.25,
-			groundElevation: 1.5,
-			areaRatio: 0.75,
-			depth: Float64Array.from([0.02, 0.04]),
-			qc: Float64Array.from([512.3, NaN]),
-			fs: Float64Array.from([5.12, 6.3]),
-			u2: Float64Array.from([12.5, -3.25])
-		},
-		{ id: 'B', chainage: 35, depth: Float64Array.from([1, 2]), qc: Float64Array.from([3000, 3500]), fs: Float64Array.from([30, 35]) }
-	];
-
-	for (const delimiter of [',', ';', '\t'] as const) {
-		it(`formatDelimited(soundings, { delimiter: ${JSON.stringify(delimiter)} }) round-trips through previewDelimited's guess and parseDelimited`, () => {
-			const text = formatDelimited(soundings, { delimiter });
-			const { guess } = previewDelimited(text);
-			const [a, b] = parseDelimited(text, guess as DelimitedMapping);
-			expect(a.id).toBe('A,1');
-			expectAllAbsClose(a.depth, soundings[0].depth, 5e-4, 'depth');
-			// Defaults: qc 4 decimals of MPa (0.05 kPa), fs and u2 2 decimals of kPa.
-			expectAllAbsCloseOrNaN(a.qc, soundings[0].qc, 0.05, 'qc');
-			expectAllAbsClose(a.fs, soundings[0].fs, 0.005, 'fs');
-			expectAllAbsClose(a.u2!, soundings[0].u2!, 0.005, 'u2');
-			expect([a.x, a.y, a.groundElevation, a.areaRatio]).toEqual([10.5, 20.25, 1.5, 0.75]);
-			expect(a.chainage).toBeUndefined();
-			expect(b.chainage).toBe(35);
-			expect(b.areaRatio).toBe(0.8);
-			expectAllAbsCloseOrNaN(b.u2!, [NaN, NaN], 0, 'u2');
-		});
-	}
-
-	it('formatDelimited(soundings) throws for duplicate ids, bad delimiters and unequal columns', () => {
-		expect(() => formatDelimited([soundings[1], soundings[1]])).toThrow('sounding ids must be unique');
-		expect(() => formatDelimited(soundings, { delimiter: '|' as ',' })).toThrow(RangeError);
-		expect(() => formatDelimited([{ ...soundings[1], qc: Float64Array.from([1]) }])).toThrow('columns must have equal lengths');
+		expectParseError(() => parseDelimited(CSV.replace('A,1.0,1.50,,8', 'A,1.0,1.50,8'), MAPPING), 'malformed', 3);
+		expectParseError(() => parseDelimited('depth qc fs\n1 2 3', MAPPING), 'malformed', 1);
+		expectParseError(() => parseDelimited(CSV.split('\n')[0], MAPPING), 'malformed', 1);
+		expectParseError(() => parseDelimited('depth,depth,qc,fs\n1,1,1,1', MAPPING), 'malformed', 1, 'depth');
+		expectParseError(() => parseDelimited(CSV.replace('100,200,3.0', '100,200,"3.0'), MAPPING), 'malformed', 2);
+		expectParseError(() => parseDelimited(CSV, { ...MAPPING, areaRatio: { column: 'gl' } }), 'malformed', 2, 'gl');
+		expectParseError(() => parseDelimited('', MAPPING), 'empty-file', 1);
+		expectParseError(() => parseDelimited('a,b\n\u0000', MAPPING), 'binary-file', 2);
 	});
 });

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { CptParseError, MAX_FILE_BYTES, formatGef, parseGef } from '$lib/cpt';
-import type { CptParseErrorCode, ParsedSounding } from '$lib/cpt';
-import { expectAbsClose, expectAllAbsClose, expectAllAbsCloseOrNaN } from '../asserts';
+import { MAX_FILE_BYTES, parseGef } from '$lib/cpt';
+import { expectAllAbsClose, expectAllAbsCloseOrNaN } from '../asserts';
+import { expectParseError } from './expectParseError';
 
 // A hand-written GEF CPT file (keywords from memory of the GEF-CPT report, see REFERENCES.md): semicolon
 // columns, "!" record ends, qc in MPa, fs in kPa, u2 in MPa, corrected depth beside penetration length.
@@ -28,19 +28,6 @@ const HEADER = [
 const DATA = ['0.020;0.512;5.1;0.0012;0.020;!', '0.040;0.530;-9999.0;0.0020;0.039;!', '0.060;-9999.0;6.0;0.0031;0.059;!'];
 const GEF = [...HEADER, ...DATA].join('\r\n') + '\r\n';
 
-function expectError(fn: () => unknown, code: CptParseErrorCode, line?: number, column?: string): CptParseError {
-	try {
-		fn();
-	} catch (e) {
-		expect(e).toBeInstanceOf(CptParseError);
-		const err = e as CptParseError;
-		expect(err.code).toBe(code);
-		expect(err.line).toBe(line);
-		expect(err.column).toBe(column);
-		return err;
-	}
-	return expect.fail('expected a CptParseError');
-}
 
 describe('parseGef(text)', () => {
 	it('parseGef(text) reads columns by quantity number and converts declared units to m and kPa', () => {
@@ -98,102 +85,52 @@ describe('parseGef(text)', () => {
 
 	it('parseGef(text) names line and column for a non-numeric cell', () => {
 		const bad = [...HEADER, DATA[0], '0.040;abc;5.0;0.0020;0.039;!'].join('\n');
-		const err = expectError(() => parseGef(bad, { file: 'x.gef' }), 'not-a-number', HEADER.length + 2, 'cone resistance');
+		const err = expectParseError(() => parseGef(bad, { file: 'x.gef' }), 'not-a-number', HEADER.length + 2, 'cone resistance');
 		expect(err.message).toBe(`x.gef: line ${HEADER.length + 2}, column cone resistance: 'abc' is not a number`);
 	});
 
 	it('parseGef(text) rejects an unknown unit on its #COLUMNINFO line', () => {
 		const bad = GEF.replace('2, MPa, cone resistance', '2, furlongs, cone resistance');
-		expectError(() => parseGef(bad), 'unknown-unit', 6, 'cone resistance');
+		expectParseError(() => parseGef(bad), 'unknown-unit', 6, 'cone resistance');
 		const rf = GEF.replace('3, kPa, local friction, 3', '3, -, friction ratio, 4');
-		expectError(() => parseGef(rf), 'unknown-unit', 7, 'friction ratio');
+		expectParseError(() => parseGef(rf), 'unknown-unit', 7, 'friction ratio');
 	});
 
 	it('parseGef(text) rejects depths that do not increase', () => {
 		const bad = [...HEADER, DATA[0], '0.040;0.530;5.0;0.0020;0.020;!'].join('\n');
-		expectError(() => parseGef(bad), 'depth-not-increasing', HEADER.length + 2, 'corrected depth');
+		expectParseError(() => parseGef(bad), 'depth-not-increasing', HEADER.length + 2, 'corrected depth');
 	});
 
 	it('parseGef(text) rejects a void depth', () => {
 		const text = ['#GEFID= 1, 1, 0', '#COLUMNINFO= 1, m, penetration length, 1', '#COLUMNINFO= 2, MPa, cone resistance, 2',
 			'#COLUMNINFO= 3, MPa, local friction, 3', '#COLUMNVOID= 1, -1', '#EOH=', '-1 1 0.01'].join('\n');
-		expectError(() => parseGef(text), 'missing-value', 7, 'penetration length');
+		expectParseError(() => parseGef(text), 'missing-value', 7, 'penetration length');
 	});
 
 	it('parseGef(text) reports missing required columns at #EOH', () => {
 		const noQc = GEF.replace('#COLUMNINFO= 2, MPa, cone resistance, 2', '#COLUMNINFO= 2, MPa, something else, 99');
-		expectError(() => parseGef(noQc), 'missing-column', HEADER.length, 'qc');
+		expectParseError(() => parseGef(noQc), 'missing-column', HEADER.length, 'qc');
 		const noFs = GEF.replace('3, kPa, local friction, 3', '3, kPa, other, 98');
-		expectError(() => parseGef(noFs), 'missing-column', HEADER.length, 'fs');
+		expectParseError(() => parseGef(noFs), 'missing-column', HEADER.length, 'fs');
 		const noDepth = GEF.replace('1, m, penetration length, 1', '1, m, a, 97').replace('5, m, corrected depth, 11', '5, m, b, 96');
-		expectError(() => parseGef(noDepth), 'missing-column', HEADER.length, 'depth');
+		expectParseError(() => parseGef(noDepth), 'missing-column', HEADER.length, 'depth');
 	});
 
 	it('parseGef(text) rejects malformed structure with the line', () => {
-		expectError(() => parseGef('depth,qc\n1,2'), 'malformed', 1);
-		expectError(() => parseGef(HEADER.slice(0, -1).join('\n')), 'malformed', HEADER.length - 1);
-		expectError(() => parseGef(HEADER.join('\n')), 'malformed', HEADER.length);
-		expectError(() => parseGef([...HEADER, '0.020;0.512;5.1;!'].join('\n')), 'malformed', HEADER.length + 1);
-		expectError(() => parseGef(GEF.replace('#COLUMN= 5', '#COLUMN= 4')), 'malformed', 9);
-		expectError(() => parseGef(GEF.replace('3, 0.75, -', '3, 1.75, -')), 'malformed', 17);
-		expectError(() => parseGef(GEF.replace('#ZID= 31000, -1.25', '#ZID= 31000, high')), 'not-a-number', 16, 'ZID');
+		expectParseError(() => parseGef('depth,qc\n1,2'), 'malformed', 1);
+		expectParseError(() => parseGef(HEADER.slice(0, -1).join('\n')), 'malformed', HEADER.length - 1);
+		expectParseError(() => parseGef(HEADER.join('\n')), 'malformed', HEADER.length);
+		expectParseError(() => parseGef([...HEADER, '0.020;0.512;5.1;!'].join('\n')), 'malformed', HEADER.length + 1);
+		expectParseError(() => parseGef(GEF.replace('#COLUMN= 5', '#COLUMN= 4')), 'malformed', 9);
+		expectParseError(() => parseGef(GEF.replace('3, 0.75, -', '3, 1.75, -')), 'malformed', 17);
+		expectParseError(() => parseGef(GEF.replace('#ZID= 31000, -1.25', '#ZID= 31000, high')), 'not-a-number', 16, 'ZID');
 	});
 
 	it('parseGef(text) rejects empty, binary and oversized text', () => {
-		expectError(() => parseGef(''), 'empty-file', 1);
-		expectError(() => parseGef(' \n\n'), 'empty-file', 1);
-		expectError(() => parseGef('#GEFID= 1\n\u0000\u0001'), 'binary-file', 2);
-		expectError(() => parseGef('#'.repeat(MAX_FILE_BYTES + 1)), 'file-too-large', undefined);
+		expectParseError(() => parseGef(''), 'empty-file', 1);
+		expectParseError(() => parseGef(' \n\n'), 'empty-file', 1);
+		expectParseError(() => parseGef('#GEFID= 1\n\u0000\u0001'), 'binary-file', 2);
+		expectParseError(() => parseGef('#'.repeat(MAX_FILE_BYTES + 1)), 'file-too-large', undefined);
 		expect(() => parseGef(42 as unknown as string)).toThrow(TypeError);
-	});
-});
-
-describe('formatGef(sounding, options)', () => {
-	const sounding: ParsedSounding = {
-		id: 'S-1',
-		x: 1234.5,
-		y: 6789.25,
-		groundElevation: 2.4,
-		areaRatio: 0.8,
-		depth: Float64Array.from([0.02, 0.04, 0.06, 0.08]),
-		qc: Float64Array.from([512.3, 530, NaN, 1800.7]),
-		fs: Float64Array.from([5.12, 6.3, 7, NaN]),
-		u2: Float64Array.from([12.5, NaN, 20, -3.25])
-	};
-
-	it('formatGef(sounding) round-trips through parseGef within its written decimals', () => {
-		const [s] = parseGef(formatGef(sounding));
-		expect(s.id).toBe('S-1');
-		expectAllAbsClose(s.depth, sounding.depth, 5e-4, 'depth');
-		// Defaults: qc 4 decimals of MPa (0.05 kPa), fs and u2 5 decimals of MPa (0.005 kPa).
-		expectAllAbsCloseOrNaN(s.qc, sounding.qc, 0.05, 'qc');
-		expectAllAbsCloseOrNaN(s.fs, sounding.fs, 0.005, 'fs');
-		expectAllAbsCloseOrNaN(s.u2!, sounding.u2!, 0.005, 'u2');
-		expectAbsClose(s.x!, 1234.5, 5e-4);
-		expectAbsClose(s.y!, 6789.25, 5e-4);
-		expectAbsClose(s.groundElevation!, 2.4, 5e-4);
-		expect(s.areaRatio).toBe(0.8);
-	});
-
-	it('formatGef(sounding, options) round-trips with separators and many decimals', () => {
-		const text = formatGef(sounding, { columnSeparator: ';', recordSeparator: '!', decimals: { depth: 9, qc: 12, fs: 12, u2: 12 } });
-		expect(text).toContain('#COLUMNSEPARATOR= ;');
-		const [s] = parseGef(text);
-		expectAllAbsClose(s.depth, sounding.depth, 1e-9, 'depth');
-		expectAllAbsCloseOrNaN(s.qc, sounding.qc, 1e-8, 'qc');
-		expectAllAbsCloseOrNaN(s.fs, sounding.fs, 1e-8, 'fs');
-	});
-
-	it('formatGef(sounding) writes no u2 column when there is none', () => {
-		const { u2: _u2, ...rest } = sounding;
-		const text = formatGef(rest);
-		expect(text).toContain('#COLUMN= 3');
-		expect(parseGef(text)[0].u2).toBeUndefined();
-	});
-
-	it('formatGef(sounding, options) throws for bad options and unequal columns', () => {
-		expect(() => formatGef({ ...sounding, qc: Float64Array.from([1]) })).toThrow(RangeError);
-		expect(() => formatGef(sounding, { decimals: { qc: 1.5 } })).toThrow('qc decimals must be an integer within 0–20');
-		expect(() => formatGef(sounding, { columnSeparator: '.' })).toThrow(TypeError);
 	});
 });
