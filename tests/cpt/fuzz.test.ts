@@ -85,7 +85,7 @@ function check(text: string, label: string): number {
 				expect.fail(`${label}: malformed sounding ${JSON.stringify(s.id)}`);
 			}
 			for (let i = 0; i < n; i++) {
-				if (!Number.isFinite(s.depth[i]) || (i > 0 && !(s.depth[i] > s.depth[i - 1]))) expect.fail(`${label}: bad depth at ${i}`);
+				if (!Number.isFinite(s.depth[i]) || s.depth[i] < 0 || (i > 0 && !(s.depth[i] > s.depth[i - 1]))) expect.fail(`${label}: bad depth at ${i}`);
 			}
 		}
 	}

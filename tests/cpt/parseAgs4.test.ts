@@ -94,6 +94,7 @@ describe('parseAgs4(text)', () => {
 	it('parseAgs4(text) rejects depths that do not increase within a test', () => {
 		expectParseError(() => parseAgs4(withLine(27, '"DATA","CPT1","1","0.10","1.500","","0.020","1.5"')), 'depth-not-increasing', 27, 'SCPT_DPTH');
 		expectParseError(() => parseAgs4(withLine(27, '"DATA","CPT1","1","","1.500","","0.020","1.5"')), 'missing-value', 27, 'SCPT_DPTH');
+		expectParseError(() => parseAgs4(withLine(26, '"DATA","CPT1","1","-0.10","1.200","12.5","0.010","1.2"')), 'malformed', 26, 'SCPT_DPTH');
 	});
 
 	it('parseAgs4(text) reports a missing required heading on its HEADING line', () => {

@@ -101,6 +101,7 @@ describe('parseDelimited(text, mapping)', () => {
 		const bad = CSV.replace('A,1.5,1.80', 'A,0.9,1.80');
 		expectParseError(() => parseDelimited(bad, MAPPING), 'depth-not-increasing', 5, 'depth');
 		expectParseError(() => parseDelimited(CSV.replace('A,1.0,1.50', 'A,,1.50'), MAPPING), 'missing-value', 3, 'depth');
+		expectParseError(() => parseDelimited(CSV.replace('A,0.5,1.20', 'A,-0.5,1.20'), MAPPING), 'malformed', 2, 'depth');
 		expectParseError(() => parseDelimited(CSV.replace('B,0.5', ',0.5'), MAPPING), 'missing-value', 4, 'sounding');
 	});
 

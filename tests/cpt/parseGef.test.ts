@@ -101,10 +101,11 @@ describe('parseGef(text)', () => {
 		expectParseError(() => parseGef(bad), 'depth-not-increasing', HEADER.length + 2, 'corrected depth');
 	});
 
-	it('parseGef(text) rejects a void depth', () => {
+	it('parseGef(text) rejects a void or negative depth', () => {
 		const text = ['#GEFID= 1, 1, 0', '#COLUMNINFO= 1, m, penetration length, 1', '#COLUMNINFO= 2, MPa, cone resistance, 2',
 			'#COLUMNINFO= 3, MPa, local friction, 3', '#COLUMNVOID= 1, -1', '#EOH=', '-1 1 0.01'].join('\n');
 		expectParseError(() => parseGef(text), 'missing-value', 7, 'penetration length');
+		expectParseError(() => parseGef(text.replace('-1 1 0.01', '-0.5 1 0.01')), 'malformed', 7, 'penetration length');
 	});
 
 	it('parseGef(text) reports missing required columns at #EOH', () => {

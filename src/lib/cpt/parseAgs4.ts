@@ -172,6 +172,7 @@ export function parseAgs4(text: string, options: ParseOptions = {}): ParsedSound
 			}
 			const d = cellNumber(row, kDepth, lineNo, 'SCPT_DPTH') * fDepth;
 			if (Number.isNaN(d)) fail('missing-value', lineNo, 'depth is empty', 'SCPT_DPTH');
+			if (d < 0) fail('malformed', lineNo, `depth ${d} m is negative`, 'SCPT_DPTH');
 			if (t.depth.length > 0 && !(d > t.depth.last())) {
 				fail('depth-not-increasing', lineNo, `depth ${d} m does not increase from ${t.depth.last()} m`, 'SCPT_DPTH');
 			}

@@ -143,6 +143,7 @@ export function parseDelimited(text: string, mapping: DelimitedMapping, options:
 		}
 		const d = cellValue(row[kDepth], lineNo, headers[kDepth]) * depthFactor;
 		if (Number.isNaN(d)) fail('missing-value', lineNo, 'depth is empty', headers[kDepth]);
+		if (d < 0) fail('malformed', lineNo, `depth ${d} m is negative`, headers[kDepth]);
 		if (s.depth.length > 0 && !(d > s.depth.last())) {
 			fail('depth-not-increasing', lineNo, `depth ${d} m does not increase from ${s.depth.last()} m`, headers[kDepth]);
 		}

@@ -190,6 +190,7 @@ export function parseGef(text: string, options: ParseOptions = {}): ParsedSoundi
 			if (k === depthInfo!.index) {
 				const d = (v as number) * depthFactor;
 				if (Number.isNaN(d)) fail('missing-value', lineNo, 'depth is void', nameOf(k));
+				if (d < 0) fail('malformed', lineNo, `depth ${d} m is negative`, nameOf(k));
 				const prev = depthCol.last() * depthFactor;
 				if (depthCol.length > 0 && !(d > prev)) {
 					fail('depth-not-increasing', lineNo, `depth ${d} m does not increase from ${prev} m`, nameOf(k));

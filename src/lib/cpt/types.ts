@@ -16,7 +16,7 @@ export interface ParsedSounding {
 	groundElevation?: number;
 	/** Cone net area ratio a of qt = qc + u2(1 − a). */
 	areaRatio?: number;
-	/** Depth below ground, strictly increasing. */
+	/** Depth below ground, non-negative and strictly increasing (the parsers reject anything else). */
 	depth: Float64Array;
 	/** Cone resistance qc. */
 	qc: Float64Array;
