@@ -8,6 +8,7 @@ export interface BenchCase {
 }
 
 const MODULES: Promise<{ default: BenchCase[] }>[] = [
+	import('./simulation'),
 	import('./variogram'),
 ];
 

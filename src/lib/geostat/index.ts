@@ -51,6 +51,7 @@ export type { Lattice } from './simulation/lattice';
 export { prepareSimulation, COINCIDENCE_TOLERANCE } from './simulation/prepare-simulation';
 export type { PreparedSimulation, PreparedDomain } from './simulation/prepare-simulation';
 export { simulate, simulatePrepared, realizationStream } from './simulation/simulate';
+export type { SimulationStats } from './simulation/simulate';
 export { sha256 } from './recipe/sha256';
 export { canonicalJson } from './recipe/canonical-json';
 export { ENGINE_VERSION, isCurrentEngine } from './recipe/engine-version';

@@ -9,6 +9,8 @@ export interface OffsetTemplate {
 	count: number;
 	/** Half-extents of the enumerated box in cells. */
 	extent: [number, number, number];
+	/** Half-extents of the ellipsoid's bounding box in cells, before the limit (Infinity for an infinite axis). */
+	reach: [number, number, number];
 }
 
 /**
@@ -27,6 +29,7 @@ export function offsetTemplate(
 ): OffsetTemplate {
 	if (!spacing.every((s) => s > 0 && Number.isFinite(s))) throw new RangeError('spacing must be > 0');
 	const half = [0, 0, 0] as [number, number, number];
+	const reach = [0, 0, 0] as [number, number, number];
 	if (!e.empty) {
 		const a = e.major;
 		const b = e.minor;
@@ -34,7 +37,10 @@ export function offsetTemplate(
 		const ex = Math.sqrt(sq(prod(a, e.sin)) + sq(prod(b, e.cos)));
 		const ey = Math.sqrt(sq(prod(a, e.cos)) + sq(prod(b, e.sin)));
 		const ext = [ex, ey, e.vertical];
-		for (let ax = 0; ax < 3; ax++) half[ax] = Math.min(limit[ax], Math.floor(ext[ax] / spacing[ax]));
+		for (let ax = 0; ax < 3; ax++) {
+			reach[ax] = Math.floor(ext[ax] / spacing[ax]);
+			half[ax] = Math.min(limit[ax], reach[ax]);
+		}
 	}
 	const box = (2 * half[0] + 1) * (2 * half[1] + 1) * (2 * half[2] + 1);
 	if (box > 20 * maxEntries) throw new RangeError('search ellipsoid too large for a grid template');
@@ -72,7 +78,7 @@ export function offsetTemplate(
 		offsets[3 * t + 2] = tmp[3 * o + 2];
 		d2[t] = dist[o];
 	}
-	return { offsets, d2, count: n, extent: half };
+	return { offsets, d2, count: n, extent: half, reach };
 }
 
 // An infinite semi-axis perpendicular to an axis adds nothing to that axis' extent; cos 90° evaluates to

@@ -166,8 +166,9 @@ function prepareDomain(
 			for (let a = 0; a < 3; a++) {
 				const f = (cols[a][i] - lattice.origin[a]) / lattice.spacing[a];
 				const r = Math.round(f);
-				// A lattice of one cell along an axis has no spacing there: only that plane is on it.
-				if (Math.abs(f - r) * lattice.spacing[a] > COINCIDENCE_TOLERANCE || Math.abs(r) > 1e9) on = 0;
+				// Only data inside the lattice's box count as on it: then every offset between two entries of a
+				// kriging system is within the covariance table (see tableHalf below), with no bounds checks.
+				if (Math.abs(f - r) * lattice.spacing[a] > COINCIDENCE_TOLERANCE || r < 0 || r >= lattice.counts[a]) on = 0;
 				dlat[3 * i + a] = on ? r : 0;
 			}
 			donlat[i] = on;
@@ -193,7 +194,9 @@ function prepareDomain(
 		}
 	}
 	if (template && lattice) {
-		for (let a = 0; a < 3; a++) tableHalf[a] = 2 * template.extent[a];
+		// Two entries of one system lie in the search ellipsoid of its node and in the lattice's box, so their
+		// offset is within twice the ellipsoid's reach (plus a cell for rounding at its rim) and counts − 1.
+		for (let a = 0; a < 3; a++) tableHalf[a] = Math.min(2 * template.reach[a] + 2, lattice.counts[a] - 1);
 		const [hx, hy, hz] = tableHalf;
 		const size = (2 * hx + 1) * (2 * hy + 1) * (2 * hz + 1);
 		if (size <= MAX_TABLE) {

@@ -42,15 +42,22 @@ export function simulate(
 	return simulatePrepared(prepareSimulation(input, targets), realization, onProgress);
 }
 
+/** Counters a caller may pass to simulatePrepared (benchmarks): kriging systems solved and their total size. */
+export interface SimulationStats {
+	systems: number;
+	neighbours: number;
+}
+
 /**
  * simulate() for a prepared input: the same bits, without repeating the preparation for each realization.
- * Does not mutate the prepared simulation.
+ * Does not mutate the prepared simulation; adds to `stats` if given.
  * @throws {RangeError} if realization is not a non-negative safe integer
  */
 export function simulatePrepared(
 	prep: PreparedSimulation,
 	realization: number,
-	onProgress?: (done: number, total: number) => void
+	onProgress?: (done: number, total: number) => void,
+	stats?: SimulationStats
 ): Float64Array {
 	if (!Number.isSafeInteger(realization) || realization < 0) throw new RangeError('realization must be an integer >= 0');
 	const n = prep.targets.domain.length;
@@ -60,7 +67,8 @@ export function simulatePrepared(
 	const state = new Uint8Array(n);
 	const progress = { done: 0, total: prep.active, step: Math.max(1, Math.floor(prep.active / 100)), next: 0, cb: onProgress };
 	progress.next = progress.step;
-	for (const dom of prep.domains) simulateDomain(prep, dom, realization, out, y, state, progress);
+	const counters = stats ?? { systems: 0, neighbours: 0 };
+	for (const dom of prep.domains) simulateDomain(prep, dom, realization, out, y, state, progress, counters);
 	if (onProgress) onProgress(prep.active, prep.active);
 	return out;
 }
@@ -80,7 +88,8 @@ function simulateDomain(
 	out: Float64Array,
 	y: Float64Array,
 	state: Uint8Array,
-	progress: Progress
+	progress: Progress,
+	stats: SimulationStats
 ): void {
 	const t = prep.targets;
 	const X = t.x;
@@ -121,10 +130,6 @@ function simulateDomain(
 	const py = new Float64Array(kmax);
 	const pz = new Float64Array(kmax);
 	const pv = new Float64Array(kmax);
-	const li = new Int32Array(kmax);
-	const lj = new Int32Array(kmax);
-	const lk = new Int32Array(kmax);
-	const onl = new Uint8Array(kmax);
 	const a = new Float64Array(kmax * kmax);
 	const rhs = new Float64Array(kmax);
 	const w = new Float64Array(kmax);
@@ -144,17 +149,29 @@ function simulateDomain(
 	const useData = dom.nd > 0 && maxData > 0 && !dom.ellipsoid.empty;
 	const useNodes = maxSimulated > 0 && !dom.ellipsoid.empty;
 
-	// Covariance of two system entries: from the table when both sit on the lattice, else from the model.
-	const covAt = (p: number, x: number, yy: number, z: number, onq: number, iq: number, jq: number, kq: number): number => {
-		if (table !== null && onl[p] === 1 && onq === 1) {
-			const di = li[p] - iq;
-			const dj = lj[p] - jq;
-			const dk = lk[p] - kq;
-			if (di >= -hx && di <= hx && dj >= -hy && dj <= hy && dk >= -hz && dk <= hz) return table[centre + di * sx + dj * sy + dk];
+	// Table position of each system entry on the lattice (−1 off it): the covariance of two entries on the
+	// lattice is table[centre + tp[p] − tp[q]], always in range (see tableHalf in prepareSimulation).
+	const tp = new Int32Array(kmax);
+	const buildSystem = (k: number, tq: number, x0: number, y0: number, z0: number, ridge: number): void => {
+		for (let p = 0; p < k; p++) {
+			const tpp = tp[p];
+			const xp = px[p];
+			const yp = py[p];
+			const zp = pz[p];
+			rhs[p] = tpp >= 0 && tq >= 0 ? table![centre + tpp - tq] : cov.covariance(xp - x0, yp - y0, zp - z0);
+			const row = p * k;
+			if (tpp >= 0) {
+				const base = centre + tpp;
+				for (let r = 0; r < p; r++) {
+					const tr = tp[r];
+					a[row + r] = tr >= 0 ? table![base - tr] : cov.covariance(xp - px[r], yp - py[r], zp - pz[r]);
+				}
+			} else {
+				for (let r = 0; r < p; r++) a[row + r] = cov.covariance(xp - px[r], yp - py[r], zp - pz[r]);
+			}
+			a[row + p] = sill * ridge;
 		}
-		return cov.covariance(px[p] - x, py[p] - yy, pz[p] - z);
 	};
-
 	for (let step = 0; step < path.length; step++) {
 		const g = path[step];
 		let uu = rand();
@@ -184,10 +201,7 @@ function simulateDomain(
 				py[k] = dom.dy[i];
 				pz[k] = dom.dz[i];
 				pv[k] = dom.dval[i];
-				onl[k] = dom.donlat[i];
-				li[k] = dom.dlat[3 * i];
-				lj[k] = dom.dlat[3 * i + 1];
-				lk[k] = dom.dlat[3 * i + 2];
+				tp[k] = table !== null && dom.donlat[i] === 1 ? dom.dlat[3 * i] * sx + dom.dlat[3 * i + 1] * sy + dom.dlat[3 * i + 2] : -1;
 				k++;
 			}
 		}
@@ -206,10 +220,7 @@ function simulateDomain(
 					py[k] = Y[h];
 					pz[k] = Z[h];
 					pv[k] = y[h];
-					onl[k] = 1;
-					li[k] = ii;
-					lj[k] = jj;
-					lk[k] = kk;
+					tp[k] = table !== null ? ii * sx + jj * sy + kk : -1;
 					k++;
 					found++;
 				}
@@ -231,7 +242,7 @@ function simulateDomain(
 					py[k] = Y[h];
 					pz[k] = Z[h];
 					pv[k] = y[h];
-					onl[k] = 0;
+					tp[k] = -1;
 					k++;
 				}
 			}
@@ -239,22 +250,15 @@ function simulateDomain(
 
 		let est = mean;
 		let variance = sill;
+		stats.systems++;
+		stats.neighbours += k;
 		if (k > 0) {
-			const onq = lat ? 1 : 0;
-			for (let p = 0; p < k; p++) {
-				rhs[p] = covAt(p, x0, y0, z0, onq, gi, gj, gk);
-				const row = p * k;
-				for (let r = 0; r < p; r++) a[row + r] = covAt(p, px[r], py[r], pz[r], onl[r], li[r], lj[r], lk[r]);
-				a[row + p] = sill;
-			}
+			const tq = table !== null ? gi * sx + gj * sy + gk : -1;
+			buildSystem(k, tq, x0, y0, z0, 1);
 			if (!choleskyFactor(a, k)) {
 				// A tiny ridge (1e-9 of the sill) rescues systems that are singular only to rounding, e.g. a
 				// Gaussian model without nugget at close points; common practice.
-				for (let p = 0; p < k; p++) {
-					const row = p * k;
-					for (let r = 0; r < p; r++) a[row + r] = covAt(p, px[r], py[r], pz[r], onl[r], li[r], lj[r], lk[r]);
-					a[row + p] = sill * (1 + 1e-9);
-				}
+				buildSystem(k, tq, x0, y0, z0, 1 + 1e-9);
 				if (!choleskyFactor(a, k)) throw new Error(`singular kriging system at target ${g}`);
 			}
 			choleskySolve(a, k, rhs, w);
