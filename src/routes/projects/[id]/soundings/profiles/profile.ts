@@ -1,0 +1,104 @@
+// Turns a sounding's API response into the tracks, contacts and unit bands of its profile plot.
+import type { SimulatedProperty } from '$lib/server/db/site-schema';
+
+type Column = (number | null)[];
+
+/** GET /api/v1/projects/[id]/soundings/[sid], as the page uses it. */
+export interface SoundingDetail {
+	sounding: { id: string; name: string; groundElevation: number; chainage: number | null };
+	columns: { depth: Column; qc: Column; fs: Column; u2: Column | null };
+	derived: Record<string, Column>;
+	unit: number[];
+	units: { id: string; name: string; colour: string; position: number; property: SimulatedProperty; topElevation: number | null }[];
+	warnings: string[];
+}
+
+/** Labels and units of the properties a unit can be simulated in. */
+export const PROPERTY_INFO: Partial<Record<SimulatedProperty, { label: string; unit: string; what: string; decimals: number }>> = {
+	qc1Ncs: { label: 'qc1Ncs', unit: '–', what: 'clean-sand equivalent normalised tip resistance (Boulanger & Idriss 2014)', decimals: 1 },
+	suRatio: { label: 'su/σ′v', unit: '–', what: 'undrained strength ratio, su = (qt − σv)/Nkt (Lunne et al. 1997)', decimals: 3 },
+	Ic: { label: 'Ic', unit: '–', what: 'soil behaviour type index (Robertson 2009)', decimals: 2 },
+	qt: { label: 'qt', unit: 'kPa', what: 'corrected cone resistance', decimals: 0 },
+	FC: { label: 'FC', unit: '%', what: 'fines content from Ic', decimals: 0 },
+	Dr: { label: 'Dr', unit: '–', what: 'relative density (Idriss & Boulanger 2008)', decimals: 2 },
+	su: { label: 'su', unit: 'kPa', what: 'undrained shear strength', decimals: 1 },
+	Qtn: { label: 'Qtn', unit: '–', what: 'normalised cone resistance (Robertson 2009)', decimals: 1 }
+};
+
+const scaled = (c: Column, k: number): Column => c.map((v) => (v === null ? null : v * k));
+
+export interface Profile {
+	id: string;
+	name: string;
+	groundElevation: number;
+	chainage: number | null;
+	depth: Column;
+	tracks: {
+		key: string;
+		label: string;
+		unit: string;
+		values: Column;
+		scale?: 'linear' | 'log';
+		domain?: [number, number];
+		colour: string;
+		decimals: number;
+		references?: { value: number; label: string }[];
+	}[];
+	contacts: { depth: number; label: string; colour: string }[];
+	bands: { top: number; bottom: number; colour: string }[];
+	warnings: string[];
+}
+
+/**
+ * The profile of one sounding: qc (MPa), fs and u2 (kPa), Ic, and one track per property the project's
+ * units are simulated in, each showing its values only within the units simulated in it (every reading
+ * when the project has no units yet).
+ */
+export function profileOf(d: SoundingDetail, shown: { qc: boolean; fs: boolean; u2: boolean; Ic: boolean; property: boolean }): Profile {
+	const tracks: Profile['tracks'] = [];
+	if (shown.qc) tracks.push({ key: 'qc', label: 'qc', unit: 'MPa', values: scaled(d.columns.qc, 1 / 1000), colour: '#155a57', decimals: 2 });
+	if (shown.fs) tracks.push({ key: 'fs', label: 'fs', unit: 'kPa', values: d.columns.fs, colour: '#57534e', decimals: 1 });
+	if (shown.u2 && d.columns.u2) tracks.push({ key: 'u2', label: 'u2', unit: 'kPa', values: d.columns.u2, colour: '#1d4ed8', decimals: 1 });
+	if (shown.Ic && d.derived.Ic) {
+		tracks.push({
+			key: 'Ic',
+			label: 'Ic',
+			unit: '–',
+			values: d.derived.Ic,
+			domain: [1, 4],
+			colour: '#7c2d12',
+			decimals: 2,
+			references: [
+				{ value: 2.05, label: 'sand-like below' },
+				{ value: 2.6, label: 'clay-like above' }
+			]
+		});
+	}
+	if (shown.property) {
+		const properties = d.units.length ? [...new Set(d.units.map((u) => u.property))] : (['qc1Ncs', 'suRatio'] as SimulatedProperty[]);
+		for (const p of properties) {
+			const info = PROPERTY_INFO[p];
+			const source = d.derived[p];
+			if (!info || !source) continue;
+			const values = d.units.length ? source.map((v, i) => (d.unit[i] >= 0 && d.units[d.unit[i]].property === p ? v : null)) : source;
+			tracks.push({ key: `property-${p}`, label: info.label, unit: info.unit, values, colour: '#3f3f46', decimals: info.decimals });
+		}
+	}
+
+	const present = d.units
+		.filter((u) => u.topElevation !== null)
+		.map((u) => ({ ...u, depth: d.sounding.groundElevation - (u.topElevation as number) }))
+		.sort((a, b) => a.depth - b.depth);
+	const bottom = d.columns.depth.reduce<number>((m, v) => (v !== null && v > m ? v : m), 0);
+	return {
+		id: d.sounding.id,
+		name: d.sounding.name,
+		groundElevation: d.sounding.groundElevation,
+		chainage: d.sounding.chainage,
+		depth: d.columns.depth,
+		tracks,
+		contacts: present.map((u) => ({ depth: u.depth, label: u.name, colour: u.colour })),
+		bands: present.map((u, k) => ({ top: u.depth, bottom: k + 1 < present.length ? present[k + 1].depth : bottom, colour: u.colour })),
+		warnings: d.warnings
+	};
+}
