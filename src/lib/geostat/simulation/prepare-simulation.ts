@@ -48,8 +48,9 @@ export interface PreparedDomain {
 	targets: Int32Array;
 	/** Global indices of the targets that are simulated (not at a datum), ascending; shuffled per realization. */
 	pathNodes: Int32Array;
-	/** Lattice mode: template of offsets and covariance table. */
+	/** Lattice mode: template of offsets, the same as linear cell offsets, and the covariance table. */
 	template: OffsetTemplate | null;
+	templateCells: Int32Array | null;
 	covTable: Float64Array | null;
 	tableHalf: [number, number, number];
 	/** General mode: bucket grid over the domain's targets (local indices). */
@@ -183,6 +184,7 @@ function prepareDomain(
 	for (const g of list) if (datumAt[g] < 0) path.push(g);
 
 	let template: OffsetTemplate | null = null;
+	let templateCells: Int32Array | null = null;
 	let covTable: Float64Array | null = null;
 	const tableHalf: [number, number, number] = [0, 0, 0];
 	let nodeGrid: BucketGrid | null = null;
@@ -194,6 +196,10 @@ function prepareDomain(
 		}
 	}
 	if (template && lattice) {
+		const [cx, cy] = lattice.counts;
+		const o = template.offsets;
+		templateCells = new Int32Array(template.count);
+		for (let e = 0; e < template.count; e++) templateCells[e] = o[3 * e] + cx * (o[3 * e + 1] + cy * o[3 * e + 2]);
 		// Two entries of one system lie in the search ellipsoid of its node and in the lattice's box, so their
 		// offset is within twice the ellipsoid's reach (plus a cell for rounding at its rim) and counts − 1.
 		for (let a = 0; a < 3; a++) tableHalf[a] = Math.min(2 * template.reach[a] + 2, lattice.counts[a] - 1);
@@ -237,6 +243,7 @@ function prepareDomain(
 		targets,
 		pathNodes: Int32Array.from(path),
 		template,
+		templateCells,
 		covTable,
 		tableHalf,
 		nodeGrid

@@ -146,6 +146,7 @@ function simulateDomain(
 	const cx = lat ? lat.counts[0] : 0;
 	const cy = lat ? lat.counts[1] : 0;
 	const cz = lat ? lat.counts[2] : 0;
+	const [ex, ey, ez] = tmpl ? tmpl.extent : [0, 0, 0];
 	const useData = dom.nd > 0 && maxData > 0 && !dom.ellipsoid.empty;
 	const useNodes = maxSimulated > 0 && !dom.ellipsoid.empty;
 
@@ -208,19 +209,28 @@ function simulateDomain(
 		if (useNodes) {
 			if (tmpl !== null) {
 				const offs = tmpl.offsets;
+				const cellOfs = dom.templateCells!;
+				const cells = lat!.cell;
+				const c0 = lat!.cellOf[g];
+				// Away from the lattice's faces every offset of the template lands inside it: no bounds checks.
+				const inside = gi >= ex && gi < cx - ex && gj >= ey && gj < cy - ey && gk >= ez && gk < cz - ez;
 				let found = 0;
 				for (let e = 0, ne = tmpl.count; e < ne && found < maxSimulated; e++) {
-					const ii = gi + offs[3 * e];
-					const jj = gj + offs[3 * e + 1];
-					const kk = gk + offs[3 * e + 2];
-					if (ii < 0 || ii >= cx || jj < 0 || jj >= cy || kk < 0 || kk >= cz) continue;
-					const h = lat!.cell[(kk * cy + jj) * cx + ii];
+					let h: number;
+					if (inside) h = cells[c0 + cellOfs[e]];
+					else {
+						const ii = gi + offs[3 * e];
+						const jj = gj + offs[3 * e + 1];
+						const kk = gk + offs[3 * e + 2];
+						if (ii < 0 || ii >= cx || jj < 0 || jj >= cy || kk < 0 || kk >= cz) continue;
+						h = cells[(kk * cy + jj) * cx + ii];
+					}
 					if (h < 0 || state[h] !== 1 || domainOf[h] !== d) continue;
 					px[k] = X[h];
 					py[k] = Y[h];
 					pz[k] = Z[h];
 					pv[k] = y[h];
-					tp[k] = table !== null ? ii * sx + jj * sy + kk : -1;
+					tp[k] = table !== null ? (gi + offs[3 * e]) * sx + (gj + offs[3 * e + 1]) * sy + gk + offs[3 * e + 2] : -1;
 					k++;
 					found++;
 				}
