@@ -93,14 +93,15 @@ describe('roles on the demo project', () => {
 
 describe('the owner', () => {
 	it('creates, renames, invites to and deletes a project', async () => {
-		const created = await owner.json('POST', '/api/v1/projects', { name: 'Quay wall', description: 'Harbour quay', lengthUnit: 'm' });
+		const created = await owner.json('POST', '/api/v1/projects', { name: 'Quay wall', description: 'Harbour quay', lengthUnit: 'ft' });
 		expect(created.status).toBe(201);
 		const { project } = (await created.json()) as { project: ProjectJson };
-		expect(project).toMatchObject({ name: 'Quay wall', role: 'owner', lengthUnit: 'm' });
+		expect(project).toMatchObject({ name: 'Quay wall', role: 'owner', lengthUnit: 'ft' });
 
 		const renamed = await owner.json('PATCH', `/api/v1/projects/${project.id}`, { name: 'Quay wall north' });
 		expect(renamed.status).toBe(200);
-		expect(((await renamed.json()) as { project: ProjectJson }).project.name).toBe('Quay wall north');
+		// A rename leaves the other fields alone.
+		expect(((await renamed.json()) as { project: ProjectJson }).project).toMatchObject({ name: 'Quay wall north', lengthUnit: 'ft' });
 
 		const invite = await owner.json('POST', `/api/v1/projects/${project.id}/members`, { email: 'New.Person@Example.test', role: 'analyst' });
 		expect(invite.status).toBe(201);

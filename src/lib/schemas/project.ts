@@ -6,14 +6,18 @@ export const projectName = z
 	.min(1, { error: 'Enter a project name.' })
 	.max(120, { error: 'Use at most 120 characters.' });
 
+const description = z.string().trim().max(2000, { error: 'Use at most 2000 characters.' });
+const lengthUnit = z.enum(['m', 'ft'], { error: 'Choose metres (m) or feet (ft).' });
+
 export const projectCreateSchema = z.object({
 	name: projectName,
-	description: z.string().trim().max(2000, { error: 'Use at most 2000 characters.' }).default(''),
-	lengthUnit: z.enum(['m', 'ft'], { error: 'Choose metres (m) or feet (ft).' }).default('m')
+	description: description.default(''),
+	lengthUnit: lengthUnit.default('m')
 });
 
-export const projectUpdateSchema = projectCreateSchema
-	.partial()
+/** Only the fields given change; no defaults, so a rename cannot reset the unit. */
+export const projectUpdateSchema = z
+	.object({ name: projectName.optional(), description: description.optional(), lengthUnit: lengthUnit.optional() })
 	.refine((v) => Object.values(v).some((x) => x !== undefined), { error: 'Nothing to update.' });
 
 export type ProjectCreate = z.infer<typeof projectCreateSchema>;

@@ -58,7 +58,7 @@ export async function parseJson<S extends z.ZodType>(
  * Wraps a JSON endpoint so every refusal has the API's error shape: HttpErrors thrown by the
  * authorization helper, ServiceErrors from services, ApiErrors from parsing. Anything else is logged and answers 500.
  */
-export function endpoint<E extends RequestEvent = RequestEvent>(handler: (event: E) => Promise<Response> | Response) {
+export function endpoint<E extends RequestEvent = RequestEvent<Record<string, string>>>(handler: (event: E) => Promise<Response> | Response) {
 	return (async (event: E) => {
 		try {
 			return await handler(event);

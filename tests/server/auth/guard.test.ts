@@ -10,9 +10,9 @@ import { DEMO_ACCOUNTS, seedDemo } from '$lib/server/services/demo';
 type Locals = { locals: App.Locals };
 
 function as(email: string | null): Locals {
-	if (!email) return { locals: { user: null, authVia: null } };
+	if (!email) return { locals: { user: null, authVia: null } as App.Locals };
 	const u = getDb().select().from(users).where(eq(users.email, email)).get()!;
-	return { locals: { user: { id: u.id, email: u.email, name: u.name, siteRole: u.siteRole }, authVia: 'session' } };
+	return { locals: { user: { id: u.id, email: u.email, name: u.name, siteRole: u.siteRole }, authVia: 'session' } as App.Locals };
 }
 
 function statusOf(run: () => unknown): number {
