@@ -5,7 +5,7 @@ import { domainSamples } from '../../../src/lib/server/services/domains';
 import { deriveSoundings } from '../../../src/lib/server/services/derived';
 import { listContacts, listUnits, listZoneBoundaries } from '../../../src/lib/server/services/stratigraphy';
 import { listZonations } from '../../../src/lib/server/services/zonations';
-import { CHANNEL_AXIS, scenarioSoundings } from '../../../src/lib/server/scenario/levee';
+import { CHANNEL_AXIS, scenarioSoundings, unitAt } from '../../../src/lib/server/scenario/levee';
 import { siteTestProject, type SiteTestProject } from './site-db';
 
 let t: SiteTestProject;
@@ -62,5 +62,27 @@ describe('seedDemoStratigraphy(db, projectId)', () => {
 		expect(east.stats.p50).toBeLessThan(150);
 		const grouped = domainSamples(t.projectId, listZonations(t.projectId, t.db)[1].domains[1].id, t.db);
 		expect(grouped.stats.n).toBe(west.stats.n + east.stats.n);
+	});
+});
+
+describe('seedDemoStratigraphy(db, projectId) contacts', () => {
+	it('seedDemoStratigraphy(db, p) places each reading in the unit the scenario synthesised it in', () => {
+		const derived = deriveSoundings(t.projectId, undefined, t.db);
+		const byName = new Map(scenarioSoundings().map((s) => [s.id, s]));
+		const keyOf: Record<string, string> = {
+			'Overbank clay': 'overbank',
+			'Channel plug clay': 'plug',
+			'Point-bar sand': 'pointbar',
+			'Dense sand': 'dense'
+		};
+		let checked = 0;
+		for (const d of derived) {
+			const c = byName.get(d.sounding.name)!.chainage;
+			for (let i = 0; i < d.unit.length; i++) {
+				expect(keyOf[d.units[d.unit[i]].name], `${d.sounding.name} at ${d.derived.elevation[i]}`).toBe(unitAt(c, d.derived.elevation[i]));
+				checked++;
+			}
+		}
+		expect(checked).toBeGreaterThan(10_000);
 	});
 });

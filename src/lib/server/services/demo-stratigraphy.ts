@@ -1,4 +1,5 @@
 import { eq } from 'drizzle-orm';
+import { fromFloat64Blob } from '$lib/server/db/float64';
 import { contacts, soundings } from '$lib/server/db/site-schema';
 import {
 	BOTTOM_ELEVATION,
@@ -63,16 +64,21 @@ export function seedDemoStratigraphy(db: DbOrTx, projectId: string): { units: Re
 	});
 
 	const byName = new Map(scenarioSoundings().map((s) => [s.id, s]));
-	const rows = db.select({ id: soundings.id, name: soundings.name, ground: soundings.groundElevation }).from(soundings).where(eq(soundings.projectId, projectId)).all();
+	const rows = db
+		.select({ id: soundings.id, name: soundings.name, ground: soundings.groundElevation, depth: soundings.depth })
+		.from(soundings)
+		.where(eq(soundings.projectId, projectId))
+		.all();
 	for (const row of rows) {
 		const s = byName.get(row.name);
 		if (!s) continue;
 		const tops = unitTops(s.chainage);
+		const elevations = Array.from(fromFloat64Blob(row.depth), (d) => row.ground - d);
 		for (const key of STACK) {
 			const top = tops[key];
 			if (Number.isNaN(top)) continue;
 			// The overbank clay starts at the ground surface as stored with the sounding.
-			const topElevation = key === 'overbank' ? row.ground : Math.min(round(top, 2), row.ground);
+			const topElevation = key === 'overbank' ? row.ground : Math.min(snapBetweenReadings(top, elevations), row.ground);
 			db.insert(contacts).values({ soundingId: row.id, unitId: ids[key], topElevation }).run();
 		}
 	}
@@ -105,6 +111,23 @@ export function seedDemoStratigraphy(db: DbOrTx, projectId: string): { units: Re
 		db
 	);
 	return { units: ids, zonations: [split.id, grouped.id] };
+}
+
+/**
+ * A contact elevation a person would type (a few decimals) that puts every reading in the same unit as the
+ * exact scenario contact does: the midpoint between the two readings on either side of it. Rounding the
+ * exact value instead could move a reading on the contact into the wrong unit and leave a sand value in a
+ * clay domain.
+ */
+function snapBetweenReadings(top: number, elevations: number[]): number {
+	let above = Infinity;
+	let below = -Infinity;
+	for (const z of elevations) {
+		if (z > top) above = Math.min(above, z);
+		else below = Math.max(below, z);
+	}
+	if (!Number.isFinite(above) || !Number.isFinite(below)) return round(top, 2);
+	return round((above + below) / 2, 3);
 }
 
 function round(v: number, digits: number): number {
