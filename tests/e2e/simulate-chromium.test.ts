@@ -70,15 +70,12 @@ function scattered(): TargetPoints {
 
 let browser: Browser;
 let bundle: string;
+let poolBundle: string;
+let workerBundle: string;
 
-beforeAll(async () => {
+async function iife(contents: string): Promise<string> {
 	const out = await build({
-		stdin: {
-			contents: `import { simulate, sha256, targetsFromDefinition, recipeInput, recipeHash } from './src/lib/geostat/index';
-globalThis.conefieldEngine = { simulate, sha256, targetsFromDefinition, recipeInput, recipeHash };`,
-			resolveDir: root,
-			loader: 'ts'
-		},
+		stdin: { contents, resolveDir: root, loader: 'ts' },
 		bundle: true,
 		format: 'iife',
 		platform: 'browser',
@@ -86,7 +83,28 @@ globalThis.conefieldEngine = { simulate, sha256, targetsFromDefinition, recipeIn
 		write: false,
 		logLevel: 'silent'
 	});
-	bundle = out.outputFiles[0].text;
+	return out.outputFiles[0].text;
+}
+
+beforeAll(async () => {
+	bundle = await iife(`import { simulate, sha256, targetsFromDefinition, recipeInput, recipeHash } from './src/lib/geostat/index';
+globalThis.conefieldEngine = { simulate, sha256, targetsFromDefinition, recipeInput, recipeHash };`);
+	// The browser pool's worker module, bundled whole, and a page script driving RealizationPool over comlink.
+	workerBundle = await iife(`import './workers/simulation.worker';`);
+	poolBundle = await iife(`import * as Comlink from 'comlink';
+import { RealizationPool } from './workers/realization-pool';
+import { sha256, targetsFromDefinition, recipeInput } from './src/lib/geostat/index';
+globalThis.runBrowserPool = async (workerCode, recipe, realizations) => {
+	const url = URL.createObjectURL(new Blob([workerCode], { type: 'text/javascript' }));
+	const pool = new RealizationPool(() => {
+		const w = new Worker(url);
+		return { remote: Comlink.wrap(w), terminate: () => w.terminate() };
+	}, 2);
+	const progress = [];
+	const res = await pool.run(recipeInput(recipe), targetsFromDefinition(recipe.targets), realizations, { onProgress: (d, t) => progress.push([d, t]) });
+	await pool.close();
+	return { hashes: realizations.map((r) => sha256(new Uint8Array(res.get(r).buffer))), last: progress[progress.length - 1], calls: progress.length };
+};`);
 	browser = await chromium.launch(LAUNCH);
 }, 120_000);
 
@@ -132,5 +150,26 @@ describe('simulate in Chromium and in Node.js', () => {
 		expect(inPage.recipeHash).toBe(recipeHash(recipe));
 		// Different realizations really differ (the comparison is not between constant outputs).
 		expect(nodeGrid[0]).not.toBe(nodeGrid[1]);
+	}, 120_000);
+
+	it('RealizationPool over comlink module-worker code in Chromium returns the same bits as Node, with progress to (total, total)', async () => {
+		const page = await browser.newPage();
+		// A routed http origin (no network): blob workers need a real origin, which about:blank lacks.
+		await page.route('http://engine.test/**', (route) => route.fulfill({ contentType: 'text/html', body: '<!doctype html><title>pool</title>' }));
+		await page.goto('http://engine.test/');
+		await page.addScriptTag({ content: poolBundle });
+		const recipe = createRecipe(input, grid);
+		const realizations = [2, 9, 4];
+		const res = await page.evaluate(
+			// eslint-disable-next-line @typescript-eslint/no-explicit-any
+			({ code, recipe, realizations }) => (globalThis as any).runBrowserPool(code, recipe, realizations),
+			{ code: workerBundle, recipe, realizations }
+		);
+		await page.close();
+		const targets = targetsFromDefinition(grid);
+		expect(res.hashes).toEqual(realizations.map((r) => bytesHash(simulate(input, targets, r))));
+		const active = Array.from(targets.domain).filter((d) => d >= 0).length;
+		expect(res.last).toEqual([3 * active, 3 * active]);
+		expect(res.calls).toBeGreaterThan(3);
 	}, 120_000);
 });
