@@ -1,8 +1,8 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { build } from 'esbuild';
-import { chromium } from 'playwright-core';
 import type { Browser } from 'playwright-core';
 import { fileURLToPath } from 'node:url';
+import { launchChromium } from '../setup/chromium';
 import { simulate, sha256, createRecipe, recipeHash, targetsFromDefinition } from '../../src/lib/geostat/index';
 import type { SimulationInput, TargetDefinition, TargetPoints } from '../../src/lib/geostat/index';
 
@@ -11,10 +11,6 @@ import type { SimulationInput, TargetDefinition, TargetPoints } from '../../src/
 // output's Float64 bytes compared with Node's.
 
 const root = fileURLToPath(new URL('../..', import.meta.url));
-const LAUNCH = {
-	executablePath: '/usr/bin/chromium',
-	args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync']
-};
 
 const input: SimulationInput = {
 	seed: 'chromium-vs-node',
@@ -105,7 +101,7 @@ globalThis.runBrowserPool = async (workerCode, recipe, realizations) => {
 	await pool.close();
 	return { hashes: realizations.map((r) => sha256(new Uint8Array(res.get(r).buffer))), last: progress[progress.length - 1], calls: progress.length };
 };`);
-	browser = await chromium.launch(LAUNCH);
+	browser = await launchChromium();
 }, 120_000);
 
 afterAll(async () => {
