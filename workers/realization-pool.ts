@@ -8,7 +8,7 @@
 import * as Comlink from 'comlink';
 import type { Remote } from 'comlink';
 import type { SimulationApi } from './simulation-api';
-import type { SimulationInput, TargetPoints } from '../src/lib/geostat/index';
+import type { Recipe, SimulationInput, TargetPoints } from '../src/lib/geostat/index';
 
 /** A started worker: its comlink proxy and how to stop it. */
 export interface PoolWorker {
@@ -56,7 +56,23 @@ export class RealizationPool {
 	 * @throws {CancelledError} (rejects) when cancelled or aborted
 	 * @throws {Error} (rejects) if a run is already in progress, or with a worker's error
 	 */
-	async run(input: SimulationInput, targets: TargetPoints, realizations: number[], opts: RunOptions = {}): Promise<Map<number, Float64Array>> {
+	run(input: SimulationInput, targets: TargetPoints, realizations: number[], opts: RunOptions = {}): Promise<Map<number, Float64Array>> {
+		return this.execute((w) => w.remote.prepare(input, targets), realizations, opts);
+	}
+
+	/**
+	 * Runs realizations of a recipe, as regenerate() would one by one (same bits); only the recipe is sent
+	 * to the workers. Rejects like run(), and with the worker's error for an invalid or outdated recipe.
+	 */
+	runRecipe(recipe: Recipe, realizations: number[], opts: RunOptions = {}): Promise<Map<number, Float64Array>> {
+		return this.execute((w) => w.remote.prepareRecipe(recipe), realizations, opts);
+	}
+
+	private async execute(
+		prepare: (w: PoolWorker) => Promise<number>,
+		realizations: number[],
+		opts: RunOptions
+	): Promise<Map<number, Float64Array>> {
 		if (this.cancelRun) throw new Error('a run is already in progress');
 		for (const r of realizations) if (!Number.isSafeInteger(r) || r < 0) throw new RangeError('realizations must be integers >= 0');
 		const results = new Map<number, Float64Array>();
@@ -87,7 +103,7 @@ export class RealizationPool {
 		signal?.addEventListener('abort', onAbort);
 
 		const work = async (w: PoolWorker) => {
-			perRealization = await w.remote.prepare(input, targets);
+			perRealization = await prepare(w);
 			for (let r = queue.shift(); r !== undefined && !cancelled; r = queue.shift()) {
 				const rr = r;
 				const progress = onProgress

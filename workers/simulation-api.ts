@@ -7,8 +7,15 @@
  * thread boundary once per run, each realization comes back as a transferred Float64Array.
  */
 import * as Comlink from 'comlink';
-import { prepareSimulation, simulatePrepared } from '../src/lib/geostat/index';
-import type { PreparedSimulation, SimulationInput, TargetPoints } from '../src/lib/geostat/index';
+import {
+	isCurrentEngine,
+	prepareSimulation,
+	recipeInput,
+	recipeSchema,
+	simulatePrepared,
+	targetsFromDefinition
+} from '../src/lib/geostat/index';
+import type { PreparedSimulation, Recipe, SimulationInput, TargetPoints } from '../src/lib/geostat/index';
 
 export function createSimulationApi() {
 	let prepared: PreparedSimulation | null = null;
@@ -16,6 +23,17 @@ export function createSimulationApi() {
 		/** Prepares the simulation; returns the number of simulated targets per realization. */
 		prepare(input: SimulationInput, targets: TargetPoints): number {
 			prepared = prepareSimulation(input, targets);
+			return prepared.active;
+		},
+		/**
+		 * Prepares a recipe's simulation: only the recipe crosses the thread boundary (a grid definition is a
+		 * few numbers where its expanded targets would be megabytes), and the worker expands the targets.
+		 * @throws {RangeError} on an invalid recipe; {Error} for a recipe of another engine version
+		 */
+		prepareRecipe(recipe: Recipe): number {
+			const parsed = recipeSchema.parse(recipe);
+			if (!isCurrentEngine(parsed)) throw new Error(`recipe is from engine version ${parsed.engineVersion}`);
+			prepared = prepareSimulation(recipeInput(parsed), targetsFromDefinition(parsed.targets));
 			return prepared.active;
 		},
 		/** Realization r of the prepared simulation, in original units (see simulate). */

@@ -1,7 +1,7 @@
 import { describe, it, expect, afterAll } from 'vitest';
 import { createNodePool } from '../../workers/node-pool';
 import { CancelledError } from '../../workers/realization-pool';
-import { simulate } from '../../src/lib/geostat/index';
+import { simulate, createRecipe, regenerate, ENGINE_VERSION } from '../../src/lib/geostat/index';
 import type { SimulationInput, TargetPoints } from '../../src/lib/geostat/index';
 import { expectSameBits } from '../asserts';
 
@@ -69,5 +69,13 @@ describe('createNodePool (worker_threads + comlink node adapter)', () => {
 		await expect(run).rejects.toThrow('cancelled');
 		await expect(pool.run(input, section(4, 1), [-1])).rejects.toThrow(RangeError);
 		expect((await pool.run(input, section(4, 1), [])).size).toBe(0);
+	}, 60_000);
+
+	it('pool.runRecipe gives the bits of regenerate(recipe, r) and rejects a recipe of another engine version', async () => {
+		const recipe = createRecipe(input, { kind: 'grid', origin: { x: 0, y: 0, z: -3 }, spacing: { x: 1, y: 1, z: 0.25 }, counts: { x: 30, y: 1, z: 12 }, domainRuns: [[0, 360]] });
+		const res = await pool.runRecipe(recipe, [0, 6]);
+		for (const r of [0, 6]) expectSameBits(res.get(r)!, regenerate(recipe, r), `realization ${r}`);
+		expect(ENGINE_VERSION).not.toBe('conefield-sgs/0');
+		await expect(pool.runRecipe({ ...recipe, engineVersion: 'conefield-sgs/0' }, [0])).rejects.toThrow('recipe is from engine version conefield-sgs/0');
 	}, 60_000);
 });
