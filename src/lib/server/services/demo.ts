@@ -3,6 +3,7 @@ import type { Db } from '$lib/server/db';
 import { memberships, projects, users, type ProjectRole, type SiteRole } from '$lib/server/db/schema';
 import { hashPassword } from '$lib/server/auth/password';
 import { seedDemoSoundings } from './demo-soundings';
+import { seedDemoStratigraphy } from './demo-stratigraphy';
 
 /** The demo accounts. Their passwords are printed in the README: for a local demo only. */
 export const DEMO_ACCOUNTS: ReadonlyArray<{
@@ -48,6 +49,7 @@ export async function seedDemo(db: Db): Promise<string | null> {
 			if (a.projectRole) tx.insert(memberships).values({ projectId: project.id, userId: created[i].id, role: a.projectRole }).run();
 		});
 		seedDemoSoundings(tx, project.id, owner.id);
+		seedDemoStratigraphy(tx, project.id);
 		return project.id;
 	});
 }
