@@ -12,7 +12,7 @@ export interface Lattice {
 }
 
 // Relative tolerance of "on the lattice": coordinates generated as origin + i·spacing round to well within it.
-const ON_LATTICE = 1e-7;
+const ON_LATTICE = 1e-9;
 
 /**
  * Recognises targets (those with domain ≥ 0) that sit on a regular lattice, each in its own cell and filling
