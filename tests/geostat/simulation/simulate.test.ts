@@ -235,6 +235,23 @@ describe('simulate — independence, determinism, domains', () => {
 	});
 });
 
+describe('realizationStream(seed, r, d)', () => {
+	it('realizationStream depends only on (seed, r, d): it repeats, differs between r and d, and stays in [0, 1)', () => {
+		const take = (seed: string, r: number, d: number) => {
+			const f = realizationStream(seed, r, d);
+			return Array.from({ length: 1000 }, () => f());
+		};
+		const a = take('s', 17, 0);
+		expect(take('s', 17, 0)).toEqual(a);
+		expect(take('s', 16, 0)).not.toEqual(a);
+		expect(take('s', 17, 1)).not.toEqual(a);
+		expect(take('t', 17, 0)).not.toEqual(a);
+		expect(a.every((u) => u >= 0 && u < 1)).toBe(true);
+		// Mean of 1,000 uniforms: 0.5 ± 4·√(1/12/1000) ≈ ±0.037.
+		expectAbsClose(a.reduce((x, u) => x + u, 0) / a.length, 0.5, 0.037);
+	});
+});
+
 describe('simulate — edge cases', () => {
 	it('simulate with no targets, or all at domain −1, returns an empty / all-NaN array', () => {
 		const input: SimulationInput = { seed: 'e', domains: [gaussianDomain()] };
