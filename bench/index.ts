@@ -1,17 +1,22 @@
-// Benchmark runner (`npm run bench`): runs every case of every module listed below and prints one JSON line
-// per case. Adding a module is one line in MODULES. Kept apart from the tests: figures, not assertions.
+// Benchmark runner (`npm run bench`): runs every case of every module listed below, one after another, and
+// prints one JSON line per case. Adding a module is one line in MODULES. Kept apart from the tests: figures,
+// not assertions. Modules load lazily and in order, so no case competes with another for the cores.
 
 /** One benchmark case: run() does the work and returns the figures to print (ms included). */
 export interface BenchCase {
 	name: string;
-	run(): Record<string, number>;
+	run(): Record<string, number> | Promise<Record<string, number>>;
 }
 
-const MODULES: Promise<{ default: BenchCase[] }>[] = [
-	import('./simulation'),
-	import('./variogram'),
+const MODULES: (() => Promise<{ default: BenchCase[] }>)[] = [
+	() => import('./variogram'),
+	() => import('./simulation')
 ];
 
-for (const mod of await Promise.all(MODULES)) {
-	for (const c of mod.default) console.log(JSON.stringify({ case: c.name, ...c.run() }));
+const only = process.argv[2];
+for (const load of MODULES) {
+	for (const c of (await load()).default) {
+		if (only && c.name !== only) continue;
+		console.log(JSON.stringify({ case: c.name, ...(await c.run()) }));
+	}
 }
