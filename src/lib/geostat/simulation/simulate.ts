@@ -65,10 +65,13 @@ export function simulatePrepared(
 	const y = new Float64Array(n);
 	// 0: not yet simulated, 1: simulated, 2: at a datum (its datum conditions instead, never counted twice).
 	const state = new Uint8Array(n);
+	// Lattice mode: per cell, 1 + the domain of a simulated node there (0: none yet). One compact array,
+	// read in the template walk instead of three scattered ones.
+	const ready = prep.lattice ? new Uint16Array(prep.lattice.cell.length) : null;
 	const progress = { done: 0, total: prep.active, step: Math.max(1, Math.floor(prep.active / 100)), next: 0, cb: onProgress };
 	progress.next = progress.step;
 	const counters = stats ?? { systems: 0, neighbours: 0 };
-	for (const dom of prep.domains) simulateDomain(prep, dom, realization, out, y, state, progress, counters);
+	for (const dom of prep.domains) simulateDomain(prep, dom, realization, out, y, state, ready, progress, counters);
 	if (onProgress) onProgress(prep.active, prep.active);
 	return out;
 }
@@ -88,6 +91,7 @@ function simulateDomain(
 	out: Float64Array,
 	y: Float64Array,
 	state: Uint8Array,
+	ready: Uint16Array | null,
 	progress: Progress,
 	stats: SimulationStats
 ): void {
@@ -95,7 +99,6 @@ function simulateDomain(
 	const X = t.x;
 	const Y = t.y;
 	const Z = t.z;
-	const domainOf = t.domain;
 	const datumAt = prep.datumAt;
 	const lat = prep.lattice;
 	const d = dom.index;
@@ -212,25 +215,32 @@ function simulateDomain(
 				const cellOfs = dom.templateCells!;
 				const cells = lat!.cell;
 				const c0 = lat!.cellOf[g];
+				const mark = d + 1;
+				const [ox, oy, oz] = lat!.origin;
+				const [dxs, dys, dzs] = lat!.spacing;
 				// Away from the lattice's faces every offset of the template lands inside it: no bounds checks.
 				const inside = gi >= ex && gi < cx - ex && gj >= ey && gj < cy - ey && gk >= ez && gk < cz - ez;
 				let found = 0;
 				for (let e = 0, ne = tmpl.count; e < ne && found < maxSimulated; e++) {
-					let h: number;
-					if (inside) h = cells[c0 + cellOfs[e]];
+					let c: number;
+					if (inside) c = c0 + cellOfs[e];
 					else {
 						const ii = gi + offs[3 * e];
 						const jj = gj + offs[3 * e + 1];
 						const kk = gk + offs[3 * e + 2];
 						if (ii < 0 || ii >= cx || jj < 0 || jj >= cy || kk < 0 || kk >= cz) continue;
-						h = cells[(kk * cy + jj) * cx + ii];
+						c = (kk * cy + jj) * cx + ii;
 					}
-					if (h < 0 || state[h] !== 1 || domainOf[h] !== d) continue;
-					px[k] = X[h];
-					py[k] = Y[h];
-					pz[k] = Z[h];
-					pv[k] = y[h];
-					tp[k] = table !== null ? (gi + offs[3 * e]) * sx + (gj + offs[3 * e + 1]) * sy + gk + offs[3 * e + 2] : -1;
+					if (ready![c] !== mark) continue;
+					const ii = gi + offs[3 * e];
+					const jj = gj + offs[3 * e + 1];
+					const kk = gk + offs[3 * e + 2];
+					// Lattice coordinates, not the target columns: arithmetic instead of scattered reads.
+					px[k] = ox + ii * dxs;
+					py[k] = oy + jj * dys;
+					pz[k] = oz + kk * dzs;
+					pv[k] = y[cells[c]];
+					tp[k] = table !== null ? ii * sx + jj * sy + kk : -1;
 					k++;
 					found++;
 				}
@@ -298,6 +308,7 @@ function simulateDomain(
 		}
 		y[g] = est + Math.sqrt(variance) * zdev;
 		state[g] = 1;
+		if (ready) ready[lat!.cellOf[g]] = d + 1;
 		if (++progress.done >= progress.next) {
 			progress.next += progress.step;
 			if (progress.cb) progress.cb(progress.done, progress.total);
