@@ -68,10 +68,12 @@ export function simulatePrepared(
 	// Lattice mode: per cell, 1 + the domain of a simulated node there (0: none yet). One compact array,
 	// read in the template walk instead of three scattered ones.
 	const ready = prep.lattice ? new Uint16Array(prep.lattice.cell.length) : null;
+	// ...and the simulated value by cell, so a neighbour's value is one read near the others, not two.
+	const yCell = prep.lattice ? new Float64Array(prep.lattice.cell.length) : null;
 	const progress = { done: 0, total: prep.active, step: Math.max(1, Math.floor(prep.active / 100)), next: 0, cb: onProgress };
 	progress.next = progress.step;
 	const counters = stats ?? { systems: 0, neighbours: 0 };
-	for (const dom of prep.domains) simulateDomain(prep, dom, realization, out, y, state, ready, progress, counters);
+	for (const dom of prep.domains) simulateDomain(prep, dom, realization, out, y, state, ready, yCell, progress, counters);
 	if (onProgress) onProgress(prep.active, prep.active);
 	return out;
 }
@@ -92,6 +94,7 @@ function simulateDomain(
 	y: Float64Array,
 	state: Uint8Array,
 	ready: Uint16Array | null,
+	yCell: Float64Array | null,
 	progress: Progress,
 	stats: SimulationStats
 ): void {
@@ -150,6 +153,8 @@ function simulateDomain(
 	const cy = lat ? lat.counts[1] : 0;
 	const cz = lat ? lat.counts[2] : 0;
 	const [ex, ey, ez] = tmpl ? tmpl.extent : [0, 0, 0];
+	const [lox, loy, loz] = lat ? lat.origin : [0, 0, 0];
+	const [ldx, ldy, ldz] = lat ? lat.spacing : [1, 1, 1];
 	const useData = dom.nd > 0 && maxData > 0 && !dom.ellipsoid.empty;
 	const useNodes = maxSimulated > 0 && !dom.ellipsoid.empty;
 
@@ -182,17 +187,26 @@ function simulateDomain(
 		// Φ⁻¹(0) is −∞; a zero from a 53-bit uniform (chance 2⁻⁵³) is nudged to the smallest step.
 		if (uu === 0) uu = 1.1102230246251565e-16;
 		const zdev = inverseNormalCdf(uu);
-		const x0 = X[g];
-		const y0 = Y[g];
-		const z0 = Z[g];
+		let x0: number;
+		let y0: number;
+		let z0: number;
 		let gi = 0;
 		let gj = 0;
 		let gk = 0;
+		let gc = -1;
 		if (lat) {
-			const c = lat.cellOf[g];
-			gi = c % cx;
-			gj = Math.floor(c / cx) % cy;
-			gk = Math.floor(c / (cx * cy));
+			gc = lat.cellOf[g];
+			gi = gc % cx;
+			gj = Math.floor(gc / cx) % cy;
+			gk = Math.floor(gc / (cx * cy));
+			// Lattice coordinates, as for the neighbours: arithmetic instead of three scattered reads.
+			x0 = lox + gi * ldx;
+			y0 = loy + gj * ldy;
+			z0 = loz + gk * ldz;
+		} else {
+			x0 = X[g];
+			y0 = Y[g];
+			z0 = Z[g];
 		}
 		normalisedCoordinates(dom.ellipsoid, x0, y0, z0, q);
 		let k = 0;
@@ -213,11 +227,8 @@ function simulateDomain(
 			if (tmpl !== null) {
 				const offs = tmpl.offsets;
 				const cellOfs = dom.templateCells!;
-				const cells = lat!.cell;
 				const c0 = lat!.cellOf[g];
 				const mark = d + 1;
-				const [ox, oy, oz] = lat!.origin;
-				const [dxs, dys, dzs] = lat!.spacing;
 				// Away from the lattice's faces every offset of the template lands inside it: no bounds checks.
 				const inside = gi >= ex && gi < cx - ex && gj >= ey && gj < cy - ey && gk >= ez && gk < cz - ez;
 				let found = 0;
@@ -236,10 +247,10 @@ function simulateDomain(
 					const jj = gj + offs[3 * e + 1];
 					const kk = gk + offs[3 * e + 2];
 					// Lattice coordinates, not the target columns: arithmetic instead of scattered reads.
-					px[k] = ox + ii * dxs;
-					py[k] = oy + jj * dys;
-					pz[k] = oz + kk * dzs;
-					pv[k] = y[cells[c]];
+					px[k] = lox + ii * ldx;
+					py[k] = loy + jj * ldy;
+					pz[k] = loz + kk * ldz;
+					pv[k] = yCell![c];
 					tp[k] = table !== null ? ii * sx + jj * sy + kk : -1;
 					k++;
 					found++;
@@ -308,7 +319,10 @@ function simulateDomain(
 		}
 		y[g] = est + Math.sqrt(variance) * zdev;
 		state[g] = 1;
-		if (ready) ready[lat!.cellOf[g]] = d + 1;
+		if (ready) {
+			ready[gc] = d + 1;
+			yCell![gc] = y[g];
+		}
 		if (++progress.done >= progress.next) {
 			progress.next += progress.step;
 			if (progress.cb) progress.cb(progress.done, progress.total);
