@@ -3,7 +3,7 @@
  * Roles and the 401/403/404 rule are those of src/lib/server/auth/roles.ts.
  */
 import { beforeAll, describe, expect, inject, it } from 'vitest';
-import { DEMO, DEMO_PROJECT_NAME, HttpSession, signedInSession } from '../setup';
+import { DEMO, DEMO_PROJECT_NAME, HttpSession, inviteNewAccount, signedInSession } from '../setup';
 
 const baseUrl = inject('baseUrl');
 
@@ -22,6 +22,8 @@ async function errorOf(res: Response) {
 let owner: HttpSession;
 let viewer: HttpSession;
 let demoId: string;
+/** A project of the owner's for the accounts these tests create, so the demo project stays as seeded. */
+let scratchId: string;
 
 beforeAll(async () => {
 	owner = await signedInSession(baseUrl, DEMO.owner.email, DEMO.owner.password);
@@ -29,6 +31,8 @@ beforeAll(async () => {
 	const res = await owner.json('GET', '/api/v1/projects');
 	const { projects } = (await res.json()) as { projects: ProjectJson[] };
 	demoId = projects.find((p) => p.name === DEMO_PROJECT_NAME)!.id;
+	const scratch = await owner.json('POST', '/api/v1/projects', { name: 'Account tests' });
+	scratchId = ((await scratch.json()) as { project: ProjectJson }).project.id;
 });
 
 describe('anonymous and bad credentials', () => {
@@ -183,18 +187,22 @@ describe('sign-in', () => {
 	});
 
 	it('after 5 failures for an account, even the right password is refused with a clear message (429)', async () => {
+		const admin = await signedInSession(baseUrl, DEMO.admin.email, DEMO.admin.password);
+		const email = 'throttled@example.test';
+		const password = 'throttled-password';
+		await inviteNewAccount(baseUrl, owner, admin, { projectId: scratchId, email, role: 'viewer', password });
 		const s = new HttpSession(baseUrl);
 		for (let i = 0; i < 5; i++) {
-			const res = await s.signIn(DEMO.reviewer.email, `wrong-${i}`);
+			const res = await s.signIn(email, `wrong-${i}`);
 			expect(await res.text()).toContain('E-mail or password is not right.');
 		}
-		const blocked = await s.signIn(DEMO.reviewer.email, DEMO.reviewer.password);
+		const blocked = await s.signIn(email, password);
 		expect(s.signedIn).toBe(false);
 		const text = await blocked.text();
 		expect(text).toContain('Too many failed sign-in attempts for this account');
 		expect(text).toMatch(/Wait 1[45] minutes/);
 		// The page without JavaScript shows the same message, with the status of the refusal.
-		const html = await s.form('/signin?/password', { email: DEMO.reviewer.email, password: DEMO.reviewer.password }, 'text/html');
+		const html = await s.form('/signin?/password', { email, password }, 'text/html');
 		expect(html.status).toBe(429);
 		expect(await html.text()).toContain('Too many failed sign-in attempts');
 		// Other accounts from the same address are unaffected.
@@ -203,26 +211,64 @@ describe('sign-in', () => {
 
 	it('a disabled user loses access at the next request', async () => {
 		const admin = await signedInSession(baseUrl, DEMO.admin.email, DEMO.admin.password);
-		const analyst = await signedInSession(baseUrl, DEMO.analyst.email, DEMO.analyst.password);
-		const members = (await (await owner.json('GET', `/api/v1/projects/${demoId}/members`)).json()) as {
+		const email = 'to-disable@example.test';
+		const password = 'to-disable-password';
+		const member = await inviteNewAccount(baseUrl, owner, admin, { projectId: scratchId, email, role: 'analyst', password });
+		const members = (await (await owner.json('GET', `/api/v1/projects/${scratchId}/members`)).json()) as {
 			members: { userId: string; email: string }[];
 		};
-		const analystId = members.members.find((m) => m.email === DEMO.analyst.email)!.userId;
-		expect((await analyst.json('GET', '/api/v1/projects')).status).toBe(200);
+		const userId = members.members.find((m) => m.email === email)!.userId;
+		expect((await member.json('GET', '/api/v1/projects')).status).toBe(200);
 
-		await admin.form('/admin/users?/disable', { userId: analystId, disabled: 'true' });
-		expect((await analyst.json('GET', '/api/v1/projects')).status).toBe(401);
+		await admin.form('/admin/users?/disable', { userId, disabled: 'true' });
+		expect((await member.json('GET', '/api/v1/projects')).status).toBe(401);
 		const again = new HttpSession(baseUrl);
-		expect(await (await again.signIn(DEMO.analyst.email, DEMO.analyst.password)).text()).toContain('disabled');
+		expect(await (await again.signIn(email, password)).text()).toContain('disabled');
 		expect(again.signedIn).toBe(false);
 
-		await admin.form('/admin/users?/disable', { userId: analystId, disabled: 'false' });
-		expect((await analyst.json('GET', '/api/v1/projects')).status).toBe(200);
+		await admin.form('/admin/users?/disable', { userId, disabled: 'false' });
+		expect((await member.json('GET', '/api/v1/projects')).status).toBe(200);
 	});
 
 	it('only site admins reach the admin pages (403 for a member)', async () => {
 		expect((await owner.fetch('/admin/outbox', { headers: { accept: 'text/html' } })).status).toBe(403);
 		const admin = await signedInSession(baseUrl, DEMO.admin.email, DEMO.admin.password);
 		expect((await admin.fetch('/admin/outbox', { headers: { accept: 'text/html' } })).status).toBe(200);
+	});
+});
+
+describe('password reset by an administrator', () => {
+	it('the reset link arrives in the outbox, sets a new password once, and the old one stops working', async () => {
+		const admin = await signedInSession(baseUrl, DEMO.admin.email, DEMO.admin.password);
+		const email = 'forgetful@example.test';
+		const password = 'forgetful-password';
+		await inviteNewAccount(baseUrl, owner, admin, { projectId: scratchId, email, role: 'viewer', password });
+		const members = (await (await owner.json('GET', `/api/v1/projects/${scratchId}/members`)).json()) as {
+			members: { userId: string; email: string }[];
+		};
+		const userId = members.members.find((m) => m.email === email)!.userId;
+
+		const sent = await admin.form('/admin/users?/reset', { userId }, 'text/html');
+		expect(await sent.text()).toContain(`A password-reset link was sent to ${email}`);
+
+		const outbox = await (await admin.fetch('/admin/outbox', { headers: { accept: 'text/html' } })).text();
+		expect(outbox).toContain('Reset your Conefield password');
+		const link = new URL(/href="([^"]*\/reset-password\/[^"]+)"/.exec(outbox)![1]);
+		expect(link.origin).toBe(baseUrl);
+
+		const anon = new HttpSession(baseUrl);
+		const short = await anon.form(link.pathname, { password: 'short', confirm: 'short' }, 'text/html');
+		expect(short.status).toBe(400);
+		expect(await short.text()).toContain('Use at least 10 characters.');
+
+		const done = await anon.form(link.pathname, { password: 'viewer-new-password', confirm: 'viewer-new-password' });
+		expect(await done.text()).toContain('/signin?reset=1');
+		expect((await signedInSession(baseUrl, email, 'viewer-new-password')).signedIn).toBe(true);
+		const old = new HttpSession(baseUrl);
+		await old.signIn(email, password);
+		expect(old.signedIn).toBe(false);
+
+		const reused = await anon.form(link.pathname, { password: 'another-password-1', confirm: 'another-password-1' }, 'text/html');
+		expect(reused.status).toBe(404);
 	});
 });

@@ -68,3 +68,26 @@ export async function signedInSession(baseUrl: string, email: string, password: 
 	if (!session.signedIn) throw new Error(`sign-in as ${email} failed: ${res.status} ${await res.text()}`);
 	return session;
 }
+
+/**
+ * A brand-new account, made the way a colleague joins: `inviter` (an owner session) invites `email` to
+ * `projectId` with `role`, the site admin reads the invitation in the outbox, and the newcomer registers
+ * through the accept page. Returns the newcomer's signed-in session. Use it for tests that change an
+ * account (password, throttling, disabling) so the shared demo accounts stay usable.
+ */
+export async function inviteNewAccount(
+	baseUrl: string,
+	inviter: HttpSession,
+	admin: HttpSession,
+	{ projectId, email, role, password }: { projectId: string; email: string; role: string; password: string }
+): Promise<HttpSession> {
+	const invited = await inviter.json('POST', `/api/v1/projects/${projectId}/members`, { email, role });
+	if (invited.status !== 201) throw new Error(`invite failed: ${invited.status} ${await invited.text()}`);
+	const outbox = await (await admin.fetch('/admin/outbox', { headers: { accept: 'text/html' } })).text();
+	const match = /href="[^"]*(\/invitations\/[^"]+)"/.exec(outbox);
+	if (!match) throw new Error('no invitation link in the outbox');
+	const newcomer = new HttpSession(baseUrl);
+	await newcomer.form(`${match[1]}?/register`, { name: email.split('@')[0], password, confirm: password });
+	if (!newcomer.signedIn) throw new Error(`registering ${email} did not sign in`);
+	return newcomer;
+}

@@ -1,3 +1,3 @@
-export { HttpSession, signedInSession } from './http';
+export { HttpSession, inviteNewAccount, signedInSession } from './http';
 export { CHROMIUM_ARGS, CHROMIUM_PATH, launchChromium } from './chromium';
 export { DEMO, DEMO_PROJECT_NAME } from './demo';
