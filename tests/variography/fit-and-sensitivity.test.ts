@@ -169,7 +169,17 @@ describe('lagTableCsv(bins, options) and defaultSettings(data)', () => {
 		expect(s.horizontal.lagTolerance).toBe(5);
 		// Largest separation 105 m → lags to 52.5 m: 6 lags of 10 m.
 		expect(s.horizontal.nLags).toBe(6);
-		expect(s.horizontal.verticalBand).toBe(0.1);
+		// Band: the larger of half the vertical lag (0.05) and the reading spacing (0.05).
+		expect(s.horizontal.verticalBand).toBe(0.05);
 		expect(s.horizontal.azimuth).toBeNull();
+	});
+
+	it('defaultSettings takes a 0.2 m averaging cell as the vertical lag (0.2 / 0.1 rounds below 2 in binary)', () => {
+		const d = handDomain({ soundings: 3, readings: 40 });
+		d.samples.z = d.samples.z.map((_, i) => 1 - 0.2 * (i % 40));
+		const s = defaultSettings(d);
+		expect(s.vertical.lag).toBe(0.2);
+		expect(s.vertical.nLags).toBe(15);
+		expect(s.horizontal.verticalBand).toBe(0.2);
 	});
 });

@@ -7,7 +7,7 @@ import type { DomainSamplesData, VariogramSettings } from './types';
  *   tenths of a metre to about 2 m (Phoon & Kulhawy 1999, from memory);
  * - horizontal lag: the median distance from each sounding to its nearest neighbour, rounded likewise;
  *   lags to half the largest sounding separation, at most 30; a vertical band of half the vertical lag
- *   (at least two reading spacings);
+ *   or one reading spacing, whichever is larger (wider bands mix vertical separation into horizontal pairs);
  * - lag tolerance half the lag; bins with fewer than 30 pairs left out of fits (common practice).
  */
 export function defaultSettings(data: Pick<DomainSamplesData, 'samples' | 'lengthUnit'>): VariogramSettings {
@@ -52,7 +52,7 @@ export function defaultSettings(data: Pick<DomainSamplesData, 'samples' | 'lengt
 			lag: hLag,
 			nLags: Math.min(30, Math.max(5, Math.ceil(maxSep / 2 / hLag))),
 			lagTolerance: hLag / 2,
-			verticalBand: round(Math.max(vLag / 2, 2 * dz)),
+			verticalBand: round(Math.max(vLag / 2, dz)),
 			azimuth: null,
 			angleTolerance: 22.5
 		},
@@ -71,7 +71,8 @@ function median(a: number[]): number | undefined {
 function nice(v: number): number {
 	const k = Math.floor(Math.log10(v));
 	const base = 10 ** k;
-	const m = v / base;
+	// A hair below each step so 0.2 / 0.1 = 1.9999999999999998 still counts as 2.
+	const m = (v / base) * (1 + 1e-9);
 	const step = m >= 5 ? 5 : m >= 2.5 ? 2.5 : m >= 2 ? 2 : 1;
 	return round(step * base);
 }
