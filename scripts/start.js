@@ -33,7 +33,13 @@ if (!existsSync(built) || statSync(built).mtimeMs < sourcesTime) {
 }
 
 const port = process.env.PORT ?? '3000';
-const env = { ...process.env, PORT: port, ORIGIN: process.env.ORIGIN ?? `http://localhost:${port}` };
+const env = {
+	...process.env,
+	PORT: port,
+	ORIGIN: process.env.ORIGIN ?? `http://localhost:${port}`,
+	// CPT uploads reach 50 MB a file; endpoints enforce their own, smaller limits.
+	BODY_SIZE_LIMIT: process.env.BODY_SIZE_LIMIT ?? '210M'
+};
 console.log(`Conefield on ${env.ORIGIN} (demo accounts in README.md)`);
 const server = spawn(process.execPath, [built], { stdio: 'inherit', env });
 for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => server.kill(signal));

@@ -66,6 +66,7 @@ export default async function setup(project: TestProject) {
 			ORIGIN: baseUrl,
 			DATABASE_URL: join(dataDir, 'conefield.db'),
 			DATA_DIR: dataDir,
+			BODY_SIZE_LIMIT: process.env.BODY_SIZE_LIMIT ?? '210M',
 			SMTP_URL: '',
 			AUTH_SECRET: ''
 		},
