@@ -85,7 +85,11 @@ export default async function setup(project: TestProject) {
 	project.provide('dataDir', dataDir);
 	return async () => {
 		child.kill('SIGTERM');
-		await new Promise((r) => (child.exitCode !== null ? r(null) : child.once('exit', r)));
+		const exited = new Promise((r) => (child.exitCode !== null ? r(null) : child.once('exit', r)));
+		// A graceful shutdown waits for open connections; past a few seconds, stop the server outright.
+		const timer = setTimeout(() => child.kill('SIGKILL'), 5000);
+		await exited;
+		clearTimeout(timer);
 		if (process.env.CONEFIELD_TEST_LOG) console.log(log);
 		rmSync(dataDir, { recursive: true, force: true });
 	};

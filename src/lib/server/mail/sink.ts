@@ -46,6 +46,8 @@ export function startSmtpSink(db: Db, port = 0): Promise<SmtpSink> {
 		server.once('error', reject);
 		server.listen(port, '127.0.0.1', () => {
 			const { port: bound } = server.server.address() as AddressInfo;
+			// The sink serves this process only: it must not keep it alive once the HTTP server has shut down.
+			server.server.unref();
 			resolve({ port: bound, close: () => new Promise((done) => server.close(() => done())) });
 		});
 	});
