@@ -12,7 +12,9 @@ export interface ApiIssue {
 
 /** `{ "error": { "code", "message", "issues"? } }` with the given status. */
 export function apiError(status: ErrorStatus, message: string, issues?: ApiIssue[], code: string = ERROR_CODES[status]): Response {
-	return json({ error: { code, message, ...(issues ? { issues } : {}) } }, { status });
+	// A 413 leaves the body unread; closing the connection keeps a client from reusing a socket mid-body.
+	const headers = status === 413 ? { connection: 'close' } : undefined;
+	return json({ error: { code, message, ...(issues ? { issues } : {}) } }, { status, headers });
 }
 
 /** Thrown inside an endpoint to answer with an API error. */
