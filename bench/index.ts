@@ -10,7 +10,8 @@ export interface BenchCase {
 
 const MODULES: (() => Promise<{ default: BenchCase[] }>)[] = [
 	() => import('./variogram'),
-	() => import('./simulation')
+	() => import('./simulation'),
+	() => import('./soundings-storage')
 ];
 
 const only = process.argv[2];
