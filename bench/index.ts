@@ -17,7 +17,7 @@ const MODULES: (() => Promise<{ default: BenchCase[] }>)[] = [
 const only = process.argv[2];
 for (const load of MODULES) {
 	for (const c of (await load()).default) {
-		if (only && c.name !== only) continue;
+		if (only && !c.name.startsWith(only)) continue;
 		console.log(JSON.stringify({ case: c.name, ...(await c.run()) }));
 	}
 }
