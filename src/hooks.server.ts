@@ -4,7 +4,7 @@ import { building } from '$app/environment';
 import { getDb } from '$lib/server/db';
 import { auth, authConfig } from '$lib/server/auth';
 import { requestContext } from '$lib/server/auth/context';
-import { getTransport } from '$lib/server/mail';
+import { closeMail, getTransport } from '$lib/server/mail';
 import { seedDemo } from '$lib/server/services/demo';
 import { findUser } from '$lib/server/services/users';
 import { userForApiToken } from '$lib/server/services/tokens';
@@ -18,6 +18,10 @@ export const init: ServerInit = async () => {
 	if (seeded) console.info('[conefield] empty database: seeded the demo accounts and project (see README).');
 	authConfig();
 	await getTransport();
+	// adapter-node emits this after closing the HTTP server; the SMTP sink would otherwise keep the process alive.
+	process.once('sveltekit:shutdown' as 'beforeExit', () => {
+		void closeMail().then(() => db.$client.close());
+	});
 };
 
 const context: Handle = ({ event, resolve }) =>

@@ -11,6 +11,7 @@ export interface Message {
 }
 
 let transport: Promise<Transporter> | undefined;
+let sinkClose: (() => Promise<void>) | undefined;
 
 /**
  * The SMTP transport: SMTP_URL when set, otherwise the in-process sink on 127.0.0.1
@@ -21,10 +22,17 @@ export function getTransport(): Promise<Transporter> {
 		const url = process.env.SMTP_URL?.trim();
 		if (url) return nodemailer.createTransport(url);
 		const sink = await startSmtpSink(getDb(), Number(process.env.SMTP_SINK_PORT ?? 0) || 0);
+		sinkClose = sink.close;
 		console.info(`[conefield] SMTP_URL not set; local outbox listening on 127.0.0.1:${sink.port}`);
 		return nodemailer.createTransport({ host: '127.0.0.1', port: sink.port, secure: false, ignoreTLS: true });
 	})();
 	return transport;
+}
+
+/** Stops the local SMTP sink, if one runs, so the process can exit. */
+export async function closeMail(): Promise<void> {
+	await sinkClose?.();
+	sinkClose = undefined;
 }
 
 /** True when mail stays on this machine, so the Outbox page has something to show. */
