@@ -1,4 +1,4 @@
-import { checkDecimals, fixed } from './format';
+import { checkDecimals, checkSoundings, fixed } from './format';
 import type { ParsedSounding } from './types';
 
 /** Options of {@link formatAgs4}. Decimals are counted in the written units (m, MN/m2, kN/m2). */
@@ -25,13 +25,7 @@ export function formatAgs4(soundings: ParsedSounding[], options: FormatAgs4Optio
 	const dFs = checkDecimals(d.fs ?? 1, 'fs');
 	const dU2 = checkDecimals(d.u2 ?? 4, 'u2');
 	const dXy = checkDecimals(d.coordinates ?? 2, 'coordinates');
-	const ids = new Set<string>();
-	for (const s of soundings) {
-		const n = s.depth.length;
-		if (s.qc.length !== n || s.fs.length !== n || (s.u2 && s.u2.length !== n)) throw new RangeError('columns must have equal lengths');
-		if (ids.has(s.id)) throw new RangeError('sounding ids must be unique');
-		ids.add(s.id);
-	}
+	checkSoundings(soundings);
 	const withU2 = soundings.some((s) => s.u2 !== undefined);
 
 	const out: string[] = [];

@@ -1,5 +1,5 @@
 import type { Delimiter } from './delimitedText';
-import { checkDecimals, fixed } from './format';
+import { checkDecimals, checkSoundings, fixed } from './format';
 import type { ParsedSounding } from './types';
 
 /** Options of {@link formatDelimited}. Decimals are counted in the written units (m, MPa, kPa). */
@@ -28,13 +28,7 @@ export function formatDelimited(soundings: ParsedSounding[], options: FormatDeli
 	const dFs = checkDecimals(d.fs ?? 2, 'fs');
 	const dU2 = checkDecimals(d.u2 ?? 2, 'u2');
 	const dXy = checkDecimals(d.coordinates ?? 3, 'coordinates');
-	const ids = new Set<string>();
-	for (const s of soundings) {
-		const n = s.depth.length;
-		if (s.qc.length !== n || s.fs.length !== n || (s.u2 && s.u2.length !== n)) throw new RangeError('columns must have equal lengths');
-		if (ids.has(s.id)) throw new RangeError('sounding ids must be unique');
-		ids.add(s.id);
-	}
+	checkSoundings(soundings);
 	const any = (f: (s: ParsedSounding) => unknown): boolean => soundings.some((s) => f(s) !== undefined);
 	const optional: { header: string; cell: (s: ParsedSounding, i: number) => string }[] = [];
 	if (any((s) => s.u2)) optional.push({ header: 'u2 (kPa)', cell: (s, i) => (s.u2 ? fixed(s.u2[i], dU2, '') : '') });

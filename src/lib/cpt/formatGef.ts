@@ -1,4 +1,4 @@
-import { checkDecimals, fixed, oneLine } from './format';
+import { checkColumns, checkDecimals, fixed, oneLine } from './format';
 import { GEF_MEASUREMENTVAR_AREA_RATIO, GEF_QUANTITY } from './parseGef';
 import type { ParsedSounding } from './types';
 
@@ -30,8 +30,8 @@ export function formatGef(s: ParsedSounding, options: FormatGefOptions = {}): st
 	const dFs = checkDecimals(d.fs ?? 5, 'fs');
 	const dU2 = checkDecimals(d.u2 ?? 5, 'u2');
 	const dXy = checkDecimals(d.coordinates ?? 3, 'coordinates');
+	checkColumns(s);
 	const n = s.depth.length;
-	if (s.qc.length !== n || s.fs.length !== n || (s.u2 && s.u2.length !== n)) throw new RangeError('columns must have equal lengths');
 	const { columnSeparator, recordSeparator } = options;
 	for (const sep of [columnSeparator, recordSeparator]) {
 		if (sep !== undefined && (sep === '' || /[0-9.eE+\-#\r\n]/.test(sep))) throw new TypeError('separator must not be empty or part of a number');
