@@ -2,8 +2,8 @@ import { sql } from 'drizzle-orm';
 import { index, integer, primaryKey, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 
 /** Epoch-millisecond timestamps; SQLite has no date type. */
-const timestamp = (name: string) => integer(name, { mode: 'timestamp_ms' });
-const now = sql`(cast(unixepoch('subsec') * 1000 as integer))`;
+export const timestamp = (name: string) => integer(name, { mode: 'timestamp_ms' });
+export const now = sql`(cast(unixepoch('subsec') * 1000 as integer))`;
 
 export const SITE_ROLES = ['admin', 'member'] as const;
 export type SiteRole = (typeof SITE_ROLES)[number];

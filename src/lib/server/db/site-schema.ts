@@ -3,12 +3,9 @@
  * boundaries), zonations and their domains, and saved variograms. Measured columns of a sounding are
  * stored as little-endian Float64 BLOBs, one per quantity (see DEVELOPERS.md for the measurement).
  */
-import { sql } from 'drizzle-orm';
 import { blob, index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
-import { projects, users } from './schema';
+import { now, projects, timestamp, users } from './schema';
 
-const timestamp = (name: string) => integer(name, { mode: 'timestamp_ms' });
-const now = sql`(cast(unixepoch('subsec') * 1000 as integer))`;
 const id = () =>
 	text('id')
 		.primaryKey()
