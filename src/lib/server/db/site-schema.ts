@@ -4,6 +4,7 @@
  * stored as little-endian Float64 BLOBs, one per quantity (see DEVELOPERS.md for the measurement).
  */
 import { blob, index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { SIMULATED_PROPERTIES } from '../../properties';
 import { now, projects, timestamp, users } from './schema';
 
 const id = () =>
@@ -19,9 +20,6 @@ const json = <T>(name: string) => text(name, { mode: 'json' }).$type<T>();
 export const SOURCE_FORMATS = ['delimited', 'gef', 'ags4'] as const;
 export type SourceFormat = (typeof SOURCE_FORMATS)[number];
 
-/** Properties a unit can be simulated in; keys of the derived-property arrays. */
-export const SIMULATED_PROPERTIES = ['qc1Ncs', 'suRatio', 'Ic', 'qt', 'FC', 'Dr', 'su', 'Qtn'] as const;
-export type SimulatedProperty = (typeof SIMULATED_PROPERTIES)[number];
 
 export const AVERAGING = ['none', 'mean', 'median'] as const;
 export type Averaging = (typeof AVERAGING)[number];

@@ -2,7 +2,8 @@ import { and, asc, eq, inArray } from 'drizzle-orm';
 import { CptFlag, derive, type DerivedSounding, type UnitAtSounding } from '$lib/cpt';
 import { getDb } from '$lib/server/db';
 import { fromFloat64Blob } from '$lib/server/db/float64';
-import { contacts, soundings, units, type SimulatedProperty, type Sounding, type Unit } from '$lib/server/db/site-schema';
+import { contacts, soundings, units, type Sounding, type Unit } from '$lib/server/db/site-schema';
+import type { SimulatedProperty } from '$lib/properties';
 import { ServiceError } from '$lib/server/errors';
 import { getSite, locateSounding, type DbOrTx, type SiteView, type SoundingLocation } from './site';
 

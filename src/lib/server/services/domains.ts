@@ -1,13 +1,11 @@
 import { cellDeclusterWeights, weightedMean, weightedQuantiles, weightedVariance, type Sample } from '$lib/geostat';
 import { getDb } from '$lib/server/db';
-import type { Averaging, SimulatedProperty } from '$lib/server/db/site-schema';
+import type { Averaging } from '$lib/server/db/site-schema';
+import { PROPERTY_INFO, type SimulatedProperty } from '$lib/properties';
 import { deriveSoundings } from './derived';
 import { getSite, type DbOrTx } from './site';
 import { boundariesByUnit, zoneOf, type BoundaryLine } from './stratigraphy';
 import { getDomain, WHOLE_UNIT } from './zonations';
-import { PROPERTY_INFO } from '$lib/schemas/stratigraphy';
-
-export { PROPERTY_INFO };
 
 export interface Cdf {
 	value: number[];

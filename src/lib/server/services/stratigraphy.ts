@@ -3,7 +3,8 @@ import { Delaunay } from 'd3';
 import { getDb, type Db } from '$lib/server/db';
 import { contacts, soundings, units, zoneBoundaries, type Unit, type ZoneBoundary } from '$lib/server/db/site-schema';
 import { ServiceError } from '$lib/server/errors';
-import { SECTION_PROPERTY_INFO, type ContactPut, type SectionProperty, type UnitCreate, type UnitUpdate, type ZoneBoundaryInput } from '$lib/schemas/stratigraphy';
+import type { ContactPut, UnitCreate, UnitUpdate, ZoneBoundaryInput } from '$lib/schemas/stratigraphy';
+import { PROPERTY_INFO, type PropertyKey } from '$lib/properties';
 import { deriveSoundings } from './derived';
 import { getSite, locateSounding, type DbOrTx, type SiteView } from './site';
 
@@ -301,7 +302,7 @@ export function sectionContacts(projectId: string, db: DbOrTx = getDb()): Sectio
 /** Everything the section plot draws. */
 export interface SectionView {
 	site: SiteView;
-	property: { key: SectionProperty; label: string; unit: string };
+	property: { key: PropertyKey; label: string; unit: string };
 	/** Located soundings by chainage, with the chosen property against elevation (null where undefined). */
 	soundings: {
 		id: string;
@@ -324,9 +325,9 @@ export interface SectionView {
 }
 
 /** The section of a project: soundings as traces of a property at their chainage, contacts and zone boundaries. */
-export function sectionView(projectId: string, property: SectionProperty, db: DbOrTx = getDb()): SectionView {
+export function sectionView(projectId: string, property: PropertyKey, db: DbOrTx = getDb()): SectionView {
 	const derived = deriveSoundings(projectId, undefined, db);
-	const info = SECTION_PROPERTY_INFO[property];
+	const info = PROPERTY_INFO[property];
 	const located = derived.filter((d) => d.sounding.chainage !== null).sort((a, b) => a.sounding.chainage! - b.sounding.chainage!);
 	return {
 		site: getSite(projectId, db),
