@@ -43,7 +43,7 @@ describe('getJson, send and sendForm', () => {
 		answer(() =>
 			json({ error: { code: 'invalid', message: 'The request body is not valid.', issues: [{ path: ['name'], message: 'Enter a unit name.' }] } }, 422)
 		);
-		const err = await send('POST', '/a', {}).catch((e) => e);
+		const err = (await send('POST', '/a', {}).catch((e: unknown) => e)) as RequestFailed;
 		expect(err).toBeInstanceOf(RequestFailed);
 		expect(err).toMatchObject({ status: 422, code: 'invalid', message: 'The request body is not valid. Enter a unit name.' });
 		expect(err.issues).toEqual([{ path: ['name'], message: 'Enter a unit name.' }]);

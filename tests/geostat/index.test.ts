@@ -26,6 +26,7 @@ const PART_1 = [
 	'validateVariogramModel',
 	'variogramMisfit',
 	'weightedMean',
+	'weightedPlottingPositions',
 	'weightedQuantiles',
 	'weightedVariance'
 ];

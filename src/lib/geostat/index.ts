@@ -26,7 +26,7 @@ export type { PlanRotation, CompiledVariogram } from './variogram/model';
 export { inverseNormalCdf, normalCdf } from './distribution/normal';
 export { normalScore, backTransform, TAIL_P } from './distribution/normal-score';
 export type { NormalScoreOptions } from './distribution/normal-score';
-export { weightedMean, weightedVariance, weightedQuantiles } from './statistics/weighted';
+export { weightedMean, weightedVariance, weightedQuantiles, weightedPlottingPositions } from './statistics/weighted';
 export { cellDeclusterWeights } from './declustering/cell-decluster-weights';
 export type { CellSize } from './declustering/cell-decluster-weights';
 export { declusterCellScan } from './declustering/decluster-cell-scan';

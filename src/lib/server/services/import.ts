@@ -17,7 +17,7 @@ import { getDb } from '$lib/server/db';
 import { toFloat64Blob } from '$lib/server/db/float64';
 import { soundings, sourceFiles, type SourceFormat } from '$lib/server/db/site-schema';
 import { ServiceError, type ErrorStatus } from '$lib/server/errors';
-import type { DbOrTx } from './site';
+import type { DbOrTx } from '$lib/server/db/transaction';
 
 /** One uploaded file: its name as the user's computer gave it, and its bytes. */
 export interface UploadedFile {

@@ -4,7 +4,9 @@ import { fromFloat64Blob } from '$lib/server/db/float64';
 import { soundings, sourceFiles, type SourceFormat } from '$lib/server/db/site-schema';
 import { ServiceError } from '$lib/server/errors';
 import { derivedJson, deriveSounding, jsonColumn, type UnitAtSoundingView } from './derived';
-import { getSite, locateSounding, type DbOrTx, type SiteView } from './site';
+import type { DbOrTx } from '$lib/server/db/transaction';
+import { locateSounding } from '$lib/site';
+import { getSite, type SiteView } from './site';
 
 /** A sounding as the table lists it: location, extent and where it came from, without its readings. */
 export interface SoundingSummary {

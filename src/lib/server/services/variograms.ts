@@ -5,7 +5,7 @@ import { domains, variogramComments, variograms, zonations, type Variogram } fro
 import { hasRole, type ProjectRole } from '$lib/server/auth/roles';
 import { ServiceError } from '$lib/server/errors';
 import type { VariogramSave } from '$lib/schemas/variogram';
-import type { DbOrTx } from './site';
+import { inTransaction, type DbOrTx } from '$lib/server/db/transaction';
 
 /** Who may do what with saved variograms: viewers read, reviewers comment, analysts save and restore. */
 export const VARIOGRAM_ROLES = { read: 'viewer', comment: 'reviewer', save: 'analyst', restore: 'analyst' } as const satisfies Record<
@@ -169,7 +169,7 @@ function insertVersion(db: DbOrTx, domainId: string, userId: string, input: Vari
 			.returning({ id: variograms.id })
 			.get().id;
 	};
-	return 'transaction' in db ? db.transaction((tx) => run(tx)) : run(db);
+	return inTransaction(db, run);
 }
 
 /** Comments on a saved variogram, oldest first. */
