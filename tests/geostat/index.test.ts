@@ -66,6 +66,7 @@ const PART_2 = [
 	'structureSchema',
 	'targetDefinitionSchema',
 	'targetsFromDefinition',
+	'transformSchema',
 	'variogramModelSchema',
 	'variogramReproduction'
 ];

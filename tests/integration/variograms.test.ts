@@ -26,7 +26,7 @@ const body = (name: string, rangeMajor = 40) => ({
 		]
 	},
 	settings: {
-		transform: 'normal',
+		transform: 'normal-score',
 		declustered: true,
 		vertical: { lag: 0.1, nLags: 20, lagTolerance: 0.05 },
 		horizontal: { lag: 10, nLags: 12, lagTolerance: 5, verticalBand: 0.1, azimuth: null, angleTolerance: 22.5 },

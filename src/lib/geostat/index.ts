@@ -59,6 +59,7 @@ export {
 	sampleSchema,
 	structureSchema,
 	variogramModelSchema,
+	transformSchema,
 	domainInputSchema,
 	simulationInputSchema,
 	gridTargetsSchema,

@@ -4,6 +4,7 @@
  * stored as little-endian Float64 BLOBs, one per quantity (see DEVELOPERS.md for the measurement).
  */
 import { blob, index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import type { VariogramModel } from '../../geostat';
 import { SIMULATED_PROPERTIES } from '../../properties';
 import { now, projects, timestamp, users } from './schema';
 
@@ -199,9 +200,12 @@ export const variograms = sqliteTable(
 		name: text('name').notNull(),
 		version: integer('version').notNull(),
 		/** The VariogramModel, as the engine takes it. */
-		model: json<Record<string, unknown>>('model').notNull(),
-		/** The experimental settings (property, transform, declustering, lags, band …) that produced the fit. */
-		settings: json<Record<string, unknown>>('settings').notNull(),
+		model: json<VariogramModel>('model').notNull(),
+		/**
+		 * The experimental settings (property, transform, declustering, lags, band …) that produced the fit; read
+		 * through readVariogramSettings ($lib/schemas/variogram), since older rows use older transform names.
+		 */
+		settings: json<unknown>('settings').notNull(),
 		misfit: real('misfit'),
 		note: text('note').notNull().default(''),
 		createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
