@@ -1,12 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { locateSounding } from '../../src/lib/site/index';
-
-// An L-shaped line: 100 along +x, then 100 along +y. Values below are worked by hand.
-const L: [number, number][] = [
-	[0, 0],
-	[100, 0],
-	[100, 100]
-];
+import { L } from './fixtures';
 
 describe('locateSounding(site, sounding)', () => {
 	it('locateSounding(site, s) projects when it can, else uses the given chainage, and flags far soundings', () => {

@@ -1,14 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { checkPolyline, polylineLength, projectOntoPolyline } from '../../src/lib/site/index';
+import { L } from './fixtures';
 import { SECTION_LINE, scenarioSoundings } from '../../src/lib/server/scenario/levee';
 import { expectAbsClose } from '../asserts';
-
-// An L-shaped line: 100 along +x, then 100 along +y. Values below are worked by hand.
-const L: [number, number][] = [
-	[0, 0],
-	[100, 0],
-	[100, 100]
-];
 
 describe('projectOntoPolyline(line, x, y)', () => {
 	it('projectOntoPolyline(line, x, y) gives chainage and a right-positive offset on the first segment', () => {
