@@ -51,6 +51,8 @@ describe('the property catalogue', () => {
 		expect(SECTION_OPTIONS.map((o) => o.key)).toContain('Qtn');
 		expect(SIMULATED_OPTIONS.map((o) => o.key)).toEqual(simulated);
 		expect(SIMULATED_OPTIONS.find((o) => o.key === 'qc1Ncs')!.text).toBe('qc1Ncs (sands)');
+		expect(SIMULATED_OPTIONS.find((o) => o.key === 'su')!.text).toBe('su (kPa)');
+		expect(SECTION_OPTIONS.find((o) => o.key === 'suRatio')!.text).toBe('su/σ′v');
 		expect(SECTION_OPTIONS.find((o) => o.key === 'qt')!.text).toBe('qt (kPa)');
 		expect(SECTION_OPTIONS.find((o) => o.key === 'Ic')!.text).toBe('Ic');
 	});

@@ -23,7 +23,7 @@ export interface PropertyInfo {
 	description: string;
 	/** May a stratigraphic unit or domain be simulated in it. */
 	simulatable: boolean;
-	/** The soils it is usually simulated in, shown beside its name in select lists. */
+	/** The soils it is usually simulated in, shown beside its name where a unit's property is chosen. */
 	suits?: 'sands' | 'clays';
 	range: { min: number; max: number; source: string };
 }
@@ -97,7 +97,6 @@ export const PROPERTIES = [
 		decimals: 1,
 		description: 'Undrained shear strength, su = (qt − σv)/Nkt (Lunne et al. 1997)',
 		simulatable: true,
-		suits: 'clays',
 		range: { min: 0, max: 1000, source: 'common practice (memory): very soft clays below 12.5 kPa, hard clays a few hundred kPa' }
 	},
 	{
@@ -186,12 +185,10 @@ export interface PropertyOption<K extends PropertyKey = PropertyKey> {
 	text: string;
 }
 
-function optionOf<K extends PropertyKey>(key: K): PropertyOption<K> {
+/** The select list of properties a unit or domain may be simulated in, with the soils each usually suits. */
+export const SIMULATED_OPTIONS: PropertyOption<SimulatedProperty>[] = SIMULATED_PROPERTIES.map((key) => {
 	const p = PROPERTY_INFO[key];
 	return { key, text: p.suits ? `${labelWithUnit(p)} (${p.suits})` : labelWithUnit(p) };
-}
-
-/** The select list of properties a unit or domain may be simulated in. */
-export const SIMULATED_OPTIONS = SIMULATED_PROPERTIES.map(optionOf);
-/** The select list of the section's traces: every property. */
-export const SECTION_OPTIONS = PROPERTY_KEYS.map(optionOf);
+});
+/** The select list of the section's traces: every property, with its unit. */
+export const SECTION_OPTIONS: PropertyOption[] = PROPERTY_KEYS.map((key) => ({ key, text: labelWithUnit(PROPERTY_INFO[key]) }));

@@ -58,9 +58,9 @@ export class VariogramHistory {
 	async restore(v: VariogramView): Promise<void> {
 		try {
 			const restored = await this.api.restoreVariogram(this.domainId, v.id);
-			this.notices.status = `Restored v${v.version} as ${restored.name} v${restored.version}.`;
 			await this.refresh();
 			this.onload(restored);
+			this.notices.status = `Restored v${v.version} as ${restored.name} v${restored.version}.`;
 		} catch (err) {
 			this.notices.problem = `Not restored: ${(err as Error).message}`;
 		}

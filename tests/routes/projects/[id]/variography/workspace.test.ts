@@ -68,6 +68,10 @@ function memoryApi(saved: VariogramView[] = []) {
 			};
 			versions.unshift(v);
 			return v;
+		},
+		restoreVariogram: async (domainId: string, id: string) => {
+			const old = versions.find((v) => v.id === id)!;
+			return api.saveVariogram(domainId, { ...old, note: `Restored from version ${old.version}.` });
 		}
 	};
 	return { api: api as unknown as ProjectApi, samples, versions, sent };
@@ -240,6 +244,21 @@ describe('VariographyWorkspace', () => {
 		expect(ws.notices.problem).toMatch(/lag/);
 		expect(ws.notices.status).toBe('');
 		expect(ws.result).toBe(shown);
+		ws.destroy();
+	});
+
+	it('history.restore(v) saves an old version again as the newest, loads it and says so', async () => {
+		const { ws } = await opened();
+		await ws.autoFit();
+		ws.history.saveName = 'Sand';
+		await ws.save();
+		ws.model.setValue('rangeHorizontal', 99);
+		await ws.save();
+		const v1 = ws.history.versions.find((v) => v.version === 1)!;
+		await ws.history.restore(v1);
+		expect(ws.history.versions.map((v) => v.version)).toEqual([3, 2, 1]);
+		expect(ws.model.params!.rangeHorizontal).toBe(v1.model.structures[1].rangeMajor);
+		expect(ws.notices.status).toBe('Restored v1 as Sand v3.');
 		ws.destroy();
 	});
 });
