@@ -93,8 +93,8 @@ export function geologyOffer(
 		}
 		for (const [loca, log] of groupBy(src.layers, (l) => l.locaId)) {
 			if (!locas.has(loca)) continue;
-			for (const [k, tops] of recurring(log)) {
-				notes.push(`${loca}: ${k} recurs below another layer (tops at ${tops.map((t) => t.toFixed(2)).join(', ')} m); a unit has one top per sounding, so its first top is used and the log below it reads as ${k} until a deeper unit starts`);
+			for (const r of recurrences(log)) {
+				notes.push(`${loca}: ${r.key} again from ${r.top.toFixed(2)} m is read as ${r.readAs} (a unit has one top per sounding: its first, at ${r.first.toFixed(2)} m)`);
 			}
 		}
 	}
@@ -215,17 +215,28 @@ function contactsOf(sources: GeologySource[], soundingsByFile: Map<string, Parse
 	return out;
 }
 
-/** Keys that appear again below a layer of another key in one location's log, with their tops. */
-function recurring(log: Ags4GeologyLayer[]): Map<string, number[]> {
+/**
+ * Layers of one location's log that repeat a key found higher up, after a layer of another key, and which key
+ * they will be read as: with one top per unit, a reading belongs to the key whose first top is the deepest at
+ * or above it. Repeats read as their own key (nothing else starts in between) are left out.
+ */
+function recurrences(log: Ags4GeologyLayer[]): { key: string; top: number; first: number; readAs: string }[] {
 	const sorted = [...log].sort((a, b) => a.top - b.top);
-	const tops = new Map<string, number[]>();
+	const first = new Map<string, number>();
+	const out: { key: string; top: number; first: number; readAs: string }[] = [];
 	let previous: string | undefined;
 	for (const l of sorted) {
 		const k = keyOf(l);
-		if (k !== previous) tops.set(k, [...(tops.get(k) ?? []), l.top]);
+		if (!first.has(k)) first.set(k, l.top);
+		else if (k !== previous) {
+			let readAs = k;
+			let deepest = -Infinity;
+			for (const [key, top] of first) if (top <= l.top && top >= deepest) [readAs, deepest] = [key, top];
+			if (readAs !== k) out.push({ key: k, top: l.top, first: first.get(k)!, readAs });
+		}
 		previous = k;
 	}
-	return new Map([...tops].filter(([, t]) => t.length > 1));
+	return out;
 }
 
 function groupBy<T>(items: T[], by: (t: T) => string): Map<string, T[]> {
