@@ -95,7 +95,7 @@ describe('soundings page (Chromium)', () => {
 		await errors.waitFor();
 		const text = await errors.textContent();
 		expect(text).toContain('bad.gef: line 10, column cone resistance');
-		expect(text).toContain('Nothing was imported');
+		expect(text).toContain('Nothing can be imported until this is fixed.');
 		expect(await page.locator('[data-file="bad.gef"] [data-testid="file-status"]').textContent()).toBe('refused');
 		expect(await rows().count()).toBe(3);
 	});

@@ -85,9 +85,9 @@ export function previewDelimited(text: string, options: PreviewOptions = {}): De
 	};
 	const unitIn = (name: string | undefined): string | undefined => (name === undefined ? undefined : names[headers.indexOf(name)].unit);
 
-	const depth = find(/^(depth|penetration|penetrationlength|dpth|scptdpth|correcteddepth)/);
-	const qc = find(/^(qc|coneresistance|tipresistance|conetip|coneres|scptres)/);
-	const fs = find(/^(fs|sleevefriction|localfriction|sleeve|friction|scptfres)/, /ratio|rf/);
+	const depth = find(/^(depth|penetration|penetrationlength|dpth|scptdpth|correcteddepth|sondeerlengte|diepte|gecorrigeerdediepte)/);
+	const qc = find(/^(qc|coneresistance|tipresistance|conetip|coneres|scptres|conusweerstand)/);
+	const fs = find(/^(fs|sleevefriction|localfriction|sleeve|friction|scptfres|plaatselijkewrijving|wrijving)/, /ratio|rf|getal/);
 	const u2 = find(/^(u2|porepressure|porewaterpressure|pwp2|pwp|scptpwp2)/);
 	const taken = new Set([depth, qc, fs, u2]);
 	// A column that takes a new value on (nearly) every row numbers the rows, not the soundings.

@@ -57,6 +57,12 @@ describe('planImport and importSoundings with clashing sounding names', () => {
 		expect(stored(t)).toEqual(before);
 	});
 
+	it('planImport refuses a file it cannot read (422) in the terms of a check', () => {
+		const err = rejected(() => planImport(t.projectId, { files: [file('bad.gef', gef('X').replace('0.20 2.0', '0.20 x'))] }, t.db));
+		expect(err.status).toBe(422);
+		expect(err.message).toBe("bad.gef: line 10, column cone resistance: 'x' is not a number. Nothing can be imported until this is fixed.");
+	});
+
 	it('importSoundings refuses unresolved clashes with 409, the plan beside the problems, and writes nothing', () => {
 		const err = rejected(() => importSoundings(t.projectId, t.userId, { files: [file('a.gef', gef('X')), file('b.gef', gef('X', 1.7))] }, t.db));
 		expect(err.status).toBe(409);

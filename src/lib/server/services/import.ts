@@ -153,10 +153,10 @@ export function importSoundings(projectId: string, userId: string | null, reques
  * @throws ImportRejected (413 or 422) when a file cannot be read.
  */
 export function planImport(projectId: string, request: ImportRequest, db: DbOrTx = getDb()): UploadPlan {
-	return planOf(projectId, prepareAll(request), request, db);
+	return planOf(projectId, prepareAll(request, true), request, db);
 }
 
-function prepareAll(request: ImportRequest): Prepared[] {
+function prepareAll(request: ImportRequest, checking = false): Prepared[] {
 	if (request.files.length === 0) throw new ImportRejected(422, 'Choose at least one file to import.', []);
 	const problems: FileProblem[] = [];
 	const prepared: Prepared[] = [];
@@ -167,7 +167,7 @@ function prepareAll(request: ImportRequest): Prepared[] {
 			problems.push(problemOf(file.name, err));
 		}
 	}
-	if (problems.length > 0) throw rejection(problems, request.files.length);
+	if (problems.length > 0) throw rejection(problems, request.files.length, undefined, checking);
 	return prepared;
 }
 
@@ -318,7 +318,7 @@ function alreadyImported(projectId: string, prepared: Prepared[], db: DbOrTx): F
 	return problems;
 }
 
-function rejection(problems: FileProblem[], fileCount: number, plan?: UploadPlan): ImportRejected {
+function rejection(problems: FileProblem[], fileCount: number, plan?: UploadPlan, checking = false): ImportRejected {
 	const codes = new Set(problems.map((p) => p.code));
 	const status: ErrorStatus = codes.has('file-too-large')
 		? 413
@@ -326,10 +326,11 @@ function rejection(problems: FileProblem[], fileCount: number, plan?: UploadPlan
 			? 422
 			: 409;
 	const refused = new Set(problems.map((p) => p.file)).size;
+	const outcome = checking ? 'nothing can be imported until this is fixed' : 'nothing was imported';
 	const message =
 		fileCount === 1
-			? `${problems[0].message}. Nothing was imported.`
-			: `${refused} of ${fileCount} files were refused; nothing was imported.`;
+			? `${problems[0].message}. ${outcome[0].toUpperCase()}${outcome.slice(1)}.`
+			: `${refused} of ${fileCount} files were refused; ${outcome}.`;
 	return new ImportRejected(status, message, problems, plan);
 }
 
