@@ -140,7 +140,7 @@ describe('soundings page (Chromium)', () => {
 		await page.getByTestId('upload-submit').click();
 		await expect.poll(() => notice.textContent(), { timeout: 30_000 }).toContain('Replaced the readings of PS-114 (contacts kept).');
 		expect(await rows().count()).toBe(4);
-		expect(await page.locator('[data-name="PS-114"]').textContent()).toContain('PS-114-rev1.gef');
+		await expect.poll(() => page.locator('[data-name="PS-114"]').textContent()).toContain('PS-114-rev1.gef');
 
 		// The readings download: every reading of every sounding, derived properties with units in the header.
 		const href = (await page.getByTestId('download-readings').getAttribute('href'))!;
