@@ -128,6 +128,12 @@ describe('POST /soundings with clashing names', () => {
 		expect(await names(analyst, id)).toEqual(['CPT-07:3200', 'CPT-08:1500', 'CPT-08 (2):2900', 'CPT-11:1500', 'CPT-12:1500']);
 	});
 
+	it('two concurrent uploads of one new name: one is imported, the other refused with 409, and the name is stored once', async () => {
+		const [a, b] = await Promise.all([upload(analyst, id, [gef('RACE-1', 1.6)]), upload(analyst, id, [gef('RACE-1', 1.8)])]);
+		expect([a.status, b.status].sort()).toEqual([201, 409]);
+		expect((await list(analyst, id)).filter((s) => s.name === 'RACE-1')).toHaveLength(1);
+	});
+
 	it('refuses invalid choices (422), a viewer\'s dry run (403), and a dry run in a project that is not yours (404)', async () => {
 		const bad = await upload(analyst, id, [gef('CPT-07', 1.6)], { clashes: [{ file: 'x', sounding: 'CPT-07', action: 'merge' }] });
 		expect(bad.status).toBe(422);
