@@ -76,7 +76,7 @@ export const PROPERTIES = [
 		key: 'FC',
 		label: 'FC',
 		unit: '%',
-		decimals: 0,
+		decimals: 1,
 		description: 'Fines content, from Ic (Boulanger & Idriss 2014) or measured',
 		simulatable: true,
 		range: { min: 0, max: 100, source: 'a percentage; the FC–Ic relation is limited to 0–100 % (Boulanger & Idriss 2014)' }

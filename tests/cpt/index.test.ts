@@ -34,6 +34,7 @@ describe('src/lib/cpt/index.ts', () => {
 				'formatGef',
 				'lengthUnitFactor',
 				'parseAgs4',
+				'parseAgs4Geology',
 				'parseDelimited',
 				'parseGef',
 				'previewDelimited',

@@ -105,6 +105,34 @@ describe('parseDelimited(text, mapping)', () => {
 		expectParseError(() => parseDelimited(CSV.replace('B,0.5', ',0.5'), MAPPING), 'missing-value', 4, 'sounding');
 	});
 
+	it('parseDelimited(text, mapping) says a file probably holds several soundings where depths restart, naming the id column', () => {
+		const text = [
+			'Project;PointID;Z (m NAP);depth;qc;fs',
+			'Dike;DKM-01;-1,25;0,02;0,5;5',
+			'Dike;DKM-01;-1,25;0,04;0,6;6',
+			'Dike;DKM-01;-1,25;0,06;0,7;7',
+			'Dike;DKM-02;-0,90;0,02;0,4;4'
+		].join('\n');
+		const oneSounding: DelimitedMapping = { depth: 'depth', qc: 'qc', fs: 'fs', units: { depth: 'm', qc: 'MPa', fs: 'kPa' }, groundElevation: { value: 0 } };
+		const err = expectParseError(() => parseDelimited(text, oneSounding, { file: 'dike.csv' }), 'depth-not-increasing', 5, 'depth');
+		expect(err.message).toBe(
+			"dike.csv: line 5, column depth: depth restarts at 0.02 m after 0.06 m with no sounding id column chosen: the file probably holds " +
+				"several soundings; choose the column that names them as the sounding id; columns that change here: 'PointID', 'Z (m NAP)'"
+		);
+		// An id column that does not tell the soundings apart gets the same diagnosis, naming the better column.
+		const wrongId = expectParseError(() => parseDelimited(text, { ...oneSounding, id: 'Project' }), 'depth-not-increasing', 5, 'depth');
+		expect(wrongId.detail).toContain("within sounding Dike (column 'Project'): the file probably holds several soundings");
+		expect(wrongId.detail).toContain("columns that change here: 'PointID'");
+		// With the right id column the same file reads as two soundings.
+		expect(parseDelimited(text, { ...oneSounding, id: 'PointID' }).map((s) => [s.id, s.depth.length])).toEqual([
+			['DKM-01', 3],
+			['DKM-02', 1]
+		]);
+		// A small step back is a recording error, not a restart: the plain message stays.
+		const step = expectParseError(() => parseDelimited(text.replace('DKM-02;-0,90;0,02', 'DKM-01;-1,25;0,05'), oneSounding), 'depth-not-increasing', 5, 'depth');
+		expect(step.detail).toBe('depth 0.05 m does not increase from 0.06 m');
+	});
+
 	it('parseDelimited(text, mapping) rejects malformed rows and files', () => {
 		expectParseError(() => parseDelimited(CSV.replace('A,1.0,1.50,,8', 'A,1.0,1.50,8'), MAPPING), 'malformed', 3);
 		expectParseError(() => parseDelimited('depth qc fs\n1 2 3', MAPPING), 'malformed', 1);

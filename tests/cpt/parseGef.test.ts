@@ -1,6 +1,8 @@
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { MAX_FILE_BYTES, parseGef } from '$lib/cpt';
-import { expectAllAbsClose, expectAllAbsCloseOrNaN } from '../asserts';
+import { expectAbsClose, expectAllAbsClose, expectAllAbsCloseOrNaN } from '../asserts';
 import { expectParseError } from './expectParseError';
 
 // A hand-written GEF CPT file (keywords from memory of the GEF-CPT report, see REFERENCES.md): semicolon
@@ -133,5 +135,65 @@ describe('parseGef(text)', () => {
 		expectParseError(() => parseGef('#GEFID= 1\n\u0000\u0001'), 'binary-file', 2);
 		expectParseError(() => parseGef('#'.repeat(MAX_FILE_BYTES + 1)), 'file-too-large', undefined);
 		expect(() => parseGef(42 as unknown as string)).toThrow(TypeError);
+	});
+});
+
+describe('parseGef(text) on crafted files with real-world habits (tests/cpt/fixtures/gef)', () => {
+	const fixture = (name: string) => readFileSync(join(import.meta.dirname, 'fixtures', 'gef', name), 'utf8');
+
+	it('parseGef(text) reads penetration length written as negative numbers growing downward, with a note', () => {
+		const [s] = parseGef(fixture('negative-penetration.gef'), { file: 'negative-penetration.gef' });
+		expect(s.id).toBe('PS-114');
+		expect(s.depth).toHaveLength(40);
+		expectAllAbsClose(s.depth.subarray(0, 3), [0.005, 0.025, 0.045], 1e-12, 'depth');
+		expect(s.depth[39]).toBeCloseTo(0.785, 12);
+		expect(s.notes).toEqual(['Penetration length is recorded as negative numbers growing downward; read as depth below ground']);
+		expect(s.groundElevation).toBe(1.1);
+	});
+
+	it('parseGef(text) fills void corrected depth from penetration length and says where', () => {
+		const [s] = parseGef(fixture('void-corrected-depth.gef'), { file: 'void-corrected-depth.gef' });
+		expect(s.id).toBe('DP-07');
+		// The first six rows take penetration length (0.02 … 0.12 m), the rest corrected depth (0.140, 0.159 …).
+		expectAllAbsClose(s.depth.subarray(0, 8), [0.02, 0.04, 0.06, 0.08, 0.1, 0.12, 0.14, 0.159], 1e-12, 'depth');
+		expect(s.notes).toEqual(['corrected depth (quantity 11) is void in the first 6 readings (to 0.12 m); penetration length is used there']);
+		// "Mpa" is MPa: 0.437 MPa = 437 kPa.
+		expectAbsClose(s.qc[0], 437, 1e-9, 'qc');
+	});
+
+	it('parseGef(text) reads units whatever their case (M, Mpa, kpa)', () => {
+		const [s] = parseGef(fixture('unit-spellings.gef'));
+		expectAbsClose(s.depth[0], 0.1, 1e-12, 'depth');
+		expectAbsClose(s.qc[0], 1000 * (0.4 + 0.09 + 0.3 * Math.sin(0.31)), 0.5, 'qc (file rounded to 1 kPa)');
+		expectAbsClose(s.fs[0], 8.4, 1e-9, 'fs in kPa as written');
+		expect(s.notes).toBeUndefined();
+	});
+
+	it('parseGef(text) refuses a borehole log as not a CPT, at its report code', () => {
+		const err = expectParseError(() => parseGef(fixture('borehole-log.gef'), { file: 'borehole-log.gef' }), 'not-a-cpt', 5);
+		expect(err.message).toBe('borehole-log.gef: line 5: this is a borehole log, not a CPT (REPORTCODE GEF-BORE-Report); only GEF-CPT files hold soundings');
+		const viaProcedure = fixture('borehole-log.gef').replace('#REPORTCODE=', '#PROCEDURECODE=');
+		expect(expectParseError(() => parseGef(viaProcedure), 'not-a-cpt', 5).detail).toContain('this is a borehole log, not a CPT');
+	});
+
+	it('parseGef(text) still refuses depths that change sign part-way, and a single negative reading', () => {
+		const err = expectParseError(() => parseGef(fixture('mixed-sign-depth.gef'), { file: 'm.gef' }), 'malformed', 9, 'penetration length');
+		expect(err.detail).toBe('depth -0.1 m is negative');
+	});
+
+	it('parseGef(text) refuses void corrected depth where penetration length is void too, or absent', () => {
+		const text = fixture('void-corrected-depth.gef');
+		const bothVoid = text.replace('0.04 0.473', '-9999 0.473').replace('#COLUMNVOID= 2, -9999', '#COLUMNVOID= 1, -9999\n#COLUMNVOID= 2, -9999');
+		expect(expectParseError(() => parseGef(bothVoid), 'missing-value', 21, 'corrected depth').detail).toBe(
+			'depth is void in both corrected depth and penetration length'
+		);
+		const noPenetration = text.replace('#COLUMNINFO= 1, m, penetration length, 1', '#COLUMNINFO= 1, m, length of rods, 99');
+		expectParseError(() => parseGef(noPenetration), 'missing-value', 19, 'corrected depth');
+	});
+
+	it('parseGef(text) reports a depth that does not increase after the negative sign convention in the file\'s terms', () => {
+		const text = fixture('negative-penetration.gef').replace('-0.045;', '-0.015;');
+		const err = expectParseError(() => parseGef(text), 'depth-not-increasing', 25, 'Penetration length');
+		expect(err.detail).toBe('depth 0.015 m does not increase from 0.025 m (read from negative numbers in the file)');
 	});
 });

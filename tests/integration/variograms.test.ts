@@ -1,6 +1,6 @@
 /**
  * Saved variograms over HTTP on loopback against the built server: analysts save and restore, reviewers
- * comment, viewers read (VARIOGRAM_ROLES in src/lib/server/services/variograms.ts); refusals in the API's
+ * comment, viewers read (the routes guard with CAPABILITIES of src/lib/server/auth/roles.ts); refusals in the API's
  * error shape (403 for a role below the action, 404 for another project's or an unknown domain, 400 for a
  * body that is not JSON, 422 for one that does not match the schema).
  */

@@ -10,7 +10,8 @@ export type CptParseErrorCode =
 	| 'unknown-unit'
 	| 'not-a-number'
 	| 'missing-value'
-	| 'depth-not-increasing';
+	| 'depth-not-increasing'
+	| 'not-a-cpt';
 
 /** Where an error sits and what it is; `detail` is the message without its location prefix. */
 export interface CptParseErrorInit {

@@ -40,6 +40,8 @@ export { GEF_MEASUREMENTVAR_AREA_RATIO, GEF_QUANTITY, parseGef } from './parseGe
 export { formatGef } from './formatGef';
 export type { FormatGefOptions } from './formatGef';
 export { parseAgs4 } from './parseAgs4';
+export { parseAgs4Geology } from './parseAgs4Geology';
+export type { Ags4GeologyLayer } from './parseAgs4Geology';
 export { formatAgs4 } from './formatAgs4';
 export type { FormatAgs4Options } from './formatAgs4';
 export { parseDelimited } from './parseDelimited';

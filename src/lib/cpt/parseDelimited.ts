@@ -2,7 +2,8 @@ import { DEFAULT_AREA_RATIO, FT_TO_M, TSF_TO_KPA } from './constants';
 import { CptParseError } from './errors';
 import type { CptParseErrorCode } from './errors';
 import type { ParseOptions, ParsedSounding } from './types';
-import { Column, isMissingCell, prepareText, splitLines, splitQuoted, stem } from './text';
+import { Column, isMissingCell, parseNumber, prepareText, splitLines, splitQuoted, stem } from './text';
+import { idRank } from './headerNames';
 import { locateHeader, parseCell, trimTrailing } from './delimitedText';
 import type { Delimiter } from './delimitedText';
 
@@ -54,13 +55,17 @@ interface Building {
 	u2: Column;
 	extra: Column[];
 	fixed: Map<string, number>;
+	/** The sounding's previous row, to name the columns that change where its depth restarts. */
+	lastRow: string[];
+	firstDepth: number;
 }
 
 /**
  * Parses comma-, semicolon- or tab-separated text with a header row into soundings in SI units (m, kPa),
  * following a column mapping (see {@link previewDelimited} for a guessed one). An id column splits the file
  * into several soundings, in order of first appearance; rows of one sounding need not be adjacent but their
- * depths must increase. Empty cells (and NaN, NA, n/a, -, null) become NaN; with a semicolon or tab delimiter,
+ * depths must increase. Where a sounding's depth falls back to near its start, the refusal says the file
+ * probably holds several soundings and names the columns that change there, as candidates for the id. Empty cells (and NaN, NA, n/a, -, null) become NaN; with a semicolon or tab delimiter,
  * decimal commas are accepted. Unit factors are exact: 1 ft = 0.3048 m, 1 tsf = 95.760 52 kPa.
  *
  * @throws CptParseError naming the line and column of the first problem.
@@ -107,6 +112,7 @@ export function parseDelimited(text: string, mapping: DelimitedMapping, options:
 	const kU2 = mapping.u2 !== undefined ? indexOf(mapping.u2, 'u2') : -1;
 	const kId = mapping.id !== undefined ? indexOf(mapping.id, 'sounding id') : -1;
 	const extras = (mapping.extra ?? []).map((name) => ({ name, k: indexOf(name, 'an extra column') }));
+	const measured = new Set([kDepth, kQc, kFs, kU2, kId, ...extras.map((e) => e.k)]);
 	const perSounding: { key: keyof typeof SOUNDING_FIELDS; k: number; value?: number }[] = [];
 	for (const key of Object.keys(SOUNDING_FIELDS) as (keyof typeof SOUNDING_FIELDS)[]) {
 		const spec = mapping[key];
@@ -138,15 +144,21 @@ export function parseDelimited(text: string, mapping: DelimitedMapping, options:
 		if (id === '') fail('missing-value', lineNo, 'sounding id is empty', headers[kId]);
 		let s = soundings.get(id);
 		if (!s) {
-			s = { id, depth: new Column(), qc: new Column(), fs: new Column(), u2: new Column(), extra: extras.map(() => new Column()), fixed: new Map() };
+			s = { id, depth: new Column(), qc: new Column(), fs: new Column(), u2: new Column(), extra: extras.map(() => new Column()), fixed: new Map(), lastRow: row, firstDepth: NaN };
 			soundings.set(id, s);
 		}
 		const d = cellValue(row[kDepth], lineNo, headers[kDepth]) * depthFactor;
 		if (Number.isNaN(d)) fail('missing-value', lineNo, 'depth is empty', headers[kDepth]);
 		if (d < 0) fail('malformed', lineNo, `depth ${d} m is negative`, headers[kDepth]);
 		if (s.depth.length > 0 && !(d > s.depth.last())) {
-			fail('depth-not-increasing', lineNo, `depth ${d} m does not increase from ${s.depth.last()} m`, headers[kDepth]);
+			const prev = s.depth.last();
+			const detail = restarts(d, prev, s.firstDepth)
+				? restartDetail(d, prev, kId >= 0 ? { header: headers[kId], id } : undefined, changedColumns(headers, s.lastRow, row, measured))
+				: `depth ${d} m does not increase from ${prev} m`;
+			fail('depth-not-increasing', lineNo, detail, headers[kDepth]);
 		}
+		if (s.depth.length === 0) s.firstDepth = d;
+		s.lastRow = row;
 		s.depth.push(d);
 		s.qc.push(cellValue(row[kQc], lineNo, headers[kQc]) * qcFactor);
 		s.fs.push(cellValue(row[kFs], lineNo, headers[kFs]) * fsFactor);
@@ -187,6 +199,39 @@ export function parseDelimited(text: string, mapping: DelimitedMapping, options:
 		out.push(p);
 	}
 	return out;
+}
+
+/**
+ * Whether a depth that does not increase starts a sounding over: it falls back into the top tenth of the
+ * depths read so far (a rule of our own; a repeated or slightly smaller depth is a recording error instead).
+ */
+function restarts(d: number, prev: number, first: number): boolean {
+	return d < prev && d <= first + 0.1 * (prev - first);
+}
+
+/** The refusal when depths restart: most likely several soundings read as one. */
+function restartDetail(d: number, prev: number, id: { header: string; id: string } | undefined, candidates: string[]): string {
+	const where = id ? `within sounding ${id.id} (column '${id.header}')` : 'with no sounding id column chosen';
+	const hint = id
+		? `choose the column that tells the soundings apart as the sounding id`
+		: 'choose the column that names them as the sounding id';
+	const named = candidates.length > 0 ? `; columns that change here: ${candidates.map((c) => `'${c}'`).join(', ')}` : '';
+	return `depth restarts at ${d} m after ${prev} m ${where}: the file probably holds several soundings; ${hint}${named}`;
+}
+
+/**
+ * Columns (other than the measured ones) whose cell differs between two rows, those named like a sounding id
+ * first, then the non-numeric ones; at most three.
+ */
+function changedColumns(headers: string[], before: string[], after: string[], measured: Set<number>): string[] {
+	const changed: { h: string; score: number }[] = [];
+	headers.forEach((h, k) => {
+		if (measured.has(k) || (before[k] ?? '').trim() === (after[k] ?? '').trim()) return;
+		const rank = idRank(h);
+		const text = parseNumber(after[k] ?? '') === undefined;
+		changed.push({ h, score: rank >= 0 ? rank : text ? 1000 : 2000 });
+	});
+	return changed.sort((a, b) => a.score - b.score).slice(0, 3).map((c) => c.h);
 }
 
 const SOUNDING_FIELDS = {

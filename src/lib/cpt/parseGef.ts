@@ -34,14 +34,27 @@ interface ColumnInfo {
 	line: number;
 }
 
+/**
+ * Report codes of GEF files that are not CPTs (from memory of the GEF family: GEF-BORE-Report for borehole
+ * logs, GEF-DISS-Report for dissipation tests), with what to call them in a refusal.
+ */
+const NOT_CPT: { code: RegExp; what: string }[] = [
+	{ code: /GEF-BORE/i, what: 'a borehole log' },
+	{ code: /GEF-DISS/i, what: 'a dissipation test' }
+];
+
 const KEYWORD = /^#\s*([A-Za-z][A-Za-z0-9_]*)\s*=(.*)$/;
 const META_KEYS = new Set(['GEFID', 'TESTID', 'PROJECTID', 'COMPANYID', 'FILEOWNER', 'FILEDATE', 'STARTDATE', 'STARTTIME']);
 
 /**
- * Parses one GEF CPT file into a sounding in SI units (m, kPa), honouring each column's declared unit.
- * Depth comes from corrected depth (quantity 11) when present, else penetration length (1); fs from local
- * friction (3), else from the friction ratio (4) as Rf·qc/100. Void values become NaN; columns the parser
- * does not use are kept, unconverted, in `extra` under their names.
+ * Parses one GEF CPT file into a sounding in SI units (m, kPa), honouring each column's declared unit (in any
+ * case: "Mpa", "kpa"). Depth comes from corrected depth (quantity 11) when present, else penetration length (1);
+ * where corrected depth is void, penetration length fills in. A depth column written as negative numbers
+ * growing downward (a sign convention some writers use) is read as depth below ground. Both are said in the
+ * sounding's `notes`. fs comes from local friction (3), else from the friction ratio (4) as Rf·qc/100. Void
+ * values become NaN; columns the parser does not use are kept, unconverted, in `extra` under their names.
+ * A file whose #REPORTCODE or #PROCEDURECODE names a borehole log (GEF-BORE) or a dissipation test (GEF-DISS)
+ * is refused as not a CPT.
  *
  * @returns an array holding the file's one sounding (the same shape as the multi-sounding parsers).
  * @throws CptParseError naming the line and column of the first problem.
@@ -96,6 +109,13 @@ export function parseGef(text: string, options: ParseOptions = {}): ParsedSoundi
 			case 'GEFID':
 				gefid = true;
 				break;
+			case 'REPORTCODE':
+			case 'PROCEDURECODE': {
+				const code = fields(value)[0];
+				const other = NOT_CPT.find((n) => n.code.test(code));
+				if (other) fail('not-a-cpt', lineNo, `this is ${other.what}, not a CPT (${key} ${code}); only GEF-CPT files hold soundings`);
+				break;
+			}
 			case 'COLUMN': {
 				columnCount = integer(fields(value)[0], lineNo, 'COLUMN');
 				if (columnCount < 1 || columnCount > 1000) fail('malformed', lineNo, `#COLUMN= ${columnCount} is out of range`);
@@ -172,12 +192,14 @@ export function parseGef(text: string, options: ParseOptions = {}): ParsedSoundi
 	if (rfInfo && rfInfo.unit.trim() !== '%') fail('unknown-unit', rfInfo.line, `friction ratio unit '${rfInfo.unit}' is not %`, rfInfo.name);
 	const u2Factor = u2Info ? unitOf(u2Info, 'stress') : 1;
 
+	const penInfo = byQuantity(GEF_QUANTITY.penetrationLength);
+	const corrInfo = depthInfo === penInfo ? undefined : depthInfo;
 	const used = new Set([depthInfo!, qcInfo!, fsInfo ?? rfInfo!, ...(u2Info ? [u2Info] : [])].map((c) => c.index));
 	const extras = infos.filter((c) => !used.has(c.index));
 	const cols = new Map<number, Column>();
 	for (let k = 1; k <= count; k++) cols.set(k, new Column());
 	const nameOf = (k: number): string => infos.find((c) => c.index === k)?.name ?? `column ${k}`;
-	const depthCol = cols.get(depthInfo!.index)!;
+	const recordLines: number[] = [];
 
 	const readRecord = (values: string[], lineNo: number): void => {
 		while (values.length > count && values[values.length - 1] === '') values.pop();
@@ -187,17 +209,9 @@ export function parseGef(text: string, options: ParseOptions = {}): ParsedSoundi
 			let v = parseNumber(cell);
 			if (v === undefined) fail('not-a-number', lineNo, `'${cell}' is not a number`, nameOf(k));
 			if (voids.has(k) && voids.get(k) === v) v = NaN;
-			if (k === depthInfo!.index) {
-				const d = (v as number) * depthFactor;
-				if (Number.isNaN(d)) fail('missing-value', lineNo, 'depth is void', nameOf(k));
-				if (d < 0) fail('malformed', lineNo, `depth ${d} m is negative`, nameOf(k));
-				const prev = depthCol.last() * depthFactor;
-				if (depthCol.length > 0 && !(d > prev)) {
-					fail('depth-not-increasing', lineNo, `depth ${d} m does not increase from ${prev} m`, nameOf(k));
-				}
-			}
 			cols.get(k)!.push(v as number);
 		}
+		recordLines.push(lineNo);
 	};
 
 	const splitFields = (record: string): string[] => {
@@ -212,14 +226,51 @@ export function parseGef(text: string, options: ParseOptions = {}): ParsedSoundi
 		if (recordSeparator && records.length > 1 && records[records.length - 1].trim() === '') records.pop();
 		for (const record of records) readRecord(splitFields(record), i + 1);
 	}
-	if (depthCol.length === 0) fail('malformed', eohLine, 'no readings after #EOH');
+	if (recordLines.length === 0) fail('malformed', eohLine, 'no readings after #EOH');
 
 	const scaled = (info: ColumnInfo, factor: number): Float64Array => {
 		const a = cols.get(info.index)!.toArray();
 		if (factor !== 1) for (let i = 0; i < a.length; i++) a[i] *= factor;
 		return a;
 	};
-	const depth = scaled(depthInfo!, depthFactor);
+	const notes: string[] = [];
+	const negated = new Set<ColumnInfo>();
+	const depthColumn = (info: ColumnInfo, factor: number): Float64Array => {
+		const a = scaled(info, factor);
+		if (negativeDownward(a)) {
+			for (let i = 0; i < a.length; i++) a[i] = -a[i];
+			negated.add(info);
+			notes.push(`${info.name} is recorded as negative numbers growing downward; read as depth below ground`);
+		}
+		return a;
+	};
+	const depth = depthColumn(depthInfo!, depthFactor);
+	const filled = new Uint8Array(depth.length);
+	if (corrInfo) {
+		const voidRows: number[] = [];
+		for (let i = 0; i < depth.length; i++) if (Number.isNaN(depth[i])) voidRows.push(i);
+		if (voidRows.length > 0 && penInfo) {
+			const pen = depthColumn(penInfo, unitOf(penInfo, 'length'));
+			for (const i of voidRows) {
+				if (Number.isNaN(pen[i])) fail('missing-value', recordLines[i], 'depth is void in both corrected depth and penetration length', corrInfo.name);
+				depth[i] = pen[i];
+				filled[i] = 1;
+			}
+			notes.push(fallbackNote(voidRows, depth, corrInfo.name, penInfo.name, recordLines));
+		}
+	}
+	for (let i = 0; i < depth.length; i++) {
+		const info = filled[i] ? penInfo! : depthInfo!;
+		const d = depth[i];
+		const line = recordLines[i];
+		if (Number.isNaN(d)) fail('missing-value', line, 'depth is void', nameOf(depthInfo!.index));
+		if (d < 0) fail('malformed', line, `depth ${d} m is negative`, nameOf(info.index));
+		if (i > 0 && !(d > depth[i - 1])) {
+			const sign = negated.has(info) ? ' (read from negative numbers in the file)' : '';
+			fail('depth-not-increasing', line, `depth ${d} m does not increase from ${depth[i - 1]} m${sign}`, nameOf(info.index));
+		}
+	}
+
 	const qc = scaled(qcInfo!, qcFactor);
 	let fs: Float64Array;
 	if (fsInfo) fs = scaled(fsInfo, fsFactor);
@@ -238,7 +289,38 @@ export function parseGef(text: string, options: ParseOptions = {}): ParsedSoundi
 		for (const c of extras) sounding.extra[c.name] = cols.get(c.index)!.toArray();
 	}
 	if (Object.keys(meta).length > 0) sounding.meta = meta;
+	if (notes.length > 0) sounding.notes = notes;
 	return [sounding];
+}
+
+/**
+ * Whether a depth column follows the convention of negative numbers growing downward: at least two readings,
+ * none above zero and some below (a rule of our own; one reading cannot show a direction).
+ */
+function negativeDownward(a: Float64Array): boolean {
+	let readings = 0;
+	let negative = false;
+	for (const v of a) {
+		if (Number.isNaN(v)) continue;
+		if (v > 0) return false;
+		if (v < 0) negative = true;
+		readings++;
+	}
+	return negative && readings >= 2;
+}
+
+/** The import-summary note for corrected depth filled in from penetration length. */
+function fallbackNote(rows: number[], depth: Float64Array, corrected: string, penetration: string, lines: number[]): string {
+	const n = rows.length;
+	const leading = rows.every((r, k) => r === k);
+	const readings = `${n} ${n === 1 ? 'reading' : 'readings'}`;
+	const where =
+		n === depth.length
+			? 'in every reading'
+			: leading
+				? `in the first ${readings} (to ${depth[rows[n - 1]]} m)`
+				: `in ${readings} (lines ${lines[rows[0]]}–${lines[rows[n - 1]]})`;
+	return `${corrected} (quantity 11) is void ${where}; ${penetration} is used there`;
 }
 
 /** A separator keyword's value: the character(s) after '=', spaces trimmed unless the separator is a space. */

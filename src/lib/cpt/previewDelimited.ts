@@ -5,6 +5,7 @@ import { locateHeader, parseCell, trimTrailing } from './delimitedText';
 import type { Delimiter } from './delimitedText';
 import type { DelimitedLengthUnit, DelimitedMapping, DelimitedStressUnit } from './parseDelimited';
 import { lengthUnitFactor, stressUnitFactor } from './units';
+import { groundRank, idRank, splitName } from './headerNames';
 
 /** A mapping guessed from the header; depth, qc or fs stay undefined when no column looks like them. */
 export type DelimitedMappingGuess = Omit<DelimitedMapping, 'depth' | 'qc' | 'fs'> & {
@@ -32,10 +33,13 @@ export interface PreviewOptions extends ParseOptions {
 
 /**
  * Reads the header and first rows of delimited text and guesses a mapping for {@link parseDelimited}:
- * columns by their names (depth, qc, fs, u2, sounding id, easting/northing or chainage, ground elevation,
- * area ratio, and AGS-style names such as SCPT_RES), units from a unit in the header ("qc (MPa)", "fs [kPa]",
- * "depth_ft"), else from the magnitude of the first values (qc above 300 read as kPa, fs and u2 below 2 as MPa
- * — rules of our own). The guess is for a person to confirm, never applied silently.
+ * columns by their names, ignoring case, spaces and punctuation (depth, qc, fs, u2; a sounding id such as
+ * PointID, Test ID, CPT, Location, LOCA_ID, Sounding or Name, unless its value changes on every row;
+ * easting/northing or chainage; a ground elevation such as "Z (m NAP)", Elevation, Ground level or GL, when it
+ * holds one value per sounding; the area ratio; AGS-style names such as SCPT_RES), units from a unit in the
+ * header ("qc (MPa)", "fs [kPa]", "depth_ft", "m NAP"), else from the magnitude of the first values (qc above
+ * 300 read as kPa, fs and u2 below 2 as MPa). All rules of our own; the guess is for a person to confirm,
+ * never applied silently.
  *
  * @throws CptParseError for empty, binary or oversized text, or a header without a delimiter.
  */
@@ -81,15 +85,31 @@ export function previewDelimited(text: string, options: PreviewOptions = {}): De
 	};
 	const unitIn = (name: string | undefined): string | undefined => (name === undefined ? undefined : names[headers.indexOf(name)].unit);
 
-	const depth = find(/^(depth|penetration|penetrationlength|dpth|scptdpth|correcteddepth)/);
-	const qc = find(/^(qc|coneresistance|tipresistance|conetip|coneres|scptres)/);
-	const fs = find(/^(fs|sleevefriction|localfriction|sleeve|friction|scptfres)/, /ratio|rf/);
+	const depth = find(/^(depth|penetration|penetrationlength|dpth|scptdpth|correcteddepth|sondeerlengte|diepte|gecorrigeerdediepte)/);
+	const qc = find(/^(qc|coneresistance|tipresistance|conetip|coneres|scptres|conusweerstand)/);
+	const fs = find(/^(fs|sleevefriction|localfriction|sleeve|friction|scptfres|plaatselijkewrijving|wrijving)/, /ratio|rf|getal/);
 	const u2 = find(/^(u2|porepressure|porewaterpressure|pwp2|pwp|scptpwp2)/);
-	const id = find(/^(id|sounding|soundingid|cpt|cptid|test|testid|locaid|location|locationid|name|hole|holeid|borehole)$/);
+	const taken = new Set([depth, qc, fs, u2]);
+	// A column that takes a new value on (nearly) every row numbers the rows, not the soundings.
+	const numbersRows = (k: number): boolean => sample.length > 3 && new Set(sample.map((r) => r[k]?.trim())).size >= sample.length - 1;
+	const id = ranked(headers, idRank, (k) => !taken.has(headers[k]) && !numbersRows(k));
 	const x = find(/^(x|easting|east|locanate)$/);
 	const y = find(/^(y|northing|north|locanatn)$/);
 	const chainage = find(/^(chainage|station|ch)$/);
-	const ground = find(/^(groundelevation|elevation|groundlevel|gl|surfaceelevation|zground|locagl)$/);
+	// A ground elevation holds one value per sounding; an elevation that changes down a sounding is the readings' own.
+	const kId = id === undefined ? -1 : headers.indexOf(id);
+	const onePerSounding = (k: number): boolean => {
+		const seen = new Map<string, string>();
+		for (const r of sample) {
+			const cell = (r[k] ?? '').trim();
+			if (cell === '' || isMissingCell(cell)) continue;
+			const key = kId >= 0 ? (r[kId] ?? '').trim() : '';
+			if (seen.has(key) && seen.get(key) !== cell) return false;
+			seen.set(key, cell);
+		}
+		return seen.size > 0;
+	};
+	const ground = ranked(headers, groundRank, (k) => !taken.has(headers[k]) && headers[k] !== x && headers[k] !== y && onePerSounding(k));
 	const area = find(/^(arearatio|netarearatio|a|car|scpgcar)$/);
 
 	const guess: DelimitedMappingGuess = {
@@ -118,24 +138,6 @@ export function previewDelimited(text: string, options: PreviewOptions = {}): De
 	return { delimiter, headers, rows, rowCount, guess };
 }
 
-/** A header split into a comparison key (letters and digits, lower case) and a unit, if it names one. */
-function splitName(header: string): { key: string; unit?: string } {
-	let name = header.trim();
-	let unit: string | undefined;
-	const bracket = /^(.*?)[[(]\s*([^\])]*?)\s*[\])]\s*$/.exec(name);
-	if (bracket) {
-		name = bracket[1];
-		unit = bracket[2];
-	} else {
-		const suffix = /^(.*?)[\s_]+([A-Za-z]+(?:\/[A-Za-z]+2?)?)$/.exec(name);
-		if (suffix && (stressUnitFactor(suffix[2]) !== undefined || lengthUnitFactor(suffix[2]) !== undefined)) {
-			name = suffix[1];
-			unit = suffix[2];
-		}
-	}
-	return { key: name.toLowerCase().replace(/[^a-z0-9]/g, ''), unit };
-}
-
 function stressUnit(unit: string | undefined): DelimitedStressUnit | undefined {
 	const f = unit === undefined ? undefined : stressUnitFactor(unit);
 	if (f === 1) return 'kPa';
@@ -144,11 +146,28 @@ function stressUnit(unit: string | undefined): DelimitedStressUnit | undefined {
 	return undefined;
 }
 
+/** m or ft, also when a vertical datum follows the unit ("m NAP", "mAOD", "ft MSL"). */
 function lengthUnit(unit: string | undefined): DelimitedLengthUnit | undefined {
-	const f = unit === undefined ? undefined : lengthUnitFactor(unit);
+	if (unit === undefined) return undefined;
+	const datum = /^\s*(m|ft)(?:\s+\S.*|[A-Z]{2,}.*)$/.exec(unit);
+	const f = lengthUnitFactor(datum ? datum[1] : unit);
 	if (f === 1) return 'm';
-	if (f !== undefined && unit!.trim().toLowerCase() === 'ft') return 'ft';
+	if (f !== undefined && (datum ? datum[1] : unit).trim().toLowerCase() === 'ft') return 'ft';
 	return undefined;
+}
+
+/** The header with the best rank that passes `ok`, or undefined. */
+function ranked(headers: string[], rank: (h: string) => number, ok: (k: number) => boolean): string | undefined {
+	let best: string | undefined;
+	let bestRank = Infinity;
+	headers.forEach((h, k) => {
+		const r = rank(h);
+		if (r >= 0 && r < bestRank && ok(k)) {
+			best = h;
+			bestRank = r;
+		}
+	});
+	return best;
 }
 
 function median(v: number[]): number {

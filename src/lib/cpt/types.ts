@@ -28,6 +28,8 @@ export interface ParsedSounding {
 	extra?: Record<string, Float64Array>;
 	/** Free-text header facts worth keeping (GEF keywords, AGS project id …). */
 	meta?: Record<string, string>;
+	/** How the parser read something unusual but readable (a sign convention, a fallback), for the import summary. */
+	notes?: string[];
 }
 
 /** The readings the derived-property pipeline needs: ParsedSounding or any array-like columns. */

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { simulatedProperty } from './stratigraphy';
 
 const header = z.string().min(1, { error: 'Choose a column.' }).max(200);
 const finite = z.number().refine(Number.isFinite, { error: 'Enter a number.' });
@@ -37,11 +38,38 @@ export const delimitedMappingSchema = z.strictObject({
 		.optional()
 });
 
+const soundingName = z.string().trim().min(1, { error: 'Enter a name.' }).max(100, { error: 'Use at most 100 characters for a sounding name.' });
+
+/** What to do with one sounding whose name is taken, named by its file and its name there. */
+export const clashResolutionSchema = z.strictObject({
+	file: z.string().max(260),
+	sounding: z.string().max(1000),
+	action: z.enum(['skip', 'replace', 'rename'], { error: 'Choose skip, replace or rename.' }),
+	name: soundingName.optional()
+});
+
+/** Contacts from AGS4 GEOL groups: each key (GEOL_GEOL code, or description) to a unit name, or null to leave it out. */
+export const geologyRequestSchema = z.strictObject({
+	units: z
+		.array(
+			z.strictObject({
+				key: z.string().max(1000),
+				unit: z.string().trim().min(1, { error: 'Enter a unit name.' }).max(80, { error: 'Use at most 80 characters for the unit name.' }).nullable(),
+				property: simulatedProperty.optional()
+			})
+		)
+		.max(500)
+});
+
 /**
  * The `options` part of a soundings upload (multipart, JSON text): one mapping for every delimited file,
- * or a mapping per file name; fallbacks for GEF and AGS4 files that state no ground elevation or area ratio.
+ * or a mapping per file name; fallbacks for GEF and AGS4 files that state no ground elevation or area ratio;
+ * `dryRun` to get the plan without writing; resolutions of name clashes; contacts from GEOL groups.
  */
 export const uploadOptionsSchema = z.strictObject({
+	dryRun: z.boolean().optional(),
+	clashes: z.array(clashResolutionSchema).max(10_000).optional(),
+	geology: geologyRequestSchema.optional(),
 	mapping: delimitedMappingSchema.optional(),
 	mappings: z.record(z.string().max(260), delimitedMappingSchema).optional(),
 	defaults: z

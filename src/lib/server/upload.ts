@@ -55,11 +55,11 @@ export function jsonField(form: FormData, field: string): unknown {
 	}
 }
 
-/** A refused upload in the API's error shape, with each refused file's problem (file, line, column) beside the issues. */
+/** A refused upload in the API's error shape, with each refused file's problem (file, line, column) beside the issues, and the plan when there is one. */
 export function rejectedUploadResponse(err: ImportRejected): Response {
 	const issues = err.problems.map((p) => ({
 		path: [p.file, ...(p.line !== undefined ? [p.line] : []), ...(p.column !== undefined ? [p.column] : [])],
 		message: p.message
 	}));
-	return json({ error: { code: err.code, message: err.message, issues, files: err.problems } }, { status: err.status });
+	return json({ error: { code: err.code, message: err.message, issues, files: err.problems, ...(err.plan ? { plan: err.plan } : {}) } }, { status: err.status });
 }

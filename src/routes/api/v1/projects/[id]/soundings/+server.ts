@@ -2,7 +2,7 @@ import { json } from '@sveltejs/kit';
 import { ApiError, endpoint } from '$lib/server/api';
 import { requireProjectRole } from '$lib/server/auth/guard';
 import { CAPABILITIES } from '$lib/server/auth/roles';
-import { ImportRejected, importSoundings } from '$lib/server/services/import';
+import { ImportRejected, importSoundings, planImport } from '$lib/server/services/import';
 import { listSoundings } from '$lib/server/services/soundings';
 import { filesOf, jsonField, readMultipart, rejectedUploadResponse } from '$lib/server/upload';
 import { uploadOptionsSchema } from '$lib/schemas/soundings';
@@ -14,7 +14,8 @@ export const GET = endpoint((event) => {
 
 /**
  * Uploads CPT files (multipart: `files`, several; `options`, JSON with the column mapping for delimited
- * text and fallbacks). All or nothing: 201 with what was imported, or the refused files with line and column.
+ * text, fallbacks, clash resolutions and GEOL contacts). All or nothing: 201 with what was imported, or the
+ * refused files with line and column (a 409 also carries the plan). With `dryRun`, 200 with the plan only.
  */
 export const POST = endpoint(async (event) => {
 	const { project, user } = requireProjectRole(event, event.params.id, CAPABILITIES.editData);
@@ -24,8 +25,10 @@ export const POST = endpoint(async (event) => {
 		throw new ApiError(422, 'The upload options are not valid.', parsed.error.issues.map((i) => ({ path: i.path.map(String), message: i.message })));
 	}
 	const files = await filesOf(form, 'files');
+	const { dryRun, ...request } = parsed.data;
 	try {
-		return json(importSoundings(project.id, user.id, { files, ...parsed.data }), { status: 201 });
+		if (dryRun) return json({ plan: planImport(project.id, { files, ...request }) });
+		return json(importSoundings(project.id, user.id, { files, ...request }), { status: 201 });
 	} catch (err) {
 		if (err instanceof ImportRejected) return rejectedUploadResponse(err);
 		throw err;
