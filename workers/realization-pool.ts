@@ -9,6 +9,7 @@ import * as Comlink from 'comlink';
 import type { Remote } from 'comlink';
 import type { SimulationApi } from './simulation-api';
 import type { Recipe, SimulationInput, TargetPoints } from '../src/lib/geostat/index';
+import { CancelledError } from '../src/lib/cancelled-error';
 
 /** A started worker: its comlink proxy and how to stop it. */
 export interface PoolWorker {
@@ -24,14 +25,6 @@ export interface RunOptions {
 	onRealization?: (realization: number, values: Float64Array) => void;
 	/** Aborting cancels the run like cancel(). */
 	signal?: AbortSignal;
-}
-
-/** Error of a cancelled run. */
-export class CancelledError extends Error {
-	constructor() {
-		super('cancelled');
-		this.name = 'CancelledError';
-	}
 }
 
 export class RealizationPool {

@@ -1,6 +1,6 @@
 /**
  * Saved variograms over HTTP on loopback against the built server: analysts save and restore, reviewers
- * comment, viewers read (VARIOGRAM_ROLES in src/lib/server/services/variograms.ts); refusals in the API's
+ * comment, viewers read (the routes guard with CAPABILITIES of src/lib/server/auth/roles.ts); refusals in the API's
  * error shape (403 for a role below the action, 404 for another project's or an unknown domain, 400 for a
  * body that is not JSON, 422 for one that does not match the schema).
  */
@@ -26,7 +26,7 @@ const body = (name: string, rangeMajor = 40) => ({
 		]
 	},
 	settings: {
-		transform: 'normal',
+		transform: 'normal-score',
 		declustered: true,
 		vertical: { lag: 0.1, nLags: 20, lagTolerance: 0.05 },
 		horizontal: { lag: 10, nLags: 12, lagTolerance: 5, verticalBand: 0.1, azimuth: null, angleTolerance: 22.5 },

@@ -1,11 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import { experimentalVariogram, normalScore, weightedVariance, type LagBin } from '../../src/lib/geostat/index';
-import { CancelledError, computeVariograms, prepareSamples, type VariogramSettings } from '../../src/lib/variography/index';
+import { CancelledError } from '../../src/lib/cancelled-error';
+import { computeVariograms, prepareSamples, type VariogramSettings } from '../../src/lib/variography/index';
 import { expectRelClose } from '../asserts';
 import { handDomain } from './fixture';
 
 const settings: VariogramSettings = {
-	transform: 'raw',
+	transform: 'none',
 	declustered: false,
 	vertical: { lag: 0.1, nLags: 20, lagTolerance: 0.05 },
 	horizontal: { lag: 7.5, nLags: 12, lagTolerance: 3.75, verticalBand: 0.1, azimuth: null, angleTolerance: 22.5 },
@@ -85,7 +86,7 @@ describe('computeVariograms(prepared, settings)', () => {
 	it('computeVariograms returns the variance of the analysed values: raw, or normal scores with weights', async () => {
 		const raw = await computeVariograms(prepared, settings, { pause: async () => {} });
 		expect(raw.variance).toBe(weightedVariance(data.samples.value));
-		const ns = prepareSamples(data, { transform: 'normal', declustered: true });
+		const ns = prepareSamples(data, { transform: 'normal-score', declustered: true });
 		const expected = normalScore(data.samples.value, data.weights).scores;
 		expect(ns.samples.map((s) => s.value)).toEqual(Array.from(expected));
 		expect(ns.variance).toBe(weightedVariance(expected, data.weights));
@@ -116,14 +117,14 @@ describe('prepareSamples(data, settings)', () => {
 		const d = handDomain({ soundings: 1, readings: 3 });
 		expect(() => prepareSamples({ ...d, samples: { x: [], y: [], z: [], value: [], sounding: [] } }, settings)).toThrow('no samples');
 		expect(() => prepareSamples({ ...d, samples: { ...d.samples, z: [1] } }, settings)).toThrow(RangeError);
-		expect(() => prepareSamples({ ...d, weights: [1] }, { transform: 'raw', declustered: true })).toThrow('weights must match the samples');
+		expect(() => prepareSamples({ ...d, weights: [1] }, { transform: 'none', declustered: true })).toThrow('weights must match the samples');
 		expect(() => prepareSamples({ weights: [] } as never, settings)).toThrow(TypeError);
 	});
 
 	it('prepareSamples does not mutate its input', () => {
 		const d = handDomain({ soundings: 2, readings: 10 });
 		const copy = structuredClone(d);
-		prepareSamples(d, { transform: 'normal', declustered: true });
+		prepareSamples(d, { transform: 'normal-score', declustered: true });
 		expect(d).toEqual(copy);
 	});
 });

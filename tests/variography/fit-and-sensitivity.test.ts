@@ -17,7 +17,7 @@ import { expectRelClose } from '../asserts';
 import { handDomain } from './fixture';
 
 const settings: VariogramSettings = {
-	transform: 'normal',
+	transform: 'normal-score',
 	declustered: true,
 	vertical: { lag: 0.1, nLags: 20, lagTolerance: 0.05 },
 	horizontal: { lag: 7.5, nLags: 12, lagTolerance: 3.75, verticalBand: 0.1, azimuth: null, angleTolerance: 22.5 },

@@ -1,4 +1,4 @@
-// A hand-built domain in the shape of the domain-samples endpoint: soundings along a 2D section with
+// A hand-built domain's samples as the domain-samples endpoint gives them: soundings along a 2D section with
 // readings every 0.05 m, values smooth in z and along the chainage plus noise (seeded), and declustering
 // weights that favour the sparse east end. Invented data for tests only.
 import seedrandom from 'seedrandom';
@@ -38,13 +38,5 @@ export function handDomain({ soundings = 8, spacing = 15, readings = 160, seed =
 		}
 	}
 	const total = weights.reduce((p, q) => p + q, 0);
-	return {
-		domain: { id: 'd1', name: 'Test sand', zonationId: 'z1', zonationName: 'Test', property: 'qc1Ncs', cellHeight: null, averaging: 'none', declusterCell: null },
-		property: { key: 'qc1Ncs', label: 'qc1Ncs', unit: '–' },
-		lengthUnit: 'm',
-		geometry: '2d',
-		samples: { x, y, z, value, sounding },
-		weights: weights.map((w) => w / total),
-		stats: { n: value.length, mean: NaN, sd: NaN, p10: NaN, p50: NaN, p90: NaN }
-	};
+	return { lengthUnit: 'm', samples: { x, y, z, value, sounding }, weights: weights.map((w) => w / total) };
 }

@@ -6,6 +6,7 @@ import { MessageChannel } from 'node:worker_threads';
 import { variographyApi, type VariographyApi } from '../../workers/variography';
 import { experimentalVariogram, fitVariogram } from '../../src/lib/geostat/index';
 import { prepareSamples, type Progress, type VariogramSettings } from '../../src/lib/variography/index';
+import { CancelledError } from '../../src/lib/cancelled-error';
 import { handDomain } from './fixture';
 
 const channel = new MessageChannel();
@@ -17,7 +18,7 @@ afterAll(() => {
 });
 
 const settings: VariogramSettings = {
-	transform: 'normal',
+	transform: 'normal-score',
 	declustered: true,
 	vertical: { lag: 0.1, nLags: 20, lagTolerance: 0.05 },
 	horizontal: { lag: 7.5, nLags: 12, lagTolerance: 3.75, verticalBand: 0.1, azimuth: null, angleTolerance: 22.5 },
@@ -56,7 +57,11 @@ describe('workers/variography through comlink', () => {
 				}
 			})
 		);
-		await expect(run).rejects.toMatchObject({ name: 'CancelledError', message: 'cancelled' });
+		const err = await run.catch((e: unknown) => e);
+		// Across comlink the class is lost and the name kept; CancelledError.revive restores the class.
+		expect(err).toMatchObject({ name: 'CancelledError', message: 'cancelled' });
+		expect(err).not.toBeInstanceOf(CancelledError);
+		expect(CancelledError.revive(err)).toBeInstanceOf(CancelledError);
 		// The job's mark is cleared, so the same id can run again.
 		await expect(api.variograms(2, data, settings)).resolves.toHaveProperty('n', 4800);
 	});

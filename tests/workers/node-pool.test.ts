@@ -1,6 +1,6 @@
 import { describe, it, expect, afterAll } from 'vitest';
 import { createNodePool } from '../../workers/node-pool';
-import { CancelledError } from '../../workers/realization-pool';
+import { CancelledError } from '../../src/lib/cancelled-error';
 import { simulate, createRecipe, regenerate, ENGINE_VERSION } from '../../src/lib/geostat/index';
 import type { SimulationInput, TargetPoints } from '../../src/lib/geostat/index';
 import { expectSameBits } from '../asserts';

@@ -1,50 +1,43 @@
-// The engine's public API. Every export is named here (no `export *`); tests/geostat/index.test.ts pins the list.
+// The engine's public API, grouped by topic. Every export is named here (no `export *`);
+// tests/geostat/index.test.ts pins the list topic by topic.
 
-// --- Part 1: types, distributions, normal scores, declustering, statistics, variography (issue 3) ---
-export type {
-	Sample,
-	StructureType,
-	Structure,
-	VariogramModel,
-	LagBin,
-	ExperimentalOptions,
-	NormalScoreTable,
-	FitOptions,
-	FitInput
-} from './types';
-export {
-	gamma,
-	covariance,
-	compileVariogram,
-	planRotation,
-	reducedDistance,
-	unitGamma,
-	totalSill,
-	validateVariogramModel
-} from './variogram/model';
-export type { PlanRotation, CompiledVariogram } from './variogram/model';
+// --- Shared shapes ---
+export type { Sample, StructureType, Structure, VariogramModel, LagBin, ExperimentalOptions, NormalScoreTable, FitOptions, FitInput } from './types';
+
+// --- Normal distribution and normal scores ---
 export { inverseNormalCdf, normalCdf } from './distribution/normal';
 export { normalScore, backTransform, TAIL_P } from './distribution/normal-score';
 export type { NormalScoreOptions } from './distribution/normal-score';
-export { weightedMean, weightedVariance, weightedQuantiles } from './statistics/weighted';
+
+// --- Weighted statistics ---
+export { weightedMean, weightedVariance, weightedQuantiles, weightedPlottingPositions } from './statistics/weighted';
+
+// --- Declustering ---
 export { cellDeclusterWeights } from './declustering/cell-decluster-weights';
 export type { CellSize } from './declustering/cell-decluster-weights';
 export { declusterCellScan } from './declustering/decluster-cell-scan';
 export type { DeclusterScanRow } from './declustering/decluster-cell-scan';
+
+// --- Variograms: models, experimental variograms, fitting ---
+export { gamma, covariance, compileVariogram, planRotation, reducedDistance, unitGamma, totalSill, validateVariogramModel } from './variogram/model';
+export type { PlanRotation, CompiledVariogram } from './variogram/model';
 export { experimentalVariogram } from './variogram/experimental';
 export { fitVariogram, variogramMisfit } from './variogram/fit';
-// --- end of part 1 ---
 
-// --- Part 2: kriging, simulation, recipe, validation, search, linalg (issue 4) — appended below this line ---
+// --- Linear algebra and kriging ---
 export { choleskyFactor, choleskySolve } from './linalg/cholesky';
 export { krige } from './kriging/krige';
 export type { KrigingResult, KrigingOptions } from './kriging/krige';
+
+// --- Neighbour search ---
 export { searchEllipsoid, normalisedCoordinates } from './search/search-ellipsoid';
 export type { SearchEllipsoid } from './search/search-ellipsoid';
 export { BucketGrid } from './search/bucket-grid';
 export { selectNearest } from './search/select-nearest';
 export { offsetTemplate } from './search/offset-template';
 export type { OffsetTemplate } from './search/offset-template';
+
+// --- Sequential Gaussian simulation ---
 export type { TargetPoints, DomainInput, SearchOptions, SimulationInput } from './simulation/types';
 export { detectLattice } from './simulation/lattice';
 export type { Lattice } from './simulation/lattice';
@@ -52,13 +45,13 @@ export { prepareSimulation, COINCIDENCE_TOLERANCE } from './simulation/prepare-s
 export type { PreparedSimulation, PreparedDomain } from './simulation/prepare-simulation';
 export { simulate, simulatePrepared, realizationStream } from './simulation/simulate';
 export type { SimulationStats } from './simulation/simulate';
-export { sha256 } from './recipe/sha256';
-export { canonicalJson } from './recipe/canonical-json';
-export { ENGINE_VERSION, isCurrentEngine } from './recipe/engine-version';
+
+// --- Recipes: schema, identity, engine version, regeneration ---
 export {
 	sampleSchema,
 	structureSchema,
 	variogramModelSchema,
+	transformSchema,
 	domainInputSchema,
 	simulationInputSchema,
 	gridTargetsSchema,
@@ -69,12 +62,16 @@ export {
 export type { Recipe, TargetDefinition } from './recipe/schema';
 export { targetsFromDefinition } from './recipe/targets-from-definition';
 export { createRecipe, recipeInput } from './recipe/create-recipe';
+export { canonicalJson } from './recipe/canonical-json';
+export { sha256 } from './recipe/sha256';
 export { recipeHash } from './recipe/recipe-hash';
+export { ENGINE_VERSION, isCurrentEngine } from './recipe/engine-version';
 export { regenerate } from './recipe/regenerate';
+
+// --- Checking realizations against their data and model ---
 export { dataReproduction } from './validation/data-reproduction';
 export type { DataReproduction } from './validation/data-reproduction';
 export { histogramReproduction } from './validation/histogram-reproduction';
 export type { HistogramReproduction } from './validation/histogram-reproduction';
 export { variogramReproduction } from './validation/variogram-reproduction';
 export type { VariogramReproductionLag } from './validation/variogram-reproduction';
-// --- end of part 2 ---

@@ -1,5 +1,6 @@
 /** Request bodies of the site, stratigraphy, zonation and domain endpoints. */
 import { z } from 'zod';
+import { PROPERTY_KEYS, SIMULATED_PROPERTIES } from '$lib/properties';
 
 const finite = (label: string) => z.number({ error: `${label} must be a number.` }).refine(Number.isFinite, { error: `${label} must be finite.` });
 const positive = (label: string) => finite(label).refine((v) => v > 0, { error: `${label} must be greater than 0.` });
@@ -10,35 +11,12 @@ const name = (label: string) =>
 		.min(1, { error: `Enter a ${label}.` })
 		.max(80, { error: `Use at most 80 characters for the ${label}.` });
 
-export const simulatedProperty = z.enum(['qc1Ncs', 'suRatio', 'Ic', 'qt', 'FC', 'Dr', 'su', 'Qtn'], {
-	error: 'Choose a property: qc1Ncs, suRatio, Ic, qt, FC, Dr, su or Qtn.'
+export const simulatedProperty = z.enum(SIMULATED_PROPERTIES, {
+	error: `Choose a property: ${SIMULATED_PROPERTIES.join(', ')}.`
 });
 
-/** Label and unit of each simulated property, for axes and tables. */
-export const PROPERTY_INFO: Record<z.output<typeof simulatedProperty>, { label: string; unit: string; description: string }> = {
-	qc1Ncs: { label: 'qc1Ncs', unit: '–', description: 'Clean-sand equivalent normalised cone resistance (Boulanger & Idriss 2014)' },
-	suRatio: { label: 'su/σ′v', unit: '–', description: 'Undrained strength ratio, su = (qt − σv)/Nkt (Lunne et al. 1997)' },
-	Ic: { label: 'Ic', unit: '–', description: 'Soil behaviour type index (Robertson 2009)' },
-	qt: { label: 'qt', unit: 'kPa', description: 'Corrected cone resistance (Lunne et al. 1997)' },
-	FC: { label: 'FC', unit: '%', description: 'Fines content from Ic (Boulanger & Idriss 2014) or measured' },
-	Dr: { label: 'Dr', unit: '–', description: 'Relative density (Idriss & Boulanger 2008)' },
-	su: { label: 'su', unit: 'kPa', description: 'Undrained shear strength (Lunne et al. 1997)' },
-	Qtn: { label: 'Qtn', unit: '–', description: 'Normalised cone resistance (Robertson 2009)' }
-};
-
-/** Quantities the section can draw as traces: the simulated properties and a few measured or derived others. */
-export const sectionProperty = z.enum(['qc1Ncs', 'suRatio', 'Ic', 'qt', 'FC', 'Dr', 'su', 'Qtn', 'qc', 'fs', 'u2', 'CRR'], {
-	error: 'Choose a property to draw.'
-});
-export type SectionProperty = z.output<typeof sectionProperty>;
-
-export const SECTION_PROPERTY_INFO: Record<SectionProperty, { label: string; unit: string; description: string }> = {
-	...PROPERTY_INFO,
-	qc: { label: 'qc', unit: 'kPa', description: 'Cone resistance, measured' },
-	fs: { label: 'fs', unit: 'kPa', description: 'Sleeve friction, measured' },
-	u2: { label: 'u2', unit: 'kPa', description: 'Pore pressure behind the cone, measured' },
-	CRR: { label: 'CRR', unit: '–', description: 'Cyclic resistance ratio, M = 7.5, σ′v = 1 atm (Boulanger & Idriss 2014)' }
-};
+/** Quantities the section can draw as traces: every property of the catalogue. */
+export const sectionProperty = z.enum(PROPERTY_KEYS, { error: 'Choose a property to draw.' });
 
 export const colour = z
 	.string({ error: 'Enter a colour.' })
@@ -150,6 +128,7 @@ export const zonationUpdateSchema = z
 	.partial()
 	.strict();
 
+export type SectionProperty = z.output<typeof sectionProperty>;
 export type SiteUpdateInput = z.output<typeof siteUpdateSchema>;
 export type UnitCreate = z.output<typeof unitCreateSchema>;
 export type UnitUpdate = z.output<typeof unitUpdateSchema>;

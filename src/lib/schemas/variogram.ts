@@ -1,28 +1,31 @@
 import { z } from 'zod';
+import { transformSchema, variogramModelSchema as engineModelSchema, type VariogramModel } from '$lib/geostat';
+import { SIMULATED_PROPERTIES } from '$lib/properties';
+import type { SavedVariogramSettings } from '$lib/variography';
 
 const finite = z.number().refine(Number.isFinite, { error: 'Must be a finite number.' });
 const positive = finite.refine((v) => v > 0, { error: 'Must be greater than 0.' });
 const nonNegative = finite.refine((v) => v >= 0, { error: 'Must not be negative.' });
 
-/** One nested structure of an engine VariogramModel (practical ranges; a nugget's ranges are ignored). */
-export const structureSchema = z
-	.object({
-		type: z.enum(['nugget', 'spherical', 'exponential', 'gaussian'], { error: 'Choose nugget, spherical, exponential or gaussian.' }),
-		sill: nonNegative,
-		rangeMajor: nonNegative,
-		rangeMinor: nonNegative,
-		rangeVertical: nonNegative
-	})
-	.refine((s) => s.type === 'nugget' || (s.rangeMajor > 0 && s.rangeMinor > 0 && s.rangeVertical > 0), {
-		error: 'Ranges of a structure must be greater than 0.'
-	});
+type EngineModel = z.output<typeof engineModelSchema>;
 
-export const variogramModelSchema = z
-	.object({
-		structures: z.array(structureSchema).min(1, { error: 'A model needs at least one structure.' }).max(4),
-		azimuth: finite
+/**
+ * A model the workspace saves: the engine's VariogramModel schema (structure types, sills ≥ 0, ranges > 0 for
+ * every structure but the nugget) with the workspace's own limits on top — one to four structures, a total sill
+ * above 0, and a number for every range (a recipe may write an unbounded range as null; a saved model may not).
+ */
+export const variogramModelSchema = engineModelSchema
+	.refine((m) => m.structures.length >= 1 && m.structures.length <= 4, { error: 'A model has one to four structures.' })
+	.refine((m) => m.structures.every((s) => s.rangeMajor !== null && s.rangeMinor !== null && s.rangeVertical !== null), {
+		error: 'Every range must be a number.'
 	})
-	.refine((m) => m.structures.reduce((a, s) => a + s.sill, 0) > 0, { error: 'The total sill must be greater than 0.' });
+	.refine((m) => m.structures.reduce((a, s) => a + s.sill, 0) > 0, { error: 'The total sill must be greater than 0.' })
+	.transform(engineModel);
+
+// The refinement above leaves no null range, so the model is the engine's VariogramModel as it stands.
+function engineModel(m: EngineModel): VariogramModel {
+	return m as VariogramModel;
+}
 
 const lagSchema = z.object({
 	lag: positive,
@@ -30,9 +33,9 @@ const lagSchema = z.object({
 	lagTolerance: positive
 });
 
-/** The experimental settings that produced a fit (see VariogramSettings in src/lib/variography). */
+/** The settings saved beside a fitted model (SavedVariogramSettings in src/lib/variography). */
 export const variogramSettingsSchema = z.object({
-	transform: z.enum(['raw', 'normal']),
+	transform: transformSchema,
 	declustered: z.boolean(),
 	vertical: lagSchema,
 	horizontal: lagSchema.extend({
@@ -49,9 +52,23 @@ export const variogramSettingsSchema = z.object({
 		})
 		.optional(),
 	/** Context of the data the fit was made on. */
-	property: z.string().max(40).optional(),
+	property: z.enum(SIMULATED_PROPERTIES).optional(),
 	samples: z.number().int().min(0).optional()
-});
+}) satisfies z.ZodType<SavedVariogramSettings>;
+
+/** Transform names stored before the engine's were used throughout ('raw', 'normal'), and what they mean now. */
+const LEGACY_TRANSFORMS: Record<string, SavedVariogramSettings['transform']> = { raw: 'none', normal: 'normal-score' };
+
+/**
+ * Saved settings as the workspace reads them: rows written under the old transform names ('raw', 'normal')
+ * get the engine's names ('none', 'normal-score'); everything else is checked against the current schema.
+ * @throws {z.ZodError} for a stored object the schema does not accept
+ */
+export function readVariogramSettings(stored: unknown): SavedVariogramSettings {
+	const s = stored as { transform?: unknown } | null;
+	const legacy = s && typeof s.transform === 'string' ? LEGACY_TRANSFORMS[s.transform] : undefined;
+	return variogramSettingsSchema.parse(legacy ? { ...s, transform: legacy } : stored);
+}
 
 export const variogramName = z
 	.string({ error: 'Give the variogram a name.' })

@@ -1,12 +1,9 @@
 import { fitVariogram, type FitInput, type VariogramModel } from '../geostat';
 import { modelFromParameters, parametersFromModel } from './model-parameters';
 import { modelMisfit } from './model-misfit';
-import type { ModelMisfit, ModelParameters } from './types';
+import type { FitRequest, ModelMisfit, ModelParameters } from './types';
 
-export interface AutoFitOptions {
-	type: ModelParameters['type'];
-	/** 'fit' to estimate the nugget, a number to hold it, or 'none' for no nugget. */
-	nugget: 'fit' | 'none' | number;
+export interface AutoFitOptions extends FitRequest {
 	minPairs: number;
 	/** Plan azimuth the horizontal bins were computed along (0 when omnidirectional). */
 	azimuth: number;

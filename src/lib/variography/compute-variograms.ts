@@ -1,14 +1,7 @@
+import { CancelledError } from '../cancelled-error';
 import { experimentalVariogram, type LagBin, type Sample } from '../geostat';
 import type { ExperimentalResult, Progress, VariogramSettings } from './types';
 import type { PreparedSamples } from './prepare-samples';
-
-/** Raised when a computation is cancelled between chunks. */
-export class CancelledError extends Error {
-	constructor() {
-		super('cancelled');
-		this.name = 'CancelledError';
-	}
-}
 
 export interface ComputeOptions {
 	/** Called after each chunk (and once at the start with done 0). */

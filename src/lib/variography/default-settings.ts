@@ -45,7 +45,7 @@ export function defaultSettings(data: Pick<DomainSamplesData, 'samples' | 'lengt
 	}
 	const hLag = nice(median(nearest) ?? (ft ? 30 : 10));
 	return {
-		transform: 'normal',
+		transform: 'normal-score',
 		declustered: true,
 		vertical: { lag: vLag, nLags: Math.min(40, Math.max(5, Math.ceil((ft ? 10 : 3) / vLag))), lagTolerance: vLag / 2 },
 		horizontal: {

@@ -3,6 +3,8 @@ export type {
 	DomainSamplesData,
 	LagSettings,
 	VariogramSettings,
+	FitRequest,
+	SavedVariogramSettings,
 	ExperimentalResult,
 	ModelParameters,
 	Misfit,
@@ -12,10 +14,12 @@ export type {
 } from './types';
 export { prepareSamples } from './prepare-samples';
 export type { PreparedSamples } from './prepare-samples';
-export { computeVariograms, CancelledError } from './compute-variograms';
+export { computeVariograms } from './compute-variograms';
 export type { ComputeOptions } from './compute-variograms';
 export { modelFromParameters, parametersFromModel } from './model-parameters';
 export { modelMisfit, misfitOrNull } from './model-misfit';
+export { modelCurves } from './model-curves';
+export type { ModelCurves } from './model-curves';
 export { autoFit } from './auto-fit';
 export type { AutoFitOptions } from './auto-fit';
 export { rangeSensitivity } from './range-sensitivity';

@@ -10,8 +10,9 @@ export interface PreparedSamples {
 }
 
 /**
- * Turns a domain's sample columns into engine samples of the analysed variable: the raw property, or its
- * normal scores (Deutsch & Journel 1998, ch. V) computed with the declustering weights when `declustered`.
+ * Turns a domain's sample columns into engine samples of the analysed variable: the property's values
+ * (transform 'none'), or their normal scores ('normal-score'; Deutsch & Journel 1998, ch. V) computed with
+ * the declustering weights when `declustered`.
  * The variance returned is that of the analysed values, weighted by the declustering weights when
  * `declustered` (population variance, the sill reference of common practice). Inputs are not mutated.
  * @throws {TypeError} if the columns are missing
@@ -35,7 +36,7 @@ export function prepareSamples(
 		if (!Array.isArray(data.weights) || data.weights.length !== n) throw new RangeError('weights must match the samples');
 		weights = data.weights;
 	}
-	const values = settings.transform === 'normal' ? normalScore(cols.value, weights).scores : Float64Array.from(cols.value);
+	const values = settings.transform === 'normal-score' ? normalScore(cols.value, weights).scores : Float64Array.from(cols.value);
 	const samples: Sample[] = new Array(n);
 	for (let i = 0; i < n; i++) {
 		samples[i] = { x: cols.x[i], y: cols.y[i], z: cols.z[i], value: values[i], sounding: cols.sounding[i] };

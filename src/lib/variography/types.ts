@@ -2,29 +2,15 @@
  * Plain-data shapes of the variography workspace: what the domain-samples endpoint returns, the experimental
  * settings a user picks, and the results the worker hands back. Everything here survives structured clone.
  */
-import type { LagBin, StructureType } from '../geostat';
+import type { DomainInput, LagBin, StructureType } from '../geostat';
+import type { SimulatedProperty } from '../properties';
+import type { DomainSamples } from '../server/services/domains';
 
-/** The body of GET /api/v1/projects/[id]/domains/[did]/samples (the stratigraphy stage's contract). */
-export interface DomainSamplesData {
-	domain: {
-		id: string;
-		name: string;
-		zonationId: string;
-		zonationName: string;
-		property: string;
-		cellHeight: number | null;
-		averaging: string;
-		declusterCell: { x: number; y: number; z: number } | null;
-	};
-	property: { key: string; label: string; unit: string };
-	lengthUnit: 'm' | 'ft';
-	geometry: '2d' | '3d';
-	/** Columns; in 2D x is the chainage and y is 0. */
-	samples: { x: number[]; y: number[]; z: number[]; value: number[]; sounding: string[] };
-	/** Declustering weights summing to 1. */
-	weights: number[];
-	stats: { n: number; mean: number; sd: number; p10: number; p50: number; p90: number };
-}
+/**
+ * What the workspace computes on: a domain's sample columns (in 2D x is the chainage and y is 0), its
+ * declustering weights summing to 1 and the length unit, as GET …/domains/[did]/samples returns them.
+ */
+export type DomainSamplesData = Pick<DomainSamples, 'samples' | 'weights' | 'lengthUnit'>;
 
 /** Lag settings of one direction. */
 export interface LagSettings {
@@ -35,8 +21,8 @@ export interface LagSettings {
 
 /** Everything that decides an experimental variogram pair; saved beside a fitted model. */
 export interface VariogramSettings {
-	/** Raw values of the property, or their normal scores. */
-	transform: 'raw' | 'normal';
+	/** The engine's names: the normal scores of the property ('normal-score'), or its values ('none'). */
+	transform: DomainInput['transform'];
 	/** Use the domain's declustering weights for the normal-score transform and the variance line. */
 	declustered: boolean;
 	vertical: LagSettings;
@@ -52,6 +38,21 @@ export interface VariogramSettings {
 	minPairs: number;
 }
 
+/** How the automatic fit was asked for: the structure, and the nugget fitted, left out or held at a value. */
+export interface FitRequest {
+	type: Exclude<StructureType, 'nugget'>;
+	nugget: 'fit' | 'none' | number;
+}
+
+/** The settings saved beside a fitted model: the experimental settings, the fit request and the data's context. */
+export interface SavedVariogramSettings extends VariogramSettings {
+	fit?: FitRequest;
+	/** The property the domain was analysed in. */
+	property?: SimulatedProperty;
+	/** Number of samples the variograms were computed on. */
+	samples?: number;
+}
+
 /** The experimental variograms of a domain, with the reference variance of the analysed values. */
 export interface ExperimentalResult {
 	vertical: LagBin[];
@@ -65,7 +66,7 @@ export interface ExperimentalResult {
 
 /** The numbers a user edits: one structure plus a nugget, isotropic in plan. */
 export interface ModelParameters {
-	type: Exclude<StructureType, 'nugget'>;
+	type: FitRequest['type'];
 	nugget: number;
 	/** Total sill: nugget + structure. */
 	sill: number;

@@ -1,8 +1,8 @@
 import { describe, it, expect } from 'vitest';
 import seedrandom from 'seedrandom';
 import { mean, variance, quantileSorted } from 'simple-statistics';
-import { weightedMean, weightedVariance, weightedQuantiles } from '../../../src/lib/geostat/index';
-import { expectAbsClose, expectRelClose } from '../../asserts';
+import { inverseNormalCdf, normalScore, weightedMean, weightedPlottingPositions, weightedVariance, weightedQuantiles } from '../../../src/lib/geostat/index';
+import { expectAbsClose, expectAllAbsClose, expectRelClose } from '../../asserts';
 
 describe('weightedMean / weightedVariance', () => {
 	it('weightedMean and weightedVariance match a hand-computed example', () => {
@@ -70,5 +70,43 @@ describe('weightedQuantiles(values, weights, ps)', () => {
 		expect(Array.from(weightedQuantiles([1, 5, 9], [1, 0, 1], [0.5]))).toEqual([5]);
 		expect(() => weightedQuantiles([1], undefined, [1.1])).toThrow('probabilities must be in [0, 1]');
 		expect(() => weightedQuantiles([1], undefined, [NaN])).toThrow(RangeError);
+	});
+});
+
+describe('weightedPlottingPositions(values, weights)', () => {
+	it('weightedPlottingPositions with equal weights puts the i-th of n at (i − ½)/n (Hyndman & Fan 1996, definition 5)', () => {
+		const { values, p } = weightedPlottingPositions([40, 10, 30, 20]);
+		expect(Array.from(values)).toEqual([10, 20, 30, 40]);
+		expect(Array.from(p)).toEqual([0.125, 0.375, 0.625, 0.875]);
+	});
+
+	it('weightedPlottingPositions merges ties into one step, normalises weights and leaves zero weights out (worked by hand)', () => {
+		// Weights 2, 5, 3 (sum 10) on 3, 1, 2: steps [0, .5], [.5, .8], [.8, 1] → midpoints .25, .65, .9.
+		const { values, p } = weightedPlottingPositions([3, 1, 2, 1, 7], [2, 2.5, 3, 2.5, 0]);
+		expect(Array.from(values)).toEqual([1, 2, 3]);
+		expectAllAbsClose(p, [0.25, 0.65, 0.9], 1e-15);
+	});
+
+	it('weightedPlottingPositions are the positions normalScore scores: Φ⁻¹(p) equals the scores, bit for bit', () => {
+		const v = [5.5, 1.25, 3, 3, 9, 0.5, 7];
+		const w = [0.1, 0.3, 0.05, 0.15, 0.2, 0.12, 0.08];
+		const { values, p } = weightedPlottingPositions(v, w);
+		const { table } = normalScore(v, w);
+		expect(Array.from(values)).toEqual(Array.from(table.values));
+		expect(Array.from(p, inverseNormalCdf)).toEqual(Array.from(table.scores));
+	});
+
+	it('weightedQuantiles(values, w, ps) returns the data at their plotting positions and interpolates between them', () => {
+		const v = [3, 1, 2];
+		const w = [2, 5, 3];
+		const { values, p } = weightedPlottingPositions(v, w);
+		expect(Array.from(weightedQuantiles(v, w, p))).toEqual(Array.from(values));
+	});
+
+	it('weightedPlottingPositions rejects what weightedMean rejects', () => {
+		expect(() => weightedPlottingPositions([])).toThrow('no values');
+		expect(() => weightedPlottingPositions([1, NaN])).toThrow('values must be finite');
+		expect(() => weightedPlottingPositions([1, 2], [1])).toThrow('weights length must match values');
+		expect(() => weightedPlottingPositions([1, 2], [0, 0])).toThrow('weights must not all be 0');
 	});
 });

@@ -17,7 +17,6 @@ import {
 	deleteZonation,
 	getDomain,
 	listZonations,
-	membersOverlap,
 	updateDomain
 } from '../../../src/lib/server/services/zonations';
 import { domainSamples } from '../../../src/lib/server/services/domains';
@@ -118,12 +117,6 @@ describe('zonations and domains', () => {
 		createZoneBoundary(t.projectId, { unitId: sand.id, chainageTop: 50, elevationTop: 5, chainageBottom: 50, elevationBottom: -20 }, t.db);
 		return { clay, sand };
 	}
-
-	it('membersOverlap(a, b) treats the whole unit as overlapping each of its zones', () => {
-		expect(membersOverlap({ unitId: 'u', zone: -1 }, { unitId: 'u', zone: 1 })).toBe(true);
-		expect(membersOverlap({ unitId: 'u', zone: 0 }, { unitId: 'u', zone: 1 })).toBe(false);
-		expect(membersOverlap({ unitId: 'u', zone: 0 }, { unitId: 'v', zone: 0 })).toBe(false);
-	});
 
 	it('createZonation(p, input) stores domains with named members and lists them', () => {
 		const { clay, sand } = sandSplit();

@@ -1,4 +1,5 @@
 import type { NormalScoreTable } from '../types';
+import { weightedPlottingPositions } from '../statistics/weighted';
 import { inverseNormalCdf } from './normal';
 
 /** Cumulative probability of the linear tails' anchors: the tails reach zmin / zmax at Φ⁻¹(TAIL_P) / Φ⁻¹(1 − TAIL_P). */
@@ -21,7 +22,8 @@ export interface NormalScoreOptions {
  * Normal-score transform (Deutsch & Journel 1998, ch. V; Goovaerts 1997, ch. 7).
  * Values are sorted; weights (default equal) are normalised to sum 1; each value's score is Φ⁻¹ of the
  * midpoint of its cumulative-weight interval, and tied values share the score of the midpoint of their
- * combined interval. With equal weights the i-th of n distinct values gets Φ⁻¹((i − ½)/n).
+ * combined interval — the weighted plotting positions of weightedPlottingPositions, which weightedQuantiles
+ * and the domains' CDFs use too. With equal weights the i-th of n distinct values gets Φ⁻¹((i − ½)/n).
  *
  * Returns the scores in input order (a new array; inputs are not mutated) and the table that
  * backTransform uses: the distinct values with their scores, and the tail rule.
@@ -34,71 +36,41 @@ export function normalScore(
 	weights?: ArrayLike<number>,
 	opts: NormalScoreOptions = {}
 ): { scores: Float64Array; table: NormalScoreTable } {
-	if (values === null || typeof values !== 'object' || typeof values.length !== 'number') {
-		throw new TypeError('values must be array-like');
-	}
-	const n = values.length;
-	if (n === 0) throw new RangeError('no values');
-	for (let i = 0; i < n; i++) {
-		if (typeof values[i] !== 'number' || !Number.isFinite(values[i])) throw new RangeError('values must be finite');
-	}
-	const w = new Float64Array(n);
-	if (weights === undefined) {
-		w.fill(1);
-	} else {
-		if (weights === null || typeof weights !== 'object' || typeof weights.length !== 'number') {
-			throw new TypeError('weights must be array-like');
-		}
-		if (weights.length !== n) throw new RangeError('weights length must match values');
-		for (let i = 0; i < n; i++) {
-			const wi = weights[i];
-			// Zero weights would give Φ⁻¹(0) = −∞ to an extreme value; leave such samples out instead.
-			if (typeof wi !== 'number' || !(wi > 0) || !Number.isFinite(wi)) throw new RangeError('weights must be positive');
-			w[i] = wi;
+	if (weights !== null && typeof weights === 'object' && typeof weights.length === 'number') {
+		// Zero weights would give Φ⁻¹(0) = −∞ to an extreme value; leave such samples out instead.
+		for (let i = 0; i < weights.length; i++) {
+			if (typeof weights[i] !== 'number' || !(weights[i] > 0) || !Number.isFinite(weights[i])) throw new RangeError('weights must be positive');
 		}
 	}
 	const { tail = 'linear' } = opts;
 	if (tail !== 'linear' && tail !== 'clamp') throw new RangeError("tail must be 'linear' or 'clamp'");
-
-	const order = Array.from({ length: n }, (_, i) => i);
-	order.sort((a, b) => values[a] - values[b] || a - b);
-	let total = 0;
-	for (let i = 0; i < n; i++) total += w[order[i]];
-
-	const distinct: number[] = [];
-	const distinctScores: number[] = [];
-	const scores = new Float64Array(n);
-	let cum = 0;
-	let i = 0;
-	while (i < n) {
-		const v = values[order[i]];
-		let j = i;
-		let groupWeight = 0;
-		while (j < n && values[order[j]] === v) groupWeight += w[order[j++]];
+	const { values: distinct, p } = weightedPlottingPositions(values, weights);
+	const m = distinct.length;
+	const distinctScores = new Float64Array(m);
+	for (let k = 0; k < m; k++) {
 		// Clamp guards against rounding of the running sum pushing the midpoint to 0 or 1.
-		const p = Math.min(Math.max((cum + groupWeight / 2) / total, Number.MIN_VALUE), 1 - Number.EPSILON / 2);
-		const y = inverseNormalCdf(p);
-		for (let k = i; k < j; k++) scores[order[k]] = y;
-		distinct.push(v);
-		distinctScores.push(y);
-		cum += groupWeight;
-		i = j;
+		distinctScores[k] = inverseNormalCdf(Math.min(Math.max(p[k], Number.MIN_VALUE), 1 - Number.EPSILON / 2));
 	}
+	const scores = new Float64Array(values.length);
+	for (let i = 0; i < values.length; i++) scores[i] = distinctScores[indexOf(distinct, values[i])];
 	const lo = distinct[0];
-	const hi = distinct[distinct.length - 1];
+	const hi = distinct[m - 1];
 	const { zmin = lo, zmax = hi } = opts;
 	if (typeof zmin !== 'number' || !Number.isFinite(zmin) || zmin > lo) throw new RangeError('zmin must be <= the smallest value');
 	if (typeof zmax !== 'number' || !Number.isFinite(zmax) || zmax < hi) throw new RangeError('zmax must be >= the largest value');
-	return {
-		scores,
-		table: {
-			values: Float64Array.from(distinct),
-			scores: Float64Array.from(distinctScores),
-			zmin,
-			zmax,
-			tail
-		}
-	};
+	return { scores, table: { values: distinct, scores: distinctScores, zmin, zmax, tail } };
+}
+
+/** Index of v in the ascending distinct values `sorted` (v is one of them). */
+function indexOf(sorted: Float64Array, v: number): number {
+	let lo = 0;
+	let hi = sorted.length - 1;
+	while (lo < hi) {
+		const mid = (lo + hi) >> 1;
+		if (sorted[mid] < v) lo = mid + 1;
+		else hi = mid;
+	}
+	return lo;
 }
 
 /**

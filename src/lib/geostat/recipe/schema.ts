@@ -29,12 +29,15 @@ export const variogramModelSchema = z.object({
 	azimuth: z.number()
 });
 
+/** The transform a domain is simulated under: normal scores (sequential Gaussian simulation) or the values themselves. */
+export const transformSchema = z.enum(['normal-score', 'none']);
+
 export const domainInputSchema = z
 	.object({
 		samples: z.array(sampleSchema),
 		weights: z.array(z.number().positive()).optional(),
 		model: variogramModelSchema,
-		transform: z.enum(['normal-score', 'none']),
+		transform: transformSchema,
 		mean: z.number().optional(),
 		kriging: z.enum(['simple', 'ordinary']),
 		zmin: z.number().optional(),

@@ -69,10 +69,24 @@ export function weightedVariance(values: ArrayLike<number>, weights?: ArrayLike<
 }
 
 /**
- * Weighted quantiles at probabilities ps. Each distinct value sits at the midpoint of its
- * cumulative-weight interval (the same plotting position as normalScore; with equal weights this is
- * Hyndman & Fan 1996 definition 5, p = (i − ½)/n); quantiles interpolate linearly between those points
- * and are the smallest / largest value outside them. Zero-weight values are ignored.
+ * Plotting positions of a weighted sample: its distinct values ascending, each at the midpoint of its
+ * cumulative-weight step, p = (Σ weights of smaller values + ½ its own weight) / Σ weights. Tied values
+ * share one step. With equal weights this is Hyndman & Fan (1996) definition 5, p = (i − ½)/n; normalScore
+ * scores the same positions. Zero-weight values are left out. These are the points of a weighted empirical
+ * CDF, and weightedQuantiles interpolates between them.
+ * @throws as weightedMean
+ */
+export function weightedPlottingPositions(
+	values: ArrayLike<number>,
+	weights?: ArrayLike<number>
+): { values: Float64Array; p: Float64Array } {
+	return positions(values, check(values, weights));
+}
+
+/**
+ * Weighted quantiles at probabilities ps: linear interpolation between the weighted plotting positions
+ * (weightedPlottingPositions, the same positions as normalScore); the smallest / largest value outside them.
+ * Zero-weight values are ignored.
  * @throws as weightedMean, and RangeError if a probability is outside [0, 1] or NaN
  */
 export function weightedQuantiles(
@@ -84,23 +98,7 @@ export function weightedQuantiles(
 	for (let k = 0; k < ps.length; k++) {
 		if (!(ps[k] >= 0 && ps[k] <= 1)) throw new RangeError('probabilities must be in [0, 1]');
 	}
-	const order: number[] = [];
-	for (let i = 0; i < w.length; i++) if (w[i] > 0) order.push(i);
-	order.sort((a, b) => values[a] - values[b] || a - b);
-	let total = 0;
-	for (const i of order) total += w[i];
-	const xs: number[] = [];
-	const pp: number[] = [];
-	let cum = 0;
-	let i = 0;
-	while (i < order.length) {
-		const v = values[order[i]];
-		let g = 0;
-		while (i < order.length && values[order[i]] === v) g += w[order[i++]];
-		xs.push(v);
-		pp.push((cum + g / 2) / total);
-		cum += g;
-	}
+	const { values: xs, p: pp } = positions(values, w);
 	const out = new Float64Array(ps.length);
 	const m = xs.length;
 	for (let k = 0; k < ps.length; k++) {
@@ -119,4 +117,26 @@ export function weightedQuantiles(
 		}
 	}
 	return out;
+}
+
+/** Distinct values with positive weight, ascending, at the midpoints of their cumulative-weight steps; `w` is checked. */
+function positions(values: ArrayLike<number>, w: Float64Array): { values: Float64Array; p: Float64Array } {
+	const order: number[] = [];
+	for (let i = 0; i < w.length; i++) if (w[i] > 0) order.push(i);
+	order.sort((a, b) => values[a] - values[b] || a - b);
+	let total = 0;
+	for (const i of order) total += w[i];
+	const xs: number[] = [];
+	const pp: number[] = [];
+	let cum = 0;
+	let i = 0;
+	while (i < order.length) {
+		const v = values[order[i]];
+		let g = 0;
+		while (i < order.length && values[order[i]] === v) g += w[order[i++]];
+		xs.push(v);
+		pp.push((cum + g / 2) / total);
+		cum += g;
+	}
+	return { values: Float64Array.from(xs), p: Float64Array.from(pp) };
 }

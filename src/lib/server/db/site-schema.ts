@@ -4,6 +4,8 @@
  * stored as little-endian Float64 BLOBs, one per quantity (see DEVELOPERS.md for the measurement).
  */
 import { blob, index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import type { VariogramModel } from '../../geostat';
+import { SIMULATED_PROPERTIES } from '../../properties';
 import { now, projects, timestamp, users } from './schema';
 
 const id = () =>
@@ -19,9 +21,6 @@ const json = <T>(name: string) => text(name, { mode: 'json' }).$type<T>();
 export const SOURCE_FORMATS = ['delimited', 'gef', 'ags4'] as const;
 export type SourceFormat = (typeof SOURCE_FORMATS)[number];
 
-/** Properties a unit can be simulated in; keys of the derived-property arrays. */
-export const SIMULATED_PROPERTIES = ['qc1Ncs', 'suRatio', 'Ic', 'qt', 'FC', 'Dr', 'su', 'Qtn'] as const;
-export type SimulatedProperty = (typeof SIMULATED_PROPERTIES)[number];
 
 export const AVERAGING = ['none', 'mean', 'median'] as const;
 export type Averaging = (typeof AVERAGING)[number];
@@ -201,9 +200,12 @@ export const variograms = sqliteTable(
 		name: text('name').notNull(),
 		version: integer('version').notNull(),
 		/** The VariogramModel, as the engine takes it. */
-		model: json<Record<string, unknown>>('model').notNull(),
-		/** The experimental settings (property, transform, declustering, lags, band …) that produced the fit. */
-		settings: json<Record<string, unknown>>('settings').notNull(),
+		model: json<VariogramModel>('model').notNull(),
+		/**
+		 * The experimental settings (property, transform, declustering, lags, band …) that produced the fit; read
+		 * through readVariogramSettings ($lib/schemas/variogram), since older rows use older transform names.
+		 */
+		settings: json<unknown>('settings').notNull(),
 		misfit: real('misfit'),
 		note: text('note').notNull().default(''),
 		createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),

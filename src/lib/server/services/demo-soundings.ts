@@ -1,7 +1,7 @@
 import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { importSoundings, type ImportResult } from './import';
-import type { DbOrTx } from './site';
+import type { DbOrTx } from '$lib/server/db/transaction';
 
 /**
  * Where the shipped demo files are: static/demo of the checkout (the server runs from it), else the copy

@@ -11,7 +11,8 @@ import {
 	unitTops,
 	type LeveeUnitKey
 } from '$lib/server/scenario/levee';
-import { updateSite, type DbOrTx } from './site';
+import type { DbOrTx } from '$lib/server/db/transaction';
+import { updateSite } from './site';
 import { createUnit, createZoneBoundary } from './stratigraphy';
 import { createZonation } from './zonations';
 

@@ -2,9 +2,12 @@ import { and, asc, eq, inArray } from 'drizzle-orm';
 import { CptFlag, derive, type DerivedSounding, type UnitAtSounding } from '$lib/cpt';
 import { getDb } from '$lib/server/db';
 import { fromFloat64Blob } from '$lib/server/db/float64';
-import { contacts, soundings, units, type SimulatedProperty, type Sounding, type Unit } from '$lib/server/db/site-schema';
+import { contacts, soundings, units, type Sounding, type Unit } from '$lib/server/db/site-schema';
+import type { SimulatedProperty } from '$lib/properties';
 import { ServiceError } from '$lib/server/errors';
-import { getSite, locateSounding, type DbOrTx, type SiteView, type SoundingLocation } from './site';
+import type { DbOrTx } from '$lib/server/db/transaction';
+import { locateSounding, type SoundingLocation } from '$lib/site';
+import { getSite, type SiteView } from './site';
 
 /** A project unit as it stands at one sounding. */
 export interface UnitAtSoundingView {

@@ -1,8 +1,9 @@
 import { eq } from 'drizzle-orm';
 import type { Ags4GeologyLayer, ParsedSounding } from '$lib/cpt';
-import { contacts, units, type SimulatedProperty } from '$lib/server/db/site-schema';
+import type { SimulatedProperty } from '$lib/properties';
+import { contacts, units } from '$lib/server/db/site-schema';
 import { createUnit } from './stratigraphy';
-import type { DbOrTx } from './site';
+import type { DbOrTx } from '$lib/server/db/transaction';
 
 /** Which project unit the layers of one GEOL key become; `unit` null leaves them out. */
 export interface GeologyUnitChoice {

@@ -1,7 +1,7 @@
 import { and, count, eq, inArray } from 'drizzle-orm';
 import type { ParsedSounding } from '$lib/cpt';
 import { contacts, soundings, sourceFiles, type SourceFormat } from '$lib/server/db/site-schema';
-import type { DbOrTx } from './site';
+import type { DbOrTx } from '$lib/server/db/transaction';
 
 /** What to do with a sounding whose name is already taken: in the project, or by another file of the upload. */
 export type ClashAction = 'skip' | 'replace' | 'rename';

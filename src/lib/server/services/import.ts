@@ -18,9 +18,9 @@ import { getDb } from '$lib/server/db';
 import { toFloat64Blob } from '$lib/server/db/float64';
 import { soundings, sourceFiles, units, type SourceFormat } from '$lib/server/db/site-schema';
 import { ServiceError, type ErrorStatus } from '$lib/server/errors';
+import type { DbOrTx } from '$lib/server/db/transaction';
 import { geologyOffer, writeGeologyContacts, type GeologyOffer, type GeologyRequest, type GeologySource, type WrittenSounding } from './import-geology';
 import { planSoundings, type ClashResolution, type PlannedSounding } from './import-plan';
-import type { DbOrTx } from './site';
 
 /** One uploaded file: its name as the user's computer gave it, and its bytes. */
 export interface UploadedFile {

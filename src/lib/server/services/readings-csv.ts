@@ -1,5 +1,5 @@
 import { describeFlags } from '$lib/cpt';
-import { SECTION_PROPERTY_INFO, type SectionProperty } from '$lib/schemas/stratigraphy';
+import { PROPERTY_INFO, labelWithUnit, type PropertyKey } from '$lib/properties';
 import type { DerivedSoundingResult } from './derived';
 
 /** One column of the readings table: its header and how a reading's value is written. */
@@ -8,63 +8,36 @@ interface ReadingColumn {
 	cell: (r: DerivedSoundingResult, i: number) => string;
 }
 
-/**
- * Decimals written per quantity, chosen for people reading a spreadsheet: about the resolution of a CPT
- * reading (1 kPa on qc, 0.1 kPa on fs and u2, 1 mm on depth) and two or three significant figures on the
- * dimensionless ones. This table and the labels of SECTION_PROPERTY_INFO are the one place the CSV takes them
- * from, to be replaced by the project's property catalogue.
- */
-const DECIMALS = {
-	coordinate: 2,
-	depth: 3,
-	qc: 0,
-	fs: 1,
-	u2: 1,
-	qt: 0,
-	sigmaV: 1,
-	u0: 1,
-	sigmaVeff: 1,
-	Qtn: 1,
-	Fr: 2,
-	Ic: 2,
-	n: 3,
-	FC: 1,
-	CN: 3,
-	qc1N: 1,
-	qc1Ncs: 1,
-	CRR: 3,
-	Dr: 2,
-	su: 1,
-	suRatio: 3
-} as const;
+/** Where a reading is: coordinates in the project's length unit to the centimetre, depth and elevation to the millimetre. */
+const LOCATION_DECIMALS = { coordinate: 2, depth: 3 } as const;
 
-/** Derived quantities that are not in SECTION_PROPERTY_INFO, with their labels and units. */
-const OTHER_INFO: Record<string, { label: string; unit: string }> = {
-	sigmaV: { label: 'σv', unit: 'kPa' },
-	u0: { label: 'u0', unit: 'kPa' },
-	sigmaVeff: { label: 'σ′v', unit: 'kPa' },
-	Fr: { label: 'Fr', unit: '%' },
-	n: { label: 'n', unit: '–' },
-	CN: { label: 'CN', unit: '–' },
-	qc1N: { label: 'qc1N', unit: '–' }
+/**
+ * Derived quantities outside the property catalogue ($lib/properties), with their labels, units and the
+ * decimals written: about two or three significant figures, for people reading a spreadsheet.
+ */
+const OTHER_INFO: Record<string, { label: string; unit: string; decimals: number }> = {
+	sigmaV: { label: 'σv', unit: 'kPa', decimals: 1 },
+	u0: { label: 'u0', unit: 'kPa', decimals: 1 },
+	sigmaVeff: { label: 'σ′v', unit: 'kPa', decimals: 1 },
+	Fr: { label: 'Fr', unit: '%', decimals: 2 },
+	n: { label: 'n', unit: '–', decimals: 3 },
+	CN: { label: 'CN', unit: '–', decimals: 3 },
+	qc1N: { label: 'qc1N', unit: '–', decimals: 1 }
 };
 
 const DERIVED_KEYS = ['qt', 'sigmaV', 'u0', 'sigmaVeff', 'Qtn', 'Fr', 'Ic', 'n', 'FC', 'CN', 'qc1N', 'qc1Ncs', 'CRR', 'Dr', 'su', 'suRatio'] as const;
 type DerivedKey = (typeof DERIVED_KEYS)[number];
+
+/** Label, unit and decimals of a quantity: from the property catalogue, else from OTHER_INFO. */
+function infoOf(key: DerivedKey | 'qc' | 'fs' | 'u2'): { label: string; unit: string; decimals: number } {
+	return key in PROPERTY_INFO ? PROPERTY_INFO[key as PropertyKey] : OTHER_INFO[key];
+}
 
 /** A number rounded for people: fixed decimals, no "-0", blank for NaN or infinity. */
 export function roundedCell(v: number | null | undefined, decimals: number): string {
 	if (v === null || v === undefined || !Number.isFinite(v)) return '';
 	const s = v.toFixed(decimals);
 	return /^-0\.?0*$/.test(s) ? s.slice(1) : s;
-}
-
-function headerOf(label: string, unit: string): string {
-	return unit === '–' || unit === '' ? label : `${label} (${unit})`;
-}
-
-function infoOf(key: DerivedKey): { label: string; unit: string } {
-	return (SECTION_PROPERTY_INFO as Record<string, { label: string; unit: string }>)[key as SectionProperty] ?? OTHER_INFO[key];
 }
 
 /** RFC 4180: a field with a comma, quote or line break is quoted, quotes doubled. */
@@ -85,19 +58,19 @@ function columnsFor(lengthUnit: string): ReadingColumn[] {
 	};
 	return [
 		{ header: 'sounding', cell: (r) => field(r.sounding.name) },
-		{ header: `easting (${lengthUnit})`, cell: fixed((r) => r.sounding.x, DECIMALS.coordinate) },
-		{ header: `northing (${lengthUnit})`, cell: fixed((r) => r.sounding.y, DECIMALS.coordinate) },
-		{ header: `chainage (${lengthUnit})`, cell: fixed((r) => r.sounding.chainage, DECIMALS.coordinate) },
-		{ header: `ground elevation (${lengthUnit})`, cell: fixed((r) => r.sounding.groundElevation, DECIMALS.coordinate) },
-		{ header: 'depth (m)', cell: measured((r) => r.depth, DECIMALS.depth) },
-		{ header: 'elevation (m)', cell: measured((r) => r.derived.elevation, DECIMALS.depth) },
+		{ header: `easting (${lengthUnit})`, cell: fixed((r) => r.sounding.x, LOCATION_DECIMALS.coordinate) },
+		{ header: `northing (${lengthUnit})`, cell: fixed((r) => r.sounding.y, LOCATION_DECIMALS.coordinate) },
+		{ header: `chainage (${lengthUnit})`, cell: fixed((r) => r.sounding.chainage, LOCATION_DECIMALS.coordinate) },
+		{ header: `ground elevation (${lengthUnit})`, cell: fixed((r) => r.sounding.groundElevation, LOCATION_DECIMALS.coordinate) },
+		{ header: 'depth (m)', cell: measured((r) => r.depth, LOCATION_DECIMALS.depth) },
+		{ header: 'elevation (m)', cell: measured((r) => r.derived.elevation, LOCATION_DECIMALS.depth) },
 		{ header: 'unit', cell: (r, i) => (r.unit[i] >= 0 ? field(r.units[r.unit[i]].name) : '') },
-		{ header: 'qc (kPa)', cell: measured((r) => r.qc, DECIMALS.qc) },
-		{ header: 'fs (kPa)', cell: measured((r) => r.fs, DECIMALS.fs) },
-		{ header: 'u2 (kPa)', cell: measured((r) => r.u2, DECIMALS.u2) },
+		{ header: labelWithUnit(infoOf('qc')), cell: measured((r) => r.qc, infoOf('qc').decimals) },
+		{ header: labelWithUnit(infoOf('fs')), cell: measured((r) => r.fs, infoOf('fs').decimals) },
+		{ header: labelWithUnit(infoOf('u2')), cell: measured((r) => r.u2, infoOf('u2').decimals) },
 		...DERIVED_KEYS.map((key) => {
-			const { label, unit } = infoOf(key);
-			return { header: headerOf(label, unit), cell: measured((r) => r.derived[key], DECIMALS[key]) };
+			const info = infoOf(key);
+			return { header: labelWithUnit(info), cell: measured((r) => r.derived[key], info.decimals) };
 		}),
 		{ header: 'flags', cell: (r, i) => describeFlags(r.flags[i]).join(' ') }
 	];
@@ -105,7 +78,7 @@ function columnsFor(lengthUnit: string): ReadingColumn[] {
 
 /**
  * The readings of derived soundings as CSV text chunks, one chunk for the header and one per sounding, so a
- * response can stream them. Numbers are rounded for people per quantity (see DECIMALS); blank where a value
+ * response can stream them. Numbers are rounded for people per quantity (the catalogue's decimals); blank where a value
  * is not defined (NaN).
  */
 export function* readingsCsv(results: Iterable<DerivedSoundingResult>, lengthUnit: string): Generator<string> {

@@ -1,11 +1,10 @@
 import { eq } from 'drizzle-orm';
-import { getDb, type Db } from '$lib/server/db';
+import { getDb } from '$lib/server/db';
+import type { DbOrTx } from '$lib/server/db/transaction';
 import { projects } from '$lib/server/db/schema';
-import { siteSettings, type Sounding } from '$lib/server/db/site-schema';
+import { siteSettings } from '$lib/server/db/site-schema';
 import { ServiceError } from '$lib/server/errors';
-
-/** A database or a transaction on one; services take either so a caller can group writes. */
-export type DbOrTx = Db | Parameters<Parameters<Db['transaction']>[0]>[0];
+import { checkPolyline } from '$lib/site';
 
 /** The site settings of a project as they leave the server (defaults filled in when none are stored). */
 export interface SiteView {
@@ -57,98 +56,4 @@ export function updateSite(projectId: string, input: SiteUpdate, db: DbOrTx = ge
 		.onConflictDoUpdate({ target: siteSettings.projectId, set: { ...values, updatedAt: new Date() } })
 		.run();
 	return getSite(projectId, db);
-}
-
-/** Where a point projects onto a polyline. */
-export interface Projection {
-	/** Distance along the polyline from its first point to the foot of the perpendicular. */
-	chainage: number;
-	/** Signed distance from the line: positive to the right looking in the direction of increasing chainage. */
-	offset: number;
-	/** Index of the segment the point projects onto. */
-	segment: number;
-}
-
-/**
- * Projects a plan point onto a polyline: the foot of the perpendicular on the nearest segment gives the
- * chainage (distance along the line) and the signed offset. The first and last segments are extended
- * beyond the line's ends, so a point just before the start gets a negative chainage rather than being
- * pinned to 0 (common practice for stationing). On equal distances the earlier segment wins.
- * Zero-length segments are skipped.
- * @throws {RangeError} when the line has fewer than two distinct points or a coordinate is not finite
- */
-export function projectOntoPolyline(line: ReadonlyArray<readonly [number, number]>, x: number, y: number): Projection {
-	checkPolyline(line);
-	if (!Number.isFinite(x) || !Number.isFinite(y)) throw new RangeError('point coordinates must be finite');
-	const segments: { ax: number; ay: number; dx: number; dy: number; len: number; start: number; index: number }[] = [];
-	let start = 0;
-	for (let i = 0; i + 1 < line.length; i++) {
-		const [ax, ay] = line[i];
-		const dx = line[i + 1][0] - ax;
-		const dy = line[i + 1][1] - ay;
-		const len = Math.sqrt(dx * dx + dy * dy);
-		if (len > 0) segments.push({ ax, ay, dx, dy, len, start, index: i });
-		start += len;
-	}
-	let best: Projection | undefined;
-	let bestDistance = Infinity;
-	segments.forEach((s, k) => {
-		let t = ((x - s.ax) * s.dx + (y - s.ay) * s.dy) / (s.len * s.len);
-		if (k > 0 && t < 0) t = 0;
-		if (k < segments.length - 1 && t > 1) t = 1;
-		const fx = s.ax + t * s.dx;
-		const fy = s.ay + t * s.dy;
-		const distance = Math.sqrt((x - fx) * (x - fx) + (y - fy) * (y - fy));
-		if (distance < bestDistance) {
-			bestDistance = distance;
-			// The cross product of the direction with the point's vector is negative on the right.
-			const cross = s.dx * (y - s.ay) - s.dy * (x - s.ax);
-			best = { chainage: s.start + t * s.len, offset: cross > 0 ? -distance : distance, segment: s.index };
-		}
-	});
-	return best!;
-}
-
-/** Length of a polyline. */
-export function polylineLength(line: ReadonlyArray<readonly [number, number]>): number {
-	let total = 0;
-	for (let i = 0; i + 1 < line.length; i++) {
-		total += Math.sqrt((line[i + 1][0] - line[i][0]) ** 2 + (line[i + 1][1] - line[i][1]) ** 2);
-	}
-	return total;
-}
-
-/** A sounding's place in the section. */
-export interface SoundingLocation {
-	/** Chainage along the section line; null when neither a line and easting/northing nor a given chainage exist. */
-	chainage: number | null;
-	/** Signed offset from the section line; null when not projected. */
-	offset: number | null;
-	/** True when |offset| exceeds the site's off-line tolerance. */
-	farOffLine: boolean;
-	/** Where the chainage came from. */
-	source: 'projected' | 'given' | 'none';
-}
-
-/**
- * Locates a sounding in the section: projected from its easting/northing when the site has a section
- * line, else the chainage stored with the sounding (files located by chainage only), else none.
- */
-export function locateSounding(site: Pick<SiteView, 'sectionLine' | 'offLineTolerance'>, s: Pick<Sounding, 'x' | 'y' | 'chainage'>): SoundingLocation {
-	if (site.sectionLine && site.sectionLine.length >= 2 && s.x != null && s.y != null) {
-		const p = projectOntoPolyline(site.sectionLine, s.x, s.y);
-		return { chainage: p.chainage, offset: p.offset, farOffLine: Math.abs(p.offset) > site.offLineTolerance, source: 'projected' };
-	}
-	if (s.chainage != null) return { chainage: s.chainage, offset: null, farOffLine: false, source: 'given' };
-	return { chainage: null, offset: null, farOffLine: false, source: 'none' };
-}
-
-function checkPolyline(line: ReadonlyArray<readonly [number, number]>): void {
-	if (!Array.isArray(line)) throw new RangeError('the section line must be a list of points');
-	for (const p of line) {
-		if (!Array.isArray(p) || p.length !== 2 || !Number.isFinite(p[0]) || !Number.isFinite(p[1])) {
-			throw new RangeError('section line points must be [x, y] with finite coordinates');
-		}
-	}
-	if (!(polylineLength(line) > 0)) throw new RangeError('the section line needs two distinct points');
 }

@@ -3,7 +3,10 @@ import { getDb } from '$lib/server/db';
 import { fromFloat64Blob } from '$lib/server/db/float64';
 import { soundings, sourceFiles, type SourceFormat } from '$lib/server/db/site-schema';
 import { ServiceError } from '$lib/server/errors';
-import { getSite, locateSounding, type DbOrTx, type SiteView } from './site';
+import { derivedJson, deriveSounding, jsonColumn, type UnitAtSoundingView } from './derived';
+import type { DbOrTx } from '$lib/server/db/transaction';
+import { locateSounding } from '$lib/site';
+import { getSite, type SiteView } from './site';
 
 /** A sounding as the table lists it: location, extent and where it came from, without its readings. */
 export interface SoundingSummary {
@@ -127,6 +130,49 @@ export function getSounding(projectId: string, soundingId: string, db: DbOrTx = 
 			u2: row.u2 ? fromFloat64Blob(row.u2) : null,
 			extras
 		}
+	};
+}
+
+/** A numeric column in JSON: NaN and ±Infinity become null. */
+export type JsonColumn = (number | null)[];
+
+/** GET …/soundings/[sid]: one sounding with its measured columns (m, kPa) and derived properties, as JSON. */
+export interface SoundingDetailView {
+	sounding: SoundingSummary;
+	groundwater: { elevation: number; source: 'sounding' | 'project' | 'assumed' };
+	columns: { depth: JsonColumn; qc: JsonColumn; fs: JsonColumn; u2: JsonColumn | null; extras: Record<string, JsonColumn> };
+	/** The CPT pipeline's columns by name (qt, Ic, qc1Ncs, suRatio …; see DerivedSounding in $lib/cpt). */
+	derived: Record<string, JsonColumn>;
+	/** Index into `units` of each reading's unit, −1 for none. */
+	unit: number[];
+	/** CptFlag bitmask per reading. */
+	flags: number[];
+	units: UnitAtSoundingView[];
+	warnings: string[];
+}
+
+/**
+ * One sounding as the profile page reads it: getSounding's columns and deriveSounding's properties.
+ * @throws ServiceError 404 when the sounding is not in the project.
+ */
+export function soundingDetailView(projectId: string, soundingId: string, db: DbOrTx = getDb()): SoundingDetailView {
+	const { columns, ...sounding } = getSounding(projectId, soundingId, db);
+	const derived = deriveSounding(projectId, sounding.id, db);
+	return {
+		sounding,
+		groundwater: { elevation: derived.sounding.groundwaterElevation, source: derived.sounding.groundwaterSource },
+		columns: {
+			depth: jsonColumn(columns.depth),
+			qc: jsonColumn(columns.qc),
+			fs: jsonColumn(columns.fs),
+			u2: columns.u2 ? jsonColumn(columns.u2) : null,
+			extras: Object.fromEntries(Object.entries(columns.extras).map(([k, v]) => [k, jsonColumn(v)]))
+		},
+		derived: derivedJson(derived),
+		unit: Array.from(derived.unit),
+		flags: Array.from(derived.flags),
+		units: derived.units,
+		warnings: derived.warnings
 	};
 }
 

@@ -1,11 +1,13 @@
 import { and, asc, eq } from 'drizzle-orm';
-import { Delaunay } from 'd3';
-import { getDb, type Db } from '$lib/server/db';
+import { getDb } from '$lib/server/db';
+import { inTransaction, type DbOrTx } from '$lib/server/db/transaction';
 import { contacts, soundings, units, zoneBoundaries, type Unit, type ZoneBoundary } from '$lib/server/db/site-schema';
 import { ServiceError } from '$lib/server/errors';
-import { SECTION_PROPERTY_INFO, type ContactPut, type SectionProperty, type UnitCreate, type UnitUpdate, type ZoneBoundaryInput } from '$lib/schemas/stratigraphy';
+import type { ContactPut, UnitCreate, UnitUpdate, ZoneBoundaryInput } from '$lib/schemas/stratigraphy';
+import { PROPERTY_INFO, type PropertyKey } from '$lib/properties';
+import { contactLines, locateSounding, zoneNamesOf, type BoundaryLine } from '$lib/site';
 import { deriveSoundings } from './derived';
-import { getSite, locateSounding, type DbOrTx, type SiteView } from './site';
+import { getSite, type SiteView } from './site';
 
 /**
  * Default unit colours, our own set: earthy hues that stay apart from each other and from the teal accent,
@@ -52,13 +54,6 @@ export function unitView(u: Unit, boundaryCount: number): UnitView {
 		property: u.property,
 		zoneNames: zoneNamesOf(u, boundaryCount)
 	};
-}
-
-/** Names of a unit's zones: the stored ones where they fit the boundary count, else "Zone 1", "Zone 2" … */
-export function zoneNamesOf(u: Pick<Unit, 'name' | 'zoneNames'>, boundaryCount: number): string[] {
-	const n = boundaryCount + 1;
-	if (n === 1) return [u.zoneNames?.length === 1 ? u.zoneNames[0] : u.name];
-	return Array.from({ length: n }, (_, k) => u.zoneNames?.[k] ?? `Zone ${k + 1}`);
 }
 
 /** The project's units in stacking order (position 0 on top). */
@@ -174,91 +169,6 @@ export function deleteContact(projectId: string, soundingId: string, unitId: str
 	if (r.changes === 0) throw new ServiceError(404, 'Contact not found.');
 }
 
-/** A value known at a chainage; NaN marks a unit absent at that sounding. */
-export interface Station {
-	chainage: number;
-	value: number;
-}
-
-/**
- * Linear interpolation along chainage between the two neighbouring stations; constant beyond the first
- * and last station. Where either neighbour is NaN (the unit is absent there) the result is NaN: the
- * pinch-out lies somewhere between them and linear interpolation cannot place it. Stations need not be
- * sorted; at equal chainages the first given wins. Not mutating.
- * @throws {RangeError} on no stations or a non-finite chainage
- */
-export function interpolateAlongChainage(stations: ReadonlyArray<Station>, chainage: number): number {
-	if (stations.length === 0) throw new RangeError('no stations');
-	if (!Number.isFinite(chainage)) throw new RangeError('chainage must be finite');
-	const sorted = sortStations(stations);
-	if (chainage <= sorted[0].chainage) return sorted[0].value;
-	const last = sorted[sorted.length - 1];
-	if (chainage >= last.chainage) return last.value;
-	let lo = 0;
-	let hi = sorted.length - 1;
-	while (hi - lo > 1) {
-		const mid = (lo + hi) >> 1;
-		if (sorted[mid].chainage <= chainage) lo = mid;
-		else hi = mid;
-	}
-	const a = sorted[lo];
-	const b = sorted[hi];
-	if (chainage === a.chainage) return a.value;
-	const t = (chainage - a.chainage) / (b.chainage - a.chainage);
-	return a.value + t * (b.value - a.value);
-}
-
-/** A value known at a plan point; NaN marks a unit absent there. */
-export interface PlanPoint {
-	x: number;
-	y: number;
-	value: number;
-}
-
-/**
- * A surface through plan points: linear on the triangles of their Delaunay triangulation (d3-delaunay),
- * i.e. barycentric interpolation inside each triangle; the nearest point's value outside the convex hull.
- * Points that all lie on one line are interpolated along that line instead. A triangle with a NaN corner
- * gives NaN (the unit is absent there). Duplicate points keep the first value.
- * @throws {RangeError} on no points or a non-finite coordinate
- */
-export function triangulatedSurface(points: ReadonlyArray<PlanPoint>): (x: number, y: number) => number {
-	if (points.length === 0) throw new RangeError('no points');
-	for (const p of points) if (!Number.isFinite(p.x) || !Number.isFinite(p.y)) throw new RangeError('coordinates must be finite');
-	const pts = points.map((p) => ({ ...p }));
-	if (pts.length === 1) return () => pts[0].value;
-	const delaunay = Delaunay.from(pts, (p) => p.x, (p) => p.y);
-	const t = delaunay.triangles;
-	// d3-delaunay jitters collinear input into sliver triangles and marks it `collinear`; slivers would interpolate badly.
-	if (t.length === 0 || (delaunay as unknown as { collinear?: Int32Array }).collinear) {
-		// All on one line: measure positions along the direction from the first to the farthest point.
-		const o = pts[0];
-		let far = pts[0];
-		for (const p of pts) if ((p.x - o.x) ** 2 + (p.y - o.y) ** 2 > (far.x - o.x) ** 2 + (far.y - o.y) ** 2) far = p;
-		const len = Math.sqrt((far.x - o.x) ** 2 + (far.y - o.y) ** 2);
-		if (len === 0) return () => pts[0].value;
-		const ux = (far.x - o.x) / len;
-		const uy = (far.y - o.y) / len;
-		const stations = pts.map((p) => ({ chainage: (p.x - o.x) * ux + (p.y - o.y) * uy, value: p.value }));
-		return (x, y) => interpolateAlongChainage(stations, (x - o.x) * ux + (y - o.y) * uy);
-	}
-	// Relative to the triangle's size, so huge map coordinates do not defeat the inside test.
-	const EPS = 1e-12;
-	return (x, y) => {
-		for (let k = 0; k < t.length; k += 3) {
-			const a = pts[t[k]];
-			const b = pts[t[k + 1]];
-			const c = pts[t[k + 2]];
-			const det = (b.y - c.y) * (a.x - c.x) + (c.x - b.x) * (a.y - c.y);
-			const l1 = ((b.y - c.y) * (x - c.x) + (c.x - b.x) * (y - c.y)) / det;
-			const l2 = ((c.y - a.y) * (x - c.x) + (a.x - c.x) * (y - c.y)) / det;
-			const l3 = 1 - l1 - l2;
-			if (l1 >= -EPS && l2 >= -EPS && l3 >= -EPS) return l1 * a.value + l2 * b.value + l3 * c.value;
-		}
-		return pts[delaunay.find(x, y)].value;
-	};
-}
-
 /** A unit's top in the section: its stations at the soundings, and polylines between consecutive present ones. */
 export interface SectionContact {
 	unitId: string;
@@ -269,7 +179,7 @@ export interface SectionContact {
 
 /**
  * The contacts of every unit along the section, interpolated linearly along chainage between soundings
- * (see {@link interpolateAlongChainage}). Soundings without a chainage are left out.
+ * (contactLines). Soundings without a chainage are left out.
  */
 export function sectionContacts(projectId: string, db: DbOrTx = getDb()): SectionContact[] {
 	const site = getSite(projectId, db);
@@ -285,23 +195,14 @@ export function sectionContacts(projectId: string, db: DbOrTx = getDb()): Sectio
 	for (const c of listContacts(projectId, db)) tops.set(`${c.soundingId}|${c.unitId}`, c.topElevation);
 	return listUnits(projectId, db).map((u) => {
 		const stations = located.map((s) => ({ soundingId: s.id, chainage: s.chainage, topElevation: tops.get(`${s.id}|${u.id}`) ?? null }));
-		const lines: [number, number][][] = [];
-		let run: [number, number][] = [];
-		for (const s of stations) {
-			if (s.topElevation === null) {
-				if (run.length) lines.push(run);
-				run = [];
-			} else run.push([s.chainage, s.topElevation]);
-		}
-		if (run.length) lines.push(run);
-		return { unitId: u.id, stations, lines };
+		return { unitId: u.id, stations, lines: contactLines(stations) };
 	});
 }
 
 /** Everything the section plot draws. */
 export interface SectionView {
 	site: SiteView;
-	property: { key: SectionProperty; label: string; unit: string };
+	property: { key: PropertyKey; label: string; unit: string };
 	/** Located soundings by chainage, with the chosen property against elevation (null where undefined). */
 	soundings: {
 		id: string;
@@ -324,9 +225,9 @@ export interface SectionView {
 }
 
 /** The section of a project: soundings as traces of a property at their chainage, contacts and zone boundaries. */
-export function sectionView(projectId: string, property: SectionProperty, db: DbOrTx = getDb()): SectionView {
+export function sectionView(projectId: string, property: PropertyKey, db: DbOrTx = getDb()): SectionView {
 	const derived = deriveSoundings(projectId, undefined, db);
-	const info = SECTION_PROPERTY_INFO[property];
+	const info = PROPERTY_INFO[property];
 	const located = derived.filter((d) => d.sounding.chainage !== null).sort((a, b) => a.sounding.chainage! - b.sounding.chainage!);
 	return {
 		site: getSite(projectId, db),
@@ -355,30 +256,6 @@ export function sectionView(projectId: string, property: SectionProperty, db: Db
 		contacts: sectionContacts(projectId, db),
 		boundaries: listZoneBoundaries(projectId, db)
 	};
-}
-
-/** The geometry of a zone boundary: a straight line in the section from its top to its bottom point. */
-export type BoundaryLine = Pick<ZoneBoundary, 'chainageTop' | 'elevationTop' | 'chainageBottom' | 'elevationBottom'>;
-
-/** Chainage of a boundary line at an elevation, on the line through its two points (extended beyond them). */
-export function boundaryChainageAt(b: BoundaryLine, elevation: number): number {
-	if (b.elevationTop === b.elevationBottom) return (b.chainageTop + b.chainageBottom) / 2;
-	const t = (b.elevationTop - elevation) / (b.elevationTop - b.elevationBottom);
-	return b.chainageTop + t * (b.chainageBottom - b.chainageTop);
-}
-
-/**
- * The zone of a point (chainage, elevation) within a unit split by boundaries: the number of the unit's
- * boundaries that lie at or west of the point at its elevation, so zones count from 0 by chainage and a point
- * on a boundary belongs to the zone east of it. Boundaries are straight lines, vertical or inclined, taken
- * as extending above and below their end points across the whole unit. Without boundaries the zone is 0.
- * @throws {RangeError} on a non-finite chainage or elevation
- */
-export function zoneOf(boundaries: ReadonlyArray<BoundaryLine>, chainage: number, elevation: number): number {
-	if (!Number.isFinite(chainage) || !Number.isFinite(elevation)) throw new RangeError('chainage and elevation must be finite');
-	let zone = 0;
-	for (const b of boundaries) if (boundaryChainageAt(b, elevation) <= chainage) zone++;
-	return zone;
 }
 
 export interface ZoneBoundaryView extends BoundaryLine {
@@ -457,15 +334,4 @@ function boundaryCounts(projectId: string, db: DbOrTx): Map<string, number> {
 /** Writes positions 0…n−1 in the given order. */
 function restack(db: DbOrTx, ids: string[]): void {
 	ids.forEach((id, position) => db.update(units).set({ position }).where(eq(units.id, id)).run());
-}
-
-function sortStations(stations: ReadonlyArray<Station>): Station[] {
-	for (const s of stations) if (!Number.isFinite(s.chainage)) throw new RangeError('chainage must be finite');
-	const sorted = stations.map((s, i) => ({ s, i })).sort((a, b) => a.s.chainage - b.s.chainage || a.i - b.i).map(({ s }) => s);
-	return sorted.filter((s, k) => k === 0 || s.chainage !== sorted[k - 1].chainage);
-}
-
-/** Runs `fn` in a transaction (a savepoint when `db` already is one). */
-export function inTransaction<T>(db: DbOrTx, fn: (tx: DbOrTx) => T): T {
-	return (db as Db).transaction((tx) => fn(tx));
 }

@@ -1,23 +1,12 @@
-import { and, asc, count, desc, eq, max } from 'drizzle-orm';
+import { and, asc, count, desc, eq, max, type SQL } from 'drizzle-orm';
 import { getDb } from '$lib/server/db';
 import { users } from '$lib/server/db/schema';
 import { domains, variogramComments, variograms, zonations, type Variogram } from '$lib/server/db/site-schema';
-import { hasRole, type ProjectRole } from '$lib/server/auth/roles';
 import { ServiceError } from '$lib/server/errors';
-import type { VariogramSave } from '$lib/schemas/variogram';
-import type { DbOrTx } from './site';
-
-/** Who may do what with saved variograms: viewers read, reviewers comment, analysts save and restore. */
-export const VARIOGRAM_ROLES = { read: 'viewer', comment: 'reviewer', save: 'analyst', restore: 'analyst' } as const satisfies Record<
-	string,
-	ProjectRole
->;
-
-/** The caller as the route's authorization helper resolved it. */
-export interface Actor {
-	userId: string;
-	role: ProjectRole;
-}
+import { readVariogramSettings, type VariogramSave } from '$lib/schemas/variogram';
+import type { VariogramModel } from '$lib/geostat';
+import type { SavedVariogramSettings } from '$lib/variography';
+import { inTransaction, type DbOrTx } from '$lib/server/db/transaction';
 
 export interface PersonView {
 	id: string;
@@ -29,8 +18,9 @@ export interface VariogramView {
 	domainId: string;
 	name: string;
 	version: number;
-	model: Record<string, unknown>;
-	settings: Record<string, unknown>;
+	model: VariogramModel;
+	/** As saved; rows written under the old transform names read with the engine's ('none', 'normal-score'). */
+	settings: SavedVariogramSettings;
 	misfit: number | null;
 	note: string;
 	createdBy: PersonView | null;
@@ -44,11 +34,6 @@ export interface CommentView {
 	body: string;
 	author: PersonView | null;
 	createdAt: string;
-}
-
-function allow(actor: Actor, action: keyof typeof VARIOGRAM_ROLES): void {
-	const need = VARIOGRAM_ROLES[action];
-	if (!hasRole(actor.role, need)) throw new ServiceError(403, `This needs the ${need} role or higher on the project.`);
 }
 
 /** The domain, when it belongs to the project; a 404 otherwise (as for a domain that does not exist). */
@@ -66,7 +51,7 @@ function person(id: string | null, name: string | null, email: string | null): P
 	return id ? { id, name: name || email || 'Unknown' } : null;
 }
 
-function selectViews(db: DbOrTx, where: ReturnType<typeof eq>) {
+function selectViews(db: DbOrTx, where: SQL | undefined) {
 	const comments = db
 		.select({ variogramId: variogramComments.variogramId, n: count().as('n') })
 		.from(variogramComments)
@@ -87,7 +72,7 @@ function view(r: { v: Variogram; userName: string | null; userEmail: string | nu
 		name: r.v.name,
 		version: r.v.version,
 		model: r.v.model,
-		settings: r.v.settings,
+		settings: readVariogramSettings(r.v.settings),
 		misfit: r.v.misfit,
 		note: r.v.note,
 		createdBy: person(r.v.createdBy, r.userName, r.userEmail),
@@ -97,8 +82,7 @@ function view(r: { v: Variogram; userName: string | null; userEmail: string | nu
 }
 
 /** Every saved version of every variogram of a domain, newest first. */
-export function listVariograms(projectId: string, domainId: string, actor: Actor, db: DbOrTx = getDb()): VariogramView[] {
-	allow(actor, 'read');
+export function listVariograms(projectId: string, domainId: string, db: DbOrTx = getDb()): VariogramView[] {
 	checkDomain(db, projectId, domainId);
 	return selectViews(db, eq(variograms.domainId, domainId))
 		.orderBy(desc(variograms.createdAt), asc(variograms.name), desc(variograms.version))
@@ -106,10 +90,9 @@ export function listVariograms(projectId: string, domainId: string, actor: Actor
 		.map(view);
 }
 
-export function getVariogram(projectId: string, domainId: string, variogramId: string, actor: Actor, db: DbOrTx = getDb()): VariogramView {
-	allow(actor, 'read');
+export function getVariogram(projectId: string, domainId: string, variogramId: string, db: DbOrTx = getDb()): VariogramView {
 	checkDomain(db, projectId, domainId);
-	const row = selectViews(db, and(eq(variograms.id, variogramId), eq(variograms.domainId, domainId)) as ReturnType<typeof eq>).get();
+	const row = selectViews(db, and(eq(variograms.id, variogramId), eq(variograms.domainId, domainId))).get();
 	if (!row) throw new ServiceError(404, 'Variogram not found.');
 	return view(row);
 }
@@ -119,11 +102,10 @@ export function getVariogram(projectId: string, domainId: string, variogramId: s
  * Names compare as given after trimming; the version is assigned inside the transaction, so two saves
  * under one name cannot get the same number (the unique index backs this up).
  */
-export function saveVariogram(projectId: string, domainId: string, actor: Actor, input: VariogramSave, db: DbOrTx = getDb()): VariogramView {
-	allow(actor, 'save');
+export function saveVariogram(projectId: string, domainId: string, userId: string, input: VariogramSave, db: DbOrTx = getDb()): VariogramView {
 	checkDomain(db, projectId, domainId);
-	const id = insertVersion(db, domainId, actor.userId, input);
-	return getVariogram(projectId, domainId, id, actor, db);
+	const id = insertVersion(db, domainId, userId, input);
+	return getVariogram(projectId, domainId, id, db);
 }
 
 /** Restores an old version: its model, settings and misfit saved again as the newest version of its name. */
@@ -131,20 +113,19 @@ export function restoreVariogram(
 	projectId: string,
 	domainId: string,
 	variogramId: string,
-	actor: Actor,
+	userId: string,
 	note?: string,
 	db: DbOrTx = getDb()
 ): VariogramView {
-	allow(actor, 'restore');
-	const old = getVariogram(projectId, domainId, variogramId, actor, db);
-	const id = insertVersion(db, domainId, actor.userId, {
+	const old = getVariogram(projectId, domainId, variogramId, db);
+	const id = insertVersion(db, domainId, userId, {
 		name: old.name,
-		model: old.model as VariogramSave['model'],
-		settings: old.settings as VariogramSave['settings'],
+		model: old.model,
+		settings: old.settings,
 		misfit: old.misfit,
 		note: note?.trim() || `Restored from version ${old.version}.`
 	});
-	return getVariogram(projectId, domainId, id, actor, db);
+	return getVariogram(projectId, domainId, id, db);
 }
 
 function insertVersion(db: DbOrTx, domainId: string, userId: string, input: VariogramSave): string {
@@ -169,12 +150,12 @@ function insertVersion(db: DbOrTx, domainId: string, userId: string, input: Vari
 			.returning({ id: variograms.id })
 			.get().id;
 	};
-	return 'transaction' in db ? db.transaction((tx) => run(tx)) : run(db);
+	return inTransaction(db, run);
 }
 
 /** Comments on a saved variogram, oldest first. */
-export function listComments(projectId: string, domainId: string, variogramId: string, actor: Actor, db: DbOrTx = getDb()): CommentView[] {
-	getVariogram(projectId, domainId, variogramId, actor, db);
+export function listComments(projectId: string, domainId: string, variogramId: string, db: DbOrTx = getDb()): CommentView[] {
+	getVariogram(projectId, domainId, variogramId, db);
 	return db
 		.select({ c: variogramComments, userName: users.name, userEmail: users.email })
 		.from(variogramComments)
@@ -191,9 +172,8 @@ export function listComments(projectId: string, domainId: string, variogramId: s
 		}));
 }
 
-export function addComment(projectId: string, domainId: string, variogramId: string, actor: Actor, body: string, db: DbOrTx = getDb()): CommentView {
-	allow(actor, 'comment');
-	getVariogram(projectId, domainId, variogramId, actor, db);
-	const row = db.insert(variogramComments).values({ variogramId, userId: actor.userId, body }).returning().get();
-	return listComments(projectId, domainId, variogramId, actor, db).find((c) => c.id === row.id)!;
+export function addComment(projectId: string, domainId: string, variogramId: string, userId: string, body: string, db: DbOrTx = getDb()): CommentView {
+	getVariogram(projectId, domainId, variogramId, db);
+	const row = db.insert(variogramComments).values({ variogramId, userId, body }).returning().get();
+	return listComments(projectId, domainId, variogramId, db).find((c) => c.id === row.id)!;
 }

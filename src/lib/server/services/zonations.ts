@@ -3,11 +3,9 @@ import { getDb } from '$lib/server/db';
 import { domainMembers, domains, units, zonations, type Domain, type Zonation } from '$lib/server/db/site-schema';
 import { ServiceError } from '$lib/server/errors';
 import type { DomainCreate, DomainUpdate, MemberInput, ZonationCreate, ZonationUpdate } from '$lib/schemas/stratigraphy';
-import type { DbOrTx } from './site';
-import { inTransaction, listUnits, type UnitView } from './stratigraphy';
-
-/** The zone index that stands for a whole unit. */
-export const WHOLE_UNIT = -1;
+import { inTransaction, type DbOrTx } from '$lib/server/db/transaction';
+import { membersOverlap, WHOLE_UNIT } from '$lib/site';
+import { listUnits, type UnitView } from './stratigraphy';
 
 export interface MemberView {
 	unitId: string;
@@ -130,14 +128,6 @@ export function updateDomain(projectId: string, domainId: string, input: DomainU
 export function deleteDomain(projectId: string, domainId: string, db: DbOrTx = getDb()): void {
 	getDomain(projectId, domainId, db);
 	db.delete(domains).where(eq(domains.id, domainId)).run();
-}
-
-/**
- * True when two members claim overlapping ground: the same unit, and the same zone or either the whole unit.
- * A (unit, zone) belongs to at most one domain of a zonation.
- */
-export function membersOverlap(a: MemberInput, b: MemberInput): boolean {
-	return a.unitId === b.unitId && (a.zone === b.zone || a.zone === WHOLE_UNIT || b.zone === WHOLE_UNIT);
 }
 
 /**

@@ -1,7 +1,7 @@
 // The upload panel's state: chosen files, their column mappings, the server's plan of the upload (dry run),
 // the user's choices for clashing names and GEOL contacts, and the import itself.
 import { detectFormat, type DelimitedPreview } from '$lib/cpt';
-import type { SimulatedProperty } from '$lib/server/db/site-schema';
+import type { SimulatedProperty } from '$lib/properties';
 import type { ImportResult, UploadPlan } from '$lib/server/services/import';
 import type { PlannedSounding } from '$lib/server/services/import-plan';
 import { formFromGuess, mappingOf, mappingProblems, type MappingForm } from './mapping';

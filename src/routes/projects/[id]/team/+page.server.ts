@@ -1,6 +1,6 @@
 import type { Actions, PageServerLoad } from './$types';
 import { requireProjectRole } from '$lib/server/auth/guard';
-import { can } from '$lib/server/auth/roles';
+import { CAPABILITIES, PROJECT_ROLES, can } from '$lib/server/auth/roles';
 import { attempt, parseForm } from '$lib/server/forms';
 import {
 	changeMemberRole,
@@ -14,8 +14,9 @@ import { inviteSchema, memberRemoveSchema, memberRoleSchema } from '$lib/schemas
 import { z } from 'zod';
 
 export const load: PageServerLoad = (event) => {
-	const { project, role } = requireProjectRole(event, event.params.id, 'viewer');
+	const { project, role } = requireProjectRole(event, event.params.id, CAPABILITIES.read);
 	return {
+		roles: PROJECT_ROLES,
 		members: listMembers(project.id),
 		invitations: can(role, 'manageMembers') ? listPendingInvitations(project.id) : []
 	};
@@ -23,7 +24,7 @@ export const load: PageServerLoad = (event) => {
 
 export const actions: Actions = {
 	invite: async (event) => {
-		const { project, user } = requireProjectRole(event, event.params.id, 'owner');
+		const { project, user } = requireProjectRole(event, event.params.id, CAPABILITIES.manageMembers);
 		const parsed = await parseForm(event.request, inviteSchema);
 		if (!parsed.ok) return parsed.failure;
 		const { email, role } = parsed.data;
@@ -31,21 +32,21 @@ export const actions: Actions = {
 		return result.ok ? { invited: email } : result.failure;
 	},
 	role: async (event) => {
-		const { project } = requireProjectRole(event, event.params.id, 'owner');
+		const { project } = requireProjectRole(event, event.params.id, CAPABILITIES.manageMembers);
 		const parsed = await parseForm(event.request, memberRoleSchema);
 		if (!parsed.ok) return parsed.failure;
 		const result = await attempt(() => changeMemberRole(project.id, parsed.data.userId, parsed.data.role));
 		return result.ok ? { updated: parsed.data.userId } : result.failure;
 	},
 	remove: async (event) => {
-		const { project } = requireProjectRole(event, event.params.id, 'owner');
+		const { project } = requireProjectRole(event, event.params.id, CAPABILITIES.manageMembers);
 		const parsed = await parseForm(event.request, memberRemoveSchema);
 		if (!parsed.ok) return parsed.failure;
 		const result = await attempt(() => removeMember(project.id, parsed.data.userId));
 		return result.ok ? { removed: parsed.data.userId } : result.failure;
 	},
 	revokeInvite: async (event) => {
-		const { project } = requireProjectRole(event, event.params.id, 'owner');
+		const { project } = requireProjectRole(event, event.params.id, CAPABILITIES.manageMembers);
 		const parsed = await parseForm(event.request, z.object({ id: z.string().min(1) }));
 		if (!parsed.ok) return parsed.failure;
 		const result = await attempt(() => revokeInvitation(project.id, parsed.data.id));

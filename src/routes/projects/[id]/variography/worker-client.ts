@@ -1,11 +1,14 @@
 // The page's handle on workers/variography.ts: one module worker, jobs numbered so a newer request can cancel an older one.
 import * as Comlink from 'comlink';
 import type { VariographyApi } from '../../../../../workers/variography';
-import type { DomainSamplesData, ExperimentalResult, Progress, VariogramSettings } from '$lib/variography';
+import { CancelledError } from '$lib/cancelled-error';
+import type { FitInput, LagBin } from '$lib/geostat';
+import type { AutoFitOptions, DomainSamplesData, ModelParameters, Progress, VariogramSettings } from '$lib/variography';
+import type { VariographyEngine } from './engine';
 
-export class VariographyWorker {
+export class VariographyWorker implements VariographyEngine {
 	private readonly worker: Worker;
-	readonly api: Comlink.Remote<VariographyApi>;
+	private readonly api: Comlink.Remote<VariographyApi>;
 	private job = 0;
 	private running: number | null = null;
 
@@ -14,13 +17,14 @@ export class VariographyWorker {
 		this.api = Comlink.wrap<VariographyApi>(this.worker);
 	}
 
-	/** Starts the variograms of `data`; a job still running is cancelled first. Rejects with name 'CancelledError' when cancelled. */
-	async variograms(data: Pick<DomainSamplesData, 'samples' | 'weights'>, settings: VariogramSettings, onProgress: (p: Progress) => void): Promise<ExperimentalResult> {
+	async variograms(data: Pick<DomainSamplesData, 'samples' | 'weights'>, settings: VariogramSettings, onProgress: (p: Progress) => void) {
 		this.cancel();
 		const id = ++this.job;
 		this.running = id;
 		try {
 			return await this.api.variograms(id, data, settings, Comlink.proxy(onProgress));
+		} catch (err) {
+			throw CancelledError.revive(err);
 		} finally {
 			if (this.running === id) this.running = null;
 		}
@@ -28,6 +32,14 @@ export class VariographyWorker {
 
 	cancel(): void {
 		if (this.running !== null) void this.api.cancel(this.running);
+	}
+
+	fit(bins: FitInput, opts: AutoFitOptions) {
+		return this.api.fit(bins, opts);
+	}
+
+	evaluate(parameters: ModelParameters, bins: { vertical: LagBin[]; horizontal: LagBin[] }, minPairs: number) {
+		return this.api.evaluate(parameters, bins, minPairs);
 	}
 
 	terminate(): void {

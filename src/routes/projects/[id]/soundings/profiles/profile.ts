@@ -1,29 +1,8 @@
 // Turns a sounding's API response into the tracks, contacts and unit bands of its profile plot.
-import type { SimulatedProperty } from '$lib/server/db/site-schema';
+import type { SoundingDetailView } from '$lib/api';
+import { PROPERTY_INFO, type SimulatedProperty } from '$lib/properties';
 
 type Column = (number | null)[];
-
-/** GET /api/v1/projects/[id]/soundings/[sid], as the page uses it. */
-export interface SoundingDetail {
-	sounding: { id: string; name: string; groundElevation: number; chainage: number | null };
-	columns: { depth: Column; qc: Column; fs: Column; u2: Column | null };
-	derived: Record<string, Column>;
-	unit: number[];
-	units: { id: string; name: string; colour: string; position: number; property: SimulatedProperty; topElevation: number | null }[];
-	warnings: string[];
-}
-
-/** Labels and units of the properties a unit can be simulated in. */
-export const PROPERTY_INFO: Partial<Record<SimulatedProperty, { label: string; unit: string; what: string; decimals: number }>> = {
-	qc1Ncs: { label: 'qc1Ncs', unit: '–', what: 'clean-sand equivalent normalised tip resistance (Boulanger & Idriss 2014)', decimals: 1 },
-	suRatio: { label: 'su/σ′v', unit: '–', what: 'undrained strength ratio, su = (qt − σv)/Nkt (Lunne et al. 1997)', decimals: 3 },
-	Ic: { label: 'Ic', unit: '–', what: 'soil behaviour type index (Robertson 2009)', decimals: 2 },
-	qt: { label: 'qt', unit: 'kPa', what: 'corrected cone resistance', decimals: 0 },
-	FC: { label: 'FC', unit: '%', what: 'fines content from Ic', decimals: 0 },
-	Dr: { label: 'Dr', unit: '–', what: 'relative density (Idriss & Boulanger 2008)', decimals: 2 },
-	su: { label: 'su', unit: 'kPa', what: 'undrained shear strength', decimals: 1 },
-	Qtn: { label: 'Qtn', unit: '–', what: 'normalised cone resistance (Robertson 2009)', decimals: 1 }
-};
 
 const scaled = (c: Column, k: number): Column => c.map((v) => (v === null ? null : v * k));
 
@@ -54,7 +33,7 @@ export interface Profile {
  * units are simulated in, each showing its values only within the units simulated in it (every reading
  * when the project has no units yet).
  */
-export function profileOf(d: SoundingDetail, shown: { qc: boolean; fs: boolean; u2: boolean; Ic: boolean; property: boolean }): Profile {
+export function profileOf(d: SoundingDetailView, shown: { qc: boolean; fs: boolean; u2: boolean; Ic: boolean; property: boolean }): Profile {
 	const tracks: Profile['tracks'] = [];
 	if (shown.qc) tracks.push({ key: 'qc', label: 'qc', unit: 'MPa', values: scaled(d.columns.qc, 1 / 1000), colour: '#155a57', decimals: 2 });
 	if (shown.fs) tracks.push({ key: 'fs', label: 'fs', unit: 'kPa', values: d.columns.fs, colour: '#57534e', decimals: 1 });
@@ -65,7 +44,7 @@ export function profileOf(d: SoundingDetail, shown: { qc: boolean; fs: boolean; 
 			label: 'Ic',
 			unit: '–',
 			values: d.derived.Ic,
-			domain: [1, 4],
+			domain: [PROPERTY_INFO.Ic.range.min, PROPERTY_INFO.Ic.range.max],
 			colour: '#7c2d12',
 			decimals: 2,
 			references: [
@@ -79,7 +58,7 @@ export function profileOf(d: SoundingDetail, shown: { qc: boolean; fs: boolean; 
 		for (const p of properties) {
 			const info = PROPERTY_INFO[p];
 			const source = d.derived[p];
-			if (!info || !source) continue;
+			if (!source) continue;
 			const values = d.units.length ? source.map((v, i) => (d.unit[i] >= 0 && d.units[d.unit[i]].property === p ? v : null)) : source;
 			tracks.push({ key: `property-${p}`, label: info.label, unit: info.unit, values, colour: '#3f3f46', decimals: info.decimals });
 		}

@@ -1,13 +1,14 @@
 import { json } from '@sveltejs/kit';
 import { ApiError, endpoint } from '$lib/server/api';
 import { requireProjectRole } from '$lib/server/auth/guard';
+import { CAPABILITIES } from '$lib/server/auth/roles';
 import { ImportRejected, importSoundings, planImport } from '$lib/server/services/import';
 import { listSoundings } from '$lib/server/services/soundings';
 import { filesOf, jsonField, readMultipart, rejectedUploadResponse } from '$lib/server/upload';
 import { uploadOptionsSchema } from '$lib/schemas/soundings';
 
 export const GET = endpoint((event) => {
-	const { project } = requireProjectRole(event, event.params.id, 'viewer');
+	const { project } = requireProjectRole(event, event.params.id, CAPABILITIES.read);
 	return json({ soundings: listSoundings(project.id) });
 });
 
@@ -17,7 +18,7 @@ export const GET = endpoint((event) => {
  * refused files with line and column (a 409 also carries the plan). With `dryRun`, 200 with the plan only.
  */
 export const POST = endpoint(async (event) => {
-	const { project, user } = requireProjectRole(event, event.params.id, 'analyst');
+	const { project, user } = requireProjectRole(event, event.params.id, CAPABILITIES.editData);
 	const form = await readMultipart(event.request);
 	const parsed = uploadOptionsSchema.safeParse(jsonField(form, 'options') ?? {});
 	if (!parsed.success) {

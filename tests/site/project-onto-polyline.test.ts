@@ -1,14 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { locateSounding, polylineLength, projectOntoPolyline } from '../../../src/lib/server/services/site';
-import { SECTION_LINE, scenarioSoundings } from '../../../src/lib/server/scenario/levee';
-import { expectAbsClose } from '../../asserts';
-
-// An L-shaped line: 100 along +x, then 100 along +y. Values below are worked by hand.
-const L: [number, number][] = [
-	[0, 0],
-	[100, 0],
-	[100, 100]
-];
+import { checkPolyline, polylineLength, projectOntoPolyline } from '../../src/lib/site/index';
+import { L } from './fixtures';
+import { SECTION_LINE, scenarioSoundings } from '../../src/lib/server/scenario/levee';
+import { expectAbsClose } from '../asserts';
 
 describe('projectOntoPolyline(line, x, y)', () => {
 	it('projectOntoPolyline(line, x, y) gives chainage and a right-positive offset on the first segment', () => {
@@ -85,27 +79,17 @@ describe('projectOntoPolyline(line, x, y)', () => {
 	});
 });
 
-describe('polylineLength(line) and locateSounding(site, sounding)', () => {
+describe('polylineLength(line) and checkPolyline(line)', () => {
 	it('polylineLength(line) sums segment lengths', () => {
 		expect(polylineLength(L)).toBe(200);
 		expect(polylineLength([])).toBe(0);
 	});
 
-	it('locateSounding(site, s) projects when it can, else uses the given chainage, and flags far soundings', () => {
-		const site = { sectionLine: L, offLineTolerance: 25 };
-		expect(locateSounding(site, { x: 50, y: -10, chainage: 999 })).toEqual({
-			chainage: 50,
-			offset: 10,
-			farOffLine: false,
-			source: 'projected'
-		});
-		expect(locateSounding(site, { x: 50, y: -30, chainage: null }).farOffLine).toBe(true);
-		expect(locateSounding({ sectionLine: null, offLineTolerance: 25 }, { x: 50, y: -30, chainage: 12 })).toEqual({
-			chainage: 12,
-			offset: null,
-			farOffLine: false,
-			source: 'given'
-		});
-		expect(locateSounding({ sectionLine: null, offLineTolerance: 25 }, { x: 1, y: 2, chainage: null }).source).toBe('none');
+	it('checkPolyline(line) accepts two distinct points and says what is wrong otherwise', () => {
+		expect(() => checkPolyline(L)).not.toThrow();
+		expect(() => checkPolyline([[0, 0]])).toThrow('two distinct points');
+		expect(() => checkPolyline([[1, 1], [1, 1]])).toThrow('two distinct points');
+		expect(() => checkPolyline([[0, 0], [1, NaN]])).toThrow('finite coordinates');
+		expect(() => checkPolyline('0,0;1,1' as never)).toThrow('list of points');
 	});
 });

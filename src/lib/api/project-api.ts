@@ -1,0 +1,88 @@
+import type { z } from 'zod';
+import type { PropertyKey } from '$lib/properties';
+import type {
+	contactPutSchema,
+	domainCreateSchema,
+	domainUpdateSchema,
+	siteUpdateSchema,
+	unitCreateSchema,
+	unitUpdateSchema,
+	zonationCreateSchema,
+	zoneBoundarySchema
+} from '$lib/schemas/stratigraphy';
+import type { variogramSaveSchema } from '$lib/schemas/variogram';
+
+type In<S extends z.ZodType> = z.input<S>;
+import { getJson, send } from './http';
+import type {
+	CommentView,
+	ContactView,
+	DomainSamples,
+	DomainView,
+	SectionView,
+	SiteView,
+	SoundingDetailView,
+	SoundingSummary,
+	UnitView,
+	VariogramView,
+	ZonationView,
+	ZoneBoundaryView
+} from './views';
+
+/**
+ * The typed calls of one project's JSON API (/api/v1/projects/:id/…), as the pages use them: each returns the
+ * service's view, unwrapped from its envelope, and rejects with a RequestFailed carrying the API's message.
+ * Request bodies take the zod schemas' input types, so a page cannot send what the endpoint would refuse by shape.
+ */
+export function projectApi(projectId: string) {
+	const base = `/api/v1/projects/${encodeURIComponent(projectId)}`;
+	const at = (...parts: string[]) => [base, ...parts.map(encodeURIComponent)].join('/');
+	return {
+		site: async () => (await getJson<{ site: SiteView }>(at('site'))).site,
+		updateSite: async (input: In<typeof siteUpdateSchema>) => (await send<{ site: SiteView }>('PATCH', at('site'), input)).site,
+
+		soundings: async () => (await getJson<{ soundings: SoundingSummary[] }>(at('soundings'))).soundings,
+		sounding: (soundingId: string) => getJson<SoundingDetailView>(at('soundings', soundingId)),
+		deleteSounding: (soundingId: string) => send<void>('DELETE', at('soundings', soundingId)),
+
+		units: async () => (await getJson<{ units: UnitView[] }>(at('units'))).units,
+		createUnit: async (input: In<typeof unitCreateSchema>) => (await send<{ unit: UnitView }>('POST', at('units'), input)).unit,
+		updateUnit: async (unitId: string, input: In<typeof unitUpdateSchema>) => (await send<{ unit: UnitView }>('PATCH', at('units', unitId), input)).unit,
+		deleteUnit: (unitId: string) => send<void>('DELETE', at('units', unitId)),
+
+		contacts: async () => (await getJson<{ contacts: ContactView[] }>(at('contacts'))).contacts,
+		putContact: async (input: In<typeof contactPutSchema>) => (await send<{ contact: ContactView }>('PUT', at('contacts'), input)).contact,
+		deleteContact: (soundingId: string, unitId: string) => send<void>('DELETE', at('contacts'), { soundingId, unitId }),
+
+		zoneBoundaries: async () => (await getJson<{ boundaries: ZoneBoundaryView[] }>(at('zone-boundaries'))).boundaries,
+		createZoneBoundary: async (input: In<typeof zoneBoundarySchema>) =>
+			(await send<{ boundary: ZoneBoundaryView }>('POST', at('zone-boundaries'), input)).boundary,
+		deleteZoneBoundary: (id: string) => send<void>('DELETE', at('zone-boundaries'), { id }),
+
+		section: (property: PropertyKey) => getJson<SectionView>(`${at('section')}?property=${encodeURIComponent(property)}`),
+
+		zonations: async () => (await getJson<{ zonations: ZonationView[] }>(at('zonations'))).zonations,
+		createZonation: async (input: In<typeof zonationCreateSchema>) =>
+			(await send<{ zonation: ZonationView }>('POST', at('zonations'), input)).zonation,
+		deleteZonation: (zonationId: string) => send<void>('DELETE', at('zonations', zonationId)),
+		createDomain: async (zonationId: string, input: In<typeof domainCreateSchema>) =>
+			(await send<{ domain: DomainView }>('POST', at('zonations', zonationId), input)).domain,
+		updateDomain: async (domainId: string, input: In<typeof domainUpdateSchema>) => (await send<{ domain: DomainView }>('PATCH', at('domains', domainId), input)).domain,
+		deleteDomain: (domainId: string) => send<void>('DELETE', at('domains', domainId)),
+		domainSamples: (domainId: string) => getJson<DomainSamples>(at('domains', domainId, 'samples')),
+
+		variograms: async (domainId: string) => (await getJson<{ variograms: VariogramView[] }>(at('domains', domainId, 'variograms'))).variograms,
+		saveVariogram: async (domainId: string, input: In<typeof variogramSaveSchema>) =>
+			(await send<{ variogram: VariogramView }>('POST', at('domains', domainId, 'variograms'), input)).variogram,
+		restoreVariogram: async (domainId: string, variogramId: string, note?: string) =>
+			(await send<{ variogram: VariogramView }>('POST', at('domains', domainId, 'variograms', variogramId, 'restore'), note === undefined ? undefined : { note }))
+				.variogram,
+		comments: async (domainId: string, variogramId: string) =>
+			(await getJson<{ comments: CommentView[] }>(at('domains', domainId, 'variograms', variogramId, 'comments'))).comments,
+		addComment: async (domainId: string, variogramId: string, body: string) =>
+			(await send<{ comment: CommentView }>('POST', at('domains', domainId, 'variograms', variogramId, 'comments'), { body })).comment
+	};
+}
+
+/** The calls of one project's API; pages create it once and hand it to their components. */
+export type ProjectApi = ReturnType<typeof projectApi>;

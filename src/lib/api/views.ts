@@ -1,0 +1,14 @@
+/**
+ * What the API returns, as the services define it: type-only re-exports, so client code never copies a view
+ * and never pulls server code into the browser (these imports are erased at build time).
+ */
+export type { ProjectView } from '$lib/server/services/projects';
+export type { SiteView } from '$lib/server/services/site';
+export type { UnitView, ContactView, ZoneBoundaryView, SectionView, SectionContact } from '$lib/server/services/stratigraphy';
+export type { ZonationView, DomainView, MemberView as DomainMemberView } from '$lib/server/services/zonations';
+export type { DomainSamples } from '$lib/server/services/domains';
+export type { DomainStats, Cdf } from '$lib/site';
+export type { SoundingSummary, SoundingDetailView, JsonColumn } from '$lib/server/services/soundings';
+export type { UnitAtSoundingView } from '$lib/server/services/derived';
+export type { ImportResult, FileProblem } from '$lib/server/services/import';
+export type { VariogramView, CommentView, PersonView } from '$lib/server/services/variograms';

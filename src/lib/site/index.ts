@@ -1,0 +1,33 @@
+// The site model's pure geometry and statistics: sections, contacts, zones and domain samples, without a
+// database. Every export is named here; tests/site/index.test.ts pins the list.
+
+// Section geometry: chainage and where a sounding lies.
+export { projectOntoPolyline, polylineLength, checkPolyline } from './project-onto-polyline';
+export type { Polyline, Projection } from './project-onto-polyline';
+export { locateSounding } from './locate-sounding';
+export type { SoundingLocation } from './locate-sounding';
+
+// Contacts: along the section, and over a triangulation of the soundings in plan.
+export { interpolateAlongChainage } from './interpolate-along-chainage';
+export type { Station } from './interpolate-along-chainage';
+export { contactLines } from './contact-lines';
+export { triangulatedSurface } from './triangulated-surface';
+export type { PlanPoint } from './triangulated-surface';
+
+// Zones and domain members.
+export { zoneOf, boundaryChainageAt } from './zone-of';
+export type { BoundaryLine } from './zone-of';
+export { zoneNamesOf } from './zone-names';
+export { membersOverlap, WHOLE_UNIT } from './members-overlap';
+export type { Member } from './members-overlap';
+
+// Domain samples and their distribution.
+export { extractDomainSamples } from './extract-domain-samples';
+export type { ExtractSounding, ExtractOptions } from './extract-domain-samples';
+export { averageInWindows } from './average-in-windows';
+export { declusterWeights } from './decluster-weights';
+export type { DeclusterCell } from './decluster-weights';
+export { weightedCdf } from './weighted-cdf';
+export type { Cdf } from './weighted-cdf';
+export { domainStatistics } from './domain-statistics';
+export type { DomainStats } from './domain-statistics';

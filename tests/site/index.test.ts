@@ -1,0 +1,29 @@
+import { describe, expect, it } from 'vitest';
+import * as site from '../../src/lib/site/index';
+
+// The site model's runtime exports, pinned: adding or removing one means editing this list.
+const EXPORTS = [
+	'WHOLE_UNIT',
+	'averageInWindows',
+	'boundaryChainageAt',
+	'checkPolyline',
+	'contactLines',
+	'declusterWeights',
+	'domainStatistics',
+	'extractDomainSamples',
+	'interpolateAlongChainage',
+	'locateSounding',
+	'membersOverlap',
+	'polylineLength',
+	'projectOntoPolyline',
+	'triangulatedSurface',
+	'weightedCdf',
+	'zoneNamesOf',
+	'zoneOf'
+];
+
+describe('src/lib/site/index.ts', () => {
+	it('exports exactly the pinned names', () => {
+		expect(Object.keys(site).sort()).toEqual([...EXPORTS].sort());
+	});
+});
