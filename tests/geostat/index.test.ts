@@ -36,6 +36,7 @@ const TOPICS: Record<string, string[]> = {
 		'pointTargetsSchema',
 		'targetDefinitionSchema',
 		'recipeSchema',
+		'recipeKindSchema',
 		'targetsFromDefinition',
 		'createRecipe',
 		'recipeInput',
@@ -44,6 +45,7 @@ const TOPICS: Record<string, string[]> = {
 		'recipeHash',
 		'ENGINE_VERSION',
 		'isCurrentEngine',
+		'prepareRecipe',
 		'regenerate'
 	],
 	validation: ['dataReproduction', 'histogramReproduction', 'variogramReproduction']
