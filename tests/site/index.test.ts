@@ -5,6 +5,12 @@ import * as site from '../../src/lib/site/index';
 const EXPORTS = [
 	'WHOLE_UNIT',
 	'averageInWindows',
+	'axisCount',
+	'cellsPerDomain',
+	'domainRuns',
+	'gridDefinition',
+	'gridDomains',
+	'gridStratigraphy',
 	'boundaryChainageAt',
 	'checkPolyline',
 	'contactLines',
