@@ -128,6 +128,17 @@ export class RealizationPool {
 	}
 
 	/**
+	 * One call on a worker of the pool between runs (starting a worker when none is running), e.g. an ensemble
+	 * map of realizations already made.
+	 * @throws {Error} (rejects) if a run is in progress, or with the worker's error
+	 */
+	async call<T>(fn: (remote: Remote<SimulationApi>) => Promise<T>): Promise<T> {
+		if (this.cancelRun) throw new Error('a run is already in progress');
+		if (this.workers.length === 0) this.workers.push(this.spawn());
+		return fn(this.workers[0].remote);
+	}
+
+	/**
 	 * Cancels the run in progress: its workers are terminated at once (a realization is one synchronous
 	 * computation, so stopping the thread is the only prompt way) and restarted on the next run.
 	 */

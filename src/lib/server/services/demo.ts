@@ -4,6 +4,7 @@ import { memberships, projects, users, type ProjectRole, type SiteRole } from '$
 import { hashPassword } from '$lib/server/auth/password';
 import { seedDemoSoundings } from './demo-soundings';
 import { seedDemoStratigraphy } from './demo-stratigraphy';
+import { seedDemoRecipes, seedDemoVariogramsWhereMissing } from './demo-simulations';
 
 /** The demo accounts. Their passwords are printed in the README: for a local demo only. */
 export const DEMO_ACCOUNTS: ReadonlyArray<{
@@ -50,6 +51,9 @@ export async function seedDemo(db: Db): Promise<string | null> {
 		});
 		seedDemoSoundings(tx, project.id, owner.id);
 		seedDemoStratigraphy(tx, project.id);
+		const analyst = created[DEMO_ACCOUNTS.findIndex((a) => a.projectRole === 'analyst')];
+		seedDemoVariogramsWhereMissing(tx, project.id, analyst.id);
+		seedDemoRecipes(tx, project.id, analyst.id);
 		return project.id;
 	});
 }
