@@ -161,7 +161,7 @@ describe('createRecipe(projectId, userId, setup) — identity', () => {
 describe('createRecipe — refusals', () => {
 	it('a domain without a saved variogram is a 422 naming the domain', () => {
 		const units = listUnits(projectId, db);
-		const z = createZonation(projectId, { name: 'Dense only', domains: [{ name: 'Dense', property: 'qc1Ncs', members: [{ unitId: units.find((u) => u.name === 'Dense sand')!.id, zone: -1 }] }] }, db);
+		const z = createZonation(projectId, { name: 'Dense only', description: '', domains: [{ name: 'Dense', property: 'qc1Ncs', members: [{ unitId: units.find((u) => u.name === 'Dense sand')!.id, zone: -1 }] }] }, db);
 		const err = invalid(() => createRecipe(projectId, userId, setup({ name: 'No model' }, z), db));
 		expect(err.status).toBe(422);
 		expect(err.issues).toEqual([{ path: ['domains', 0, 'variogramId'], message: expect.stringMatching(/^Dense has no saved variogram/) }]);
