@@ -6,6 +6,7 @@ import { checkThrottle, throttleMessage } from '$lib/server/auth/throttle';
 import { getDb } from '$lib/server/db';
 import { formFailure, parseForm } from '$lib/server/forms';
 import { magicLinkSchema, signInFormSchema } from '$lib/schemas';
+import { safeRedirectPath } from '$lib/redirect';
 
 /** Messages for the `error`/`code` query parameters Auth.js redirects with. */
 const AUTH_MESSAGES: Record<string, string> = {
@@ -17,8 +18,8 @@ const AUTH_MESSAGES: Record<string, string> = {
 };
 
 export const load: PageServerLoad = ({ locals, url }) => {
-	const redirectTo = url.searchParams.get('redirectTo') ?? '/projects';
-	if (locals.user) redirect(303, redirectTo.startsWith('/') && !redirectTo.startsWith('//') ? redirectTo : '/projects');
+	const redirectTo = safeRedirectPath(url.searchParams.get('redirectTo'));
+	if (locals.user) redirect(303, redirectTo);
 	const key = url.searchParams.get('code') ?? url.searchParams.get('error');
 	return {
 		redirectTo,
@@ -44,6 +45,11 @@ export const actions: Actions = {
 			return formFailure(err.code === 'throttled' ? 429 : 400, message, { email });
 		}
 	},
+	/**
+	 * Mails a one-time sign-in link to an enabled account. Every address gets the same answer — 303 to the
+	 * check-your-mail page, no cookie — and as quickly (the mail goes out in the background), so the form does
+	 * not reveal who has an account.
+	 */
 	link: async (event) => {
 		const parsed = await parseForm(event.request, magicLinkSchema);
 		if (!parsed.ok) return parsed.failure;
@@ -51,10 +57,11 @@ export const actions: Actions = {
 		try {
 			await signInWith(event, 'nodemailer', { email, redirectTo });
 		} catch (err) {
-			if (isRedirect(err)) throw err;
-			// Unknown or disabled addresses get the same answer, so the form does not reveal who has an account.
-			if (err instanceof AuthError && err.type === 'AccessDenied') redirect(303, '/signin/check-email');
-			throw err;
+			// Auth.js answers a known address with a redirect and refuses an unknown or disabled one (AccessDenied).
+			if (!isRedirect(err) && !(err instanceof AuthError && err.type === 'AccessDenied')) throw err;
 		}
+		// Auth.js leaves a callback-url cookie that differs between the two cases; the link carries its own.
+		event.cookies.delete('authjs.callback-url', { path: '/' });
+		redirect(303, '/signin/check-email');
 	}
 };

@@ -1,0 +1,26 @@
+import { text } from '@sveltejs/kit';
+import { apiError } from './api';
+
+/** Content types an HTML form can send cross-site without a CORS preflight (as SvelteKit's own check lists them). */
+const FORM_TYPES = ['application/x-www-form-urlencoded', 'multipart/form-data', 'text/plain'];
+const UNSAFE_METHODS = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
+
+/**
+ * The cross-site request forgery check, in place of SvelteKit's (switched off in svelte.config.js so this one
+ * can tell credentials apart). A state-changing request with a form content type must come from this origin —
+ * unless it is an /api request carrying an `Authorization` header: such a request is authenticated by that
+ * header alone (the session cookie is not consulted), and a cross-site page cannot set it without a CORS
+ * preflight, which this server never grants. So scripts can upload with a token and no Origin header, while
+ * cookie sessions keep the check. Returns the refusal, or null to let the request through.
+ */
+export function crossSiteRefusal(request: Request, url: URL): Response | null {
+	if (!UNSAFE_METHODS.has(request.method)) return null;
+	const type = (request.headers.get('content-type') ?? '').split(';', 1)[0].trim().toLowerCase();
+	if (!FORM_TYPES.includes(type)) return null;
+	if (request.headers.get('origin') === url.origin) return null;
+	const isApi = url.pathname.startsWith('/api/');
+	if (isApi && request.headers.has('authorization')) return null;
+	const message = `Cross-site ${request.method} form submissions are forbidden: the Origin header must be ${url.origin}.`;
+	if (isApi) return apiError(403, message);
+	return request.headers.get('accept')?.includes('application/json') ? apiError(403, message) : text(message, { status: 403 });
+}
