@@ -5,6 +5,7 @@ import { getDb } from '$lib/server/db';
 import { auth, authConfig } from '$lib/server/auth';
 import { requestContext } from '$lib/server/auth/context';
 import { closeMail, getTransport } from '$lib/server/mail';
+import { settleBackground } from '$lib/server/background';
 import { seedDemo } from '$lib/server/services/demo';
 import { ensureInitialAdmin, findUser } from '$lib/server/services/users';
 import { initialAdminEmail, seedDemoEnabled } from '$lib/server/config';
@@ -29,7 +30,9 @@ export const init: ServerInit = async () => {
 	if (adminEmail) await ensureInitialAdmin(adminEmail, process.env.ORIGIN ?? `http://localhost:${process.env.PORT ?? 3000}`);
 	// adapter-node emits this after closing the HTTP server; the SMTP sink would otherwise keep the process alive.
 	process.once('sveltekit:shutdown' as 'beforeExit', () => {
-		void closeMail().then(() => db.$client.close());
+		void settleBackground()
+			.then(closeMail)
+			.then(() => db.$client.close());
 	});
 };
 

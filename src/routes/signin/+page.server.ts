@@ -1,7 +1,7 @@
 import { isRedirect, redirect } from '@sveltejs/kit';
-import { AuthError, CredentialsSignin } from '@auth/sveltekit';
+import { CredentialsSignin } from '@auth/sveltekit';
 import type { Actions, PageServerLoad } from './$types';
-import { signInWith } from '$lib/server/auth';
+import { requestSignInLink, signInWith } from '$lib/server/auth';
 import { checkThrottle, throttleMessage } from '$lib/server/auth/throttle';
 import { getDb } from '$lib/server/db';
 import { formFailure, parseForm } from '$lib/server/forms';
@@ -47,21 +47,13 @@ export const actions: Actions = {
 	},
 	/**
 	 * Mails a one-time sign-in link to an enabled account. Every address gets the same answer — 303 to the
-	 * check-your-mail page, no cookie — and as quickly (the mail goes out in the background), so the form does
-	 * not reveal who has an account.
+	 * check-your-mail page, no cookie — equally fast: the account is looked up and the link sent after the
+	 * response, so the form does not reveal who has an account.
 	 */
 	link: async (event) => {
 		const parsed = await parseForm(event.request, magicLinkSchema);
 		if (!parsed.ok) return parsed.failure;
-		const { email, redirectTo } = parsed.data;
-		try {
-			await signInWith(event, 'nodemailer', { email, redirectTo });
-		} catch (err) {
-			// Auth.js answers a known address with a redirect and refuses an unknown or disabled one (AccessDenied).
-			if (!isRedirect(err) && !(err instanceof AuthError && err.type === 'AccessDenied')) throw err;
-		}
-		// Auth.js leaves a callback-url cookie that differs between the two cases; the link carries its own.
-		event.cookies.delete('authjs.callback-url', { path: '/' });
+		requestSignInLink(event, parsed.data.email, parsed.data.redirectTo);
 		redirect(303, '/signin/check-email');
 	}
 };

@@ -1,12 +1,13 @@
-import { SvelteKitAuth, CredentialsSignin, type SvelteKitAuthConfig } from '@auth/sveltekit';
+import { SvelteKitAuth, AuthError, CredentialsSignin, type SvelteKitAuthConfig } from '@auth/sveltekit';
 import Credentials from '@auth/sveltekit/providers/credentials';
 import Nodemailer from '@auth/sveltekit/providers/nodemailer';
 import { DrizzleAdapter } from '@auth/drizzle-adapter';
-import type { RequestEvent } from '@sveltejs/kit';
+import { isRedirect, type RequestEvent } from '@sveltejs/kit';
 import { and, eq } from 'drizzle-orm';
 import { getDb } from '$lib/server/db';
 import { accounts, sessions, users, verificationTokens, type SiteRole } from '$lib/server/db/schema';
-import { actionMail, sendMailInBackground } from '$lib/server/mail';
+import { actionMail, sendMail } from '$lib/server/mail';
+import { inBackground } from '$lib/server/background';
 import { safeRedirectPath } from '$lib/redirect';
 import { signInSchema } from '$lib/schemas';
 import { clientAddress, clientUserAgent } from './context';
@@ -77,9 +78,8 @@ function config(): SvelteKitAuthConfig {
 			Nodemailer({
 				server: process.env.SMTP_URL || 'smtp://127.0.0.1:25',
 				maxAge: 30 * 60,
-				// In the background, so that asking for a link takes as long for an unknown address as for a known one.
 				async sendVerificationRequest({ identifier, url }) {
-					sendMailInBackground(
+					await sendMail(
 						actionMail(
 							identifier,
 							'Your Conefield sign-in link',
@@ -171,6 +171,26 @@ export async function signInWith(
 	headers.delete('content-length');
 	const request = new Request(event.request.url, { method: 'POST', headers, body });
 	await auth.signIn({ request, url: event.url, cookies: event.cookies } as unknown as RequestEvent);
+}
+
+/**
+ * Asks Auth.js for an e-mail sign-in link after the response has gone: it mails one to an enabled account and
+ * refuses any other address, and neither the answer nor its timing may tell which happened.
+ */
+export function requestSignInLink(event: RequestEvent, email: string, redirectTo: string): void {
+	const headers = new Headers(event.request.headers);
+	headers.delete('content-type');
+	headers.delete('content-length');
+	const detached = { request: new Request(event.request.url, { method: 'POST', headers }), url: new URL(event.url), cookies: { set() {}, delete() {} } };
+	inBackground('sign-in link', async () => {
+		try {
+			await signInWith(detached as unknown as RequestEvent, 'nodemailer', { email, redirectTo });
+		} catch (err) {
+			// Auth.js answers a known address with a redirect and refuses an unknown or disabled one (AccessDenied).
+			if (isRedirect(err) || (err instanceof AuthError && err.type === 'AccessDenied')) return;
+			throw err;
+		}
+	});
 }
 
 export async function signOutFrom(event: RequestEvent, redirectTo = '/signin'): Promise<void> {

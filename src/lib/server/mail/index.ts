@@ -29,9 +29,8 @@ export function getTransport(): Promise<Transporter> {
 	return transport;
 }
 
-/** Stops the local SMTP sink, if one runs, so the process can exit (after mail still being sent). */
+/** Stops the local SMTP sink, if one runs, so the process can exit. */
 export async function closeMail(): Promise<void> {
-	await Promise.allSettled([...pending]);
 	await sinkClose?.();
 	sinkClose = undefined;
 }
@@ -45,19 +44,6 @@ export async function sendMail(message: Message): Promise<void> {
 	const t = await getTransport();
 	const info = await t.sendMail({ from: mailFrom(), ...message });
 	if (info.rejected.length > 0) throw new Error(`mail to ${message.to} was rejected`);
-}
-
-const pending = new Set<Promise<void>>();
-
-/**
- * Sends a message without making the request wait for the SMTP exchange: where a request must answer the
- * same whether or not mail goes out (the e-mail sign-in form), its timing must not tell either. Failures are logged.
- */
-export function sendMailInBackground(message: Message): void {
-	const sending = sendMail(message)
-		.catch((err: unknown) => console.error('[mail] could not send', JSON.stringify(message.subject), 'to', message.to, '-', err instanceof Error ? err.message : err))
-		.finally(() => pending.delete(sending));
-	pending.add(sending);
 }
 
 function escapeHtml(s: string): string {

@@ -148,19 +148,23 @@ function claimInvitation(tx: DbOrTx, tokenHash: string, at: Date): typeof invita
  * closes the invitation, claiming it atomically first.
  */
 export function acceptInvitation(token: string, user: { id: string; email: string }): PendingInvitation {
-	const invitation = findInvitation(token);
-	if (!invitation) throw new ServiceError(404, 'This invitation has expired or was already used.');
-	if (invitation.email !== user.email.toLowerCase()) {
-		throw new ServiceError(403, `This invitation is for ${invitation.email}. Sign in with that address to accept it.`);
+	const tokenHash = hashToken(token);
+	const row = getDb()
+		.select({ invitation: invitations, project: projects })
+		.from(invitations)
+		.innerJoin(projects, eq(projects.id, invitations.projectId))
+		.where(eq(invitations.tokenHash, tokenHash))
+		.get();
+	if (!row) throw new ServiceError(404, 'This invitation has expired or was already used.');
+	const { id, email, role } = row.invitation;
+	if (email !== user.email.toLowerCase()) {
+		throw new ServiceError(403, `This invitation is for ${email}. Sign in with that address to accept it.`);
 	}
 	getDb().transaction((tx) => {
-		claimInvitation(tx, hashToken(token), new Date());
-		tx.insert(memberships)
-			.values({ projectId: invitation.project.id, userId: user.id, role: invitation.role })
-			.onConflictDoNothing()
-			.run();
+		claimInvitation(tx, tokenHash, new Date());
+		tx.insert(memberships).values({ projectId: row.project.id, userId: user.id, role }).onConflictDoNothing().run();
 	});
-	return invitation;
+	return { id, email, role, project: { id: row.project.id, name: row.project.name } };
 }
 
 /**
