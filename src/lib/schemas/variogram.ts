@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { displayName } from './common';
 
 const finite = z.number().refine(Number.isFinite, { error: 'Must be a finite number.' });
 const positive = finite.refine((v) => v > 0, { error: 'Must be greater than 0.' });
@@ -53,11 +54,7 @@ export const variogramSettingsSchema = z.object({
 	samples: z.number().int().min(0).optional()
 });
 
-export const variogramName = z
-	.string({ error: 'Give the variogram a name.' })
-	.trim()
-	.min(1, { error: 'Give the variogram a name.' })
-	.max(80, { error: 'Use at most 80 characters.' });
+export const variogramName = displayName(80, { required: 'Give the variogram a name.', tooLong: 'Use at most 80 characters.' });
 
 export const variogramSaveSchema = z.object({
 	name: variogramName,
