@@ -1,58 +1,18 @@
-import { createHash } from 'node:crypto';
 import { and, eq, inArray } from 'drizzle-orm';
-import {
-	CptParseError,
-	DEFAULT_AREA_RATIO,
-	decodeCptText,
-	detectFormat,
-	parseAgs4,
-	parseDelimited,
-	parseGef,
-	previewDelimited,
-	type DelimitedMapping,
-	type DelimitedPreview,
-	type ParsedSounding
-} from '$lib/cpt';
+import { DEFAULT_AREA_RATIO, decodeCptText, previewDelimited, type DelimitedPreview, type ParsedSounding } from '$lib/cpt';
 import { getDb } from '$lib/server/db';
 import { toFloat64Blob } from '$lib/server/db/float64';
 import { soundings, sourceFiles, type SourceFormat } from '$lib/server/db/site-schema';
 import { ServiceError, type ErrorStatus } from '$lib/server/errors';
+import { mappingFor, maxFinite, parseUpload, problemOf, type FileProblem, type ImportRequest, type ParsedUpload, type UploadedFile } from './import-parse';
 import type { DbOrTx } from './site';
 
-/** One uploaded file: its name as the user's computer gave it, and its bytes. */
-export interface UploadedFile {
-	name: string;
-	bytes: Uint8Array;
-}
-
-/** Fallbacks for GEF and AGS4 files that do not state them (delimited text takes them from its mapping). */
-export interface SoundingDefaults {
-	groundElevation?: number;
-	areaRatio?: number;
-}
-
-export interface ImportRequest {
-	files: UploadedFile[];
-	/** Column mapping for every delimited-text file of the upload … */
-	mapping?: DelimitedMapping;
-	/** … or one per file name, which takes precedence. */
-	mappings?: Record<string, DelimitedMapping>;
-	defaults?: SoundingDefaults;
-}
-
-/** Why one file was refused; `line` is 1-based, `column` as the file names it. */
-export interface FileProblem {
-	file: string;
-	code: string;
-	message: string;
-	line?: number;
-	column?: string;
-}
+export { sha256Hex, type FileProblem, type ImportRequest, type SoundingDefaults, type UploadedFile } from './import-parse';
 
 /**
  * An upload refused as a whole: nothing from it is stored. The status is the most fundamental problem
- * among the files: 413 when a file is too large, else 422 for unreadable content, else 409 for files or
- * soundings already in the project.
+ * among the files: 413 when a file or a sounding is too large, else 422 for unreadable content, else 409 for
+ * files or soundings already in the project.
  */
 export class ImportRejected extends ServiceError {
 	constructor(
@@ -74,10 +34,6 @@ export interface ImportedFile {
 
 export interface ImportResult {
 	files: ImportedFile[];
-}
-
-export function sha256Hex(bytes: Uint8Array): string {
-	return createHash('sha256').update(bytes).digest('hex');
 }
 
 /**
@@ -104,21 +60,31 @@ interface Prepared {
  * Imports an upload of one or more files (CSV/TSV with a column mapping, GEF, AGS4) into a project,
  * all or nothing: every file is parsed and checked first, and only when all pass are the files (original
  * bytes and SHA-256) and their soundings written, in one transaction. A file already imported (same
- * SHA-256) or a sounding whose name is taken is refused with 409.
+ * SHA-256) or a sounding whose name is taken is refused with 409. Parses in the calling thread; uploads
+ * use `importSoundingsOffThread`.
  *
  * @throws ImportRejected listing every refused file with its line and column.
  */
 export function importSoundings(projectId: string, userId: string | null, request: ImportRequest, db: DbOrTx = getDb()): ImportResult {
 	if (request.files.length === 0) throw new ImportRejected(422, 'Choose at least one file to import.', []);
-	const problems: FileProblem[] = [];
-	const prepared: Prepared[] = [];
-	for (const file of request.files) {
-		try {
-			prepared.push(prepare(file, request));
-		} catch (err) {
-			problems.push(problemOf(file.name, err));
-		}
-	}
+	return commitImport(projectId, userId, request, parseUpload(request), db);
+}
+
+/**
+ * `importSoundings` with the parsing (decoding, parsing, checking, hashing: nearly all of an import's time) in
+ * a worker thread, so the server keeps answering other requests during a large upload. Only the conflict check
+ * and the one transaction run on the request's thread.
+ */
+export async function importSoundingsOffThread(projectId: string, userId: string | null, request: ImportRequest, db: DbOrTx = getDb()): Promise<ImportResult> {
+	if (request.files.length === 0) throw new ImportRejected(422, 'Choose at least one file to import.', []);
+	// Loaded on first use, so scripts that run this module under tsx (no Vite plugins) can import it.
+	const { parseUploadOffThread } = await import('./import-thread');
+	return commitImport(projectId, userId, request, await parseUploadOffThread(request), db);
+}
+
+function commitImport(projectId: string, userId: string | null, request: ImportRequest, { parsed, problems: parseProblems }: ParsedUpload, db: DbOrTx): ImportResult {
+	const prepared: Prepared[] = parsed.map(({ index, ...p }) => ({ file: request.files[index], ...p }));
+	const problems: FileProblem[] = [...parseProblems];
 	problems.push(...conflicts(projectId, prepared, db));
 	if (problems.length > 0) throw rejection(problems, request.files.length);
 
@@ -146,47 +112,6 @@ export function importSoundings(projectId: string, userId: string | null, reques
 		});
 		return { files };
 	});
-}
-
-function prepare(file: UploadedFile, request: ImportRequest): Prepared {
-	const text = decodeCptText(file.bytes, file.name);
-	const format = detectFormat(text, file.name);
-	let parsed: ParsedSounding[];
-	if (format === 'gef') parsed = parseGef(text, { file: file.name });
-	else if (format === 'ags4') parsed = parseAgs4(text, { file: file.name });
-	else {
-		const mapping = mappingFor(file, request);
-		if (!mapping) {
-			throw new CptParseError({ code: 'missing-column', file: file.name, detail: 'delimited text needs a column mapping' });
-		}
-		parsed = parseDelimited(text, mapping, { file: file.name });
-	}
-	const defaults = request.defaults ?? {};
-	for (const s of parsed) {
-		if (s.groundElevation === undefined || !Number.isFinite(s.groundElevation)) {
-			if (defaults.groundElevation === undefined) {
-				throw new CptParseError({
-					code: 'missing-value',
-					file: file.name,
-					column: format === 'gef' ? 'ZID' : format === 'ags4' ? 'LOCA_GL' : 'ground elevation',
-					detail: `sounding ${s.id} has no ground elevation; enter one in the upload form`
-				});
-			}
-			s.groundElevation = defaults.groundElevation;
-		}
-		if (s.areaRatio === undefined && defaults.areaRatio !== undefined) s.areaRatio = defaults.areaRatio;
-		if (s.depth.length === 0) {
-			throw new CptParseError({ code: 'malformed', file: file.name, detail: `sounding ${s.id} has no readings` });
-		}
-		if (!Number.isFinite(maxFinite(s.qc))) {
-			throw new CptParseError({ code: 'missing-value', file: file.name, column: 'qc', detail: `sounding ${s.id} has no qc readings` });
-		}
-	}
-	return { file, format, sha256: sha256Hex(file.bytes), soundings: parsed };
-}
-
-function mappingFor(file: UploadedFile, request: ImportRequest): DelimitedMapping | undefined {
-	return request.mappings?.[file.name] ?? request.mapping;
 }
 
 /** Files already imported, soundings whose names are taken, and clashes inside the upload itself. */
@@ -240,7 +165,7 @@ function conflicts(projectId: string, prepared: Prepared[], db: DbOrTx): FilePro
 
 function rejection(problems: FileProblem[], fileCount: number): ImportRejected {
 	const codes = new Set(problems.map((p) => p.code));
-	const status: ErrorStatus = codes.has('file-too-large')
+	const status: ErrorStatus = codes.has('file-too-large') || codes.has('too-many-readings')
 		? 413
 		: problems.some((p) => p.code !== 'already-imported' && p.code !== 'sounding-exists')
 			? 422
@@ -251,15 +176,6 @@ function rejection(problems: FileProblem[], fileCount: number): ImportRejected {
 			? `${problems[0].message}. Nothing was imported.`
 			: `${refused} of ${fileCount} files were refused; nothing was imported.`;
 	return new ImportRejected(status, message, problems);
-}
-
-function problemOf(file: string, err: unknown): FileProblem {
-	if (err instanceof CptParseError) {
-		return { file, code: err.code, message: err.message, ...(err.line !== undefined ? { line: err.line } : {}), ...(err.column !== undefined ? { column: err.column } : {}) };
-	}
-	// Parsers throw CptParseError for bad content; anything else is a bug, reported without internals.
-	console.error('[import]', file, err);
-	return { file, code: 'internal', message: `${file}: could not be read (an error on our side)` };
 }
 
 function soundingRow(projectId: string, sourceFileId: string, s: ParsedSounding): typeof soundings.$inferInsert {
@@ -284,10 +200,4 @@ function soundingRow(projectId: string, sourceFileId: string, s: ParsedSounding)
 		u2: s.u2 ? toFloat64Blob(s.u2) : null,
 		extras: Object.keys(extras).length > 0 ? extras : null
 	};
-}
-
-function maxFinite(values: ArrayLike<number>): number {
-	let m = -Infinity;
-	for (let i = 0; i < values.length; i++) if (values[i] > m) m = values[i];
-	return m;
 }

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { ApiError, endpoint } from '$lib/server/api';
 import { requireProjectRole } from '$lib/server/auth/guard';
-import { ImportRejected, importSoundings } from '$lib/server/services/import';
+import { ImportRejected, importSoundingsOffThread } from '$lib/server/services/import';
 import { listSoundings } from '$lib/server/services/soundings';
 import { filesOf, jsonField, readMultipart, rejectedUploadResponse } from '$lib/server/upload';
 import { uploadOptionsSchema } from '$lib/schemas/soundings';
@@ -24,7 +24,7 @@ export const POST = endpoint(async (event) => {
 	}
 	const files = await filesOf(form, 'files');
 	try {
-		return json(importSoundings(project.id, user.id, { files, ...parsed.data }), { status: 201 });
+		return json(await importSoundingsOffThread(project.id, user.id, { files, ...parsed.data }), { status: 201 });
 	} catch (err) {
 		if (err instanceof ImportRejected) return rejectedUploadResponse(err);
 		throw err;
