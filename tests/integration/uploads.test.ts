@@ -4,7 +4,9 @@
  * number of readings are held to the bounds of src/lib/schemas/bounds.ts at every entry point; a file named
  * like a built-in object member is mapped like any other; readings come in pages.
  */
-import { readFileSync } from 'node:fs';
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, inject, it } from 'vitest';
 import { DEMO, signedInSession, type HttpSession } from '../setup';
@@ -68,6 +70,24 @@ describe('the CSRF origin check', () => {
 			body: multipart([{ name: 'tok-2.gef', text: gef('TOK-2') }])
 		});
 		expect(res.status).toBe(201);
+	});
+
+	it('the README’s curl upload works as written', async () => {
+		const readme = readFileSync(join(import.meta.dirname, '..', '..', 'README.md'), 'utf8');
+		const command = /^curl [^\n]*\\\n(?:[^\n]*\\\n)*[^\n]*\/soundings$/m.exec(readme)?.[0];
+		expect(command, 'a curl upload in README.md').toBeTruthy();
+		const dir = mkdtempSync(join(tmpdir(), 'conefield-curl-'));
+		try {
+			writeFileSync(join(dir, 'CPT-01.gef'), gef('README-1'));
+			writeFileSync(join(dir, 'CPT-02.gef'), gef('README-2'));
+			const script = `${command!.replaceAll('http://localhost:3000', baseUrl)} -s -w '\\n%{http_code}'`;
+			const out = execFileSync('sh', ['-c', script], { cwd: dir, env: { ...process.env, TOKEN: token, PROJECT: projectId }, encoding: 'utf8' });
+			const status = out.trim().split('\n').pop();
+			expect(status, out).toBe('201');
+			expect(out).toContain('README-2');
+		} finally {
+			rmSync(dir, { recursive: true, force: true });
+		}
 	});
 
 	it('a bad token without an Origin header answers 401 in the API’s error shape', async () => {
