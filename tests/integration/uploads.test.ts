@@ -200,8 +200,10 @@ describe('limits on what a file may hold', () => {
 	});
 
 	it.each(['toString', 'constructor', 'hasOwnProperty', '__proto__'])('a delimited file named %s takes the upload’s mapping like any other', async (name) => {
-		const res = await upload([{ name, text: csv(5, `M-${name}`) }], { mapping: MAPPING });
+		// Per-file mappings for the other file, the upload-wide one for this: its lookup must not find Object.prototype.toString.
+		const res = await upload([{ name, text: csv(5, `M-${name}`) }, { name: 'other.csv', text: csv(5, `O-${name}`) }], { mappings: { 'other.csv': MAPPING }, mapping: MAPPING });
 		expect(res.status).toBe(201);
+		expect(((await res.json()) as { files: { name: string }[] }).files.map((f) => f.name)).toEqual([name, 'other.csv']);
 	});
 });
 
