@@ -22,6 +22,7 @@ describe('names people read', () => {
 
 	it('a project, unit or account name of zero-width characters only is refused', () => {
 		expect(projectCreateSchema.safeParse({ name: '\u200b\u200b' }).success).toBe(false);
+		expect(projectCreateSchema.safeParse({ name: '' }).error?.issues).toHaveLength(1);
 		expect(projectCreateSchema.safeParse({ name: 'Levee \u200b' }).success).toBe(true);
 		expect(unitCreateSchema.safeParse({ name: '\u2060' }).success).toBe(false);
 		expect(acceptInvitationSchema.safeParse({ name: '\ufeff', password: 'long-enough-1', confirm: 'long-enough-1' }).success).toBe(false);

@@ -30,7 +30,8 @@ export function displayName(max: number, messages: { required: string; tooLong: 
 	return z
 		.string({ error: messages.required })
 		.trim()
-		.min(1, { error: messages.required })
+		// An empty name gets one message, not a second about visible characters.
+		.min(1, { error: messages.required, abort: true })
 		.max(max, { error: messages.tooLong })
 		.refine(hasVisibleCharacter, { error: `${messages.required.replace(/\.$/, '')} with at least one visible character.` });
 }
