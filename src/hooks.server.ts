@@ -9,7 +9,7 @@ import { settleBackground } from '$lib/server/background';
 import { seedDemo } from '$lib/server/services/demo';
 import { ensureInitialAdmin, findUser } from '$lib/server/services/users';
 import { initialAdminEmail, seedDemoEnabled } from '$lib/server/config';
-import { crossSiteRefusal } from '$lib/server/csrf';
+import { closing, crossSiteRefusal } from '$lib/server/csrf';
 import { userForApiToken } from '$lib/server/services/tokens';
 import { apiError } from '$lib/server/api';
 
@@ -58,7 +58,7 @@ const identify: Handle = async ({ event, resolve }) => {
 	if (isApi && header) {
 		const match = /^Bearer\s+(\S+)$/i.exec(header);
 		const owner = match ? userForApiToken(match[1]) : undefined;
-		if (!owner) return apiError(401, 'The API token is missing, unknown, expired or revoked.');
+		if (!owner) return closing(apiError(401, 'The API token is missing, unknown, expired or revoked.'));
 		event.locals.user = { id: owner.id, email: owner.email, name: owner.name, siteRole: owner.siteRole };
 		event.locals.authVia = 'token';
 		return resolve(event);

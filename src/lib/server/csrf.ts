@@ -21,6 +21,12 @@ export function crossSiteRefusal(request: Request, url: URL): Response | null {
 	const isApi = url.pathname.startsWith('/api/');
 	if (isApi && request.headers.has('authorization')) return null;
 	const message = `Cross-site ${request.method} form submissions are forbidden: the Origin header must be ${url.origin}.`;
-	if (isApi) return apiError(403, message);
-	return request.headers.get('accept')?.includes('application/json') ? apiError(403, message) : text(message, { status: 403 });
+	const refusal = isApi || request.headers.get('accept')?.includes('application/json') ? apiError(403, message) : text(message, { status: 403 });
+	return closing(refusal);
+}
+
+/** A refusal sent before the request body was read closes the connection, so the client cannot reuse a socket mid-body. */
+export function closing(response: Response): Response {
+	response.headers.set('connection', 'close');
+	return response;
 }
