@@ -9,7 +9,7 @@ import { settleBackground } from '$lib/server/background';
 import { seedDemo } from '$lib/server/services/demo';
 import { ensureInitialAdmin, findUser } from '$lib/server/services/users';
 import { initialAdminEmail, seedDemoEnabled } from '$lib/server/config';
-import { closing, crossSiteRefusal } from '$lib/server/csrf';
+import { crossSiteRefusal, refuseUnread } from '$lib/server/csrf';
 import { userForApiToken } from '$lib/server/services/tokens';
 import { apiError } from '$lib/server/api';
 
@@ -40,7 +40,10 @@ const context: Handle = ({ event, resolve }) =>
 	requestContext.run({ address: event.getClientAddress(), userAgent: event.request.headers.get('user-agent') }, () => resolve(event));
 
 /** Refuses cross-site form posts of cookie sessions (see src/lib/server/csrf.ts); the framework's own check is off. */
-const csrf: Handle = ({ event, resolve }) => crossSiteRefusal(event.request, event.url) ?? resolve(event);
+const csrf: Handle = async ({ event, resolve }) => {
+	const refusal = crossSiteRefusal(event.request, event.url);
+	return refusal ? refuseUnread(event.request, refusal) : resolve(event);
+};
 
 /**
  * Who is asking. On /api/v1 an `Authorization: Bearer` header, when present, is the only credential
@@ -58,7 +61,7 @@ const identify: Handle = async ({ event, resolve }) => {
 	if (isApi && header) {
 		const match = /^Bearer\s+(\S+)$/i.exec(header);
 		const owner = match ? userForApiToken(match[1]) : undefined;
-		if (!owner) return closing(apiError(401, 'The API token is missing, unknown, expired or revoked.'));
+		if (!owner) return refuseUnread(event.request, apiError(401, 'The API token is missing, unknown, expired or revoked.'));
 		event.locals.user = { id: owner.id, email: owner.email, name: owner.name, siteRole: owner.siteRole };
 		event.locals.authVia = 'token';
 		return resolve(event);

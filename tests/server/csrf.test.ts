@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { crossSiteRefusal } from '$lib/server/csrf';
+import { crossSiteRefusal, refuseUnread } from '$lib/server/csrf';
 
 const ORIGIN = 'http://conefield.test';
 function request(path: string, { method = 'POST', type = 'multipart/form-data; boundary=x', origin, authorization, accept }: { method?: string; type?: string | null; origin?: string; authorization?: string; accept?: string } = {}) {
@@ -38,5 +38,18 @@ describe('crossSiteRefusal(request, url)', () => {
 
 	it('an Authorization header does not excuse a page form post (pages use the cookie)', () => {
 		expect(crossSiteRefusal(...request('/account', { authorization: 'Bearer cf_x' }))?.status).toBe(403);
+	});
+});
+
+describe('refuseUnread(request, response)', () => {
+	it('reads a small declared body, and closes the connection instead for a large or undeclared one', async () => {
+		const small = new Request(`${ORIGIN}/api/v1/x`, { method: 'POST', headers: { 'content-length': '5' }, body: 'hello' });
+		const kept = await refuseUnread(small, new Response(null, { status: 403 }));
+		expect(small.bodyUsed).toBe(true);
+		expect(kept.headers.get('connection')).toBeNull();
+		const large = new Request(`${ORIGIN}/api/v1/x`, { method: 'POST', headers: { 'content-length': String(2 ** 21) }, body: 'x' });
+		const closed = await refuseUnread(large, new Response(null, { status: 403 }));
+		expect(large.bodyUsed).toBe(false);
+		expect(closed.headers.get('connection')).toBe('close');
 	});
 });

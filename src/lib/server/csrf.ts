@@ -22,11 +22,23 @@ export function crossSiteRefusal(request: Request, url: URL): Response | null {
 	if (isApi && request.headers.has('authorization')) return null;
 	const message = `Cross-site ${request.method} form submissions are forbidden: the Origin header must be ${url.origin}.`;
 	const refusal = isApi || request.headers.get('accept')?.includes('application/json') ? apiError(403, message) : text(message, { status: 403 });
-	return closing(refusal);
+	return refusal;
 }
 
-/** A refusal sent before the request body was read closes the connection, so the client cannot reuse a socket mid-body. */
-export function closing(response: Response): Response {
+const DRAIN_LIMIT = 1024 * 1024;
+
+/**
+ * Sends a refusal decided before the request body was read. A small body (declared ≤ 1 MiB) is read and
+ * dropped first, so the client finishes writing and may keep the connection; a larger or undeclared one is
+ * not read, and the connection closes rather than be reused mid-body.
+ */
+export async function refuseUnread(request: Request, response: Response): Promise<Response> {
+	if (!request.body || request.bodyUsed) return response;
+	const declared = Number(request.headers.get('content-length'));
+	if (request.headers.has('content-length') && Number.isFinite(declared) && declared <= DRAIN_LIMIT) {
+		await request.arrayBuffer().catch(() => undefined);
+		return response;
+	}
 	response.headers.set('connection', 'close');
 	return response;
 }
