@@ -14,6 +14,7 @@ const EXPORTS = [
 	'interpolateAlongChainage',
 	'locateSounding',
 	'membersOverlap',
+	'planDistance',
 	'polylineLength',
 	'projectOntoPolyline',
 	'triangulatedSurface',
