@@ -20,6 +20,7 @@ const EXPORTS = [
 	'interpolateAlongChainage',
 	'locateSounding',
 	'membersOverlap',
+	'planDistance',
 	'polylineLength',
 	'projectOntoPolyline',
 	'triangulatedSurface',
