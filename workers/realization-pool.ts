@@ -15,6 +15,8 @@ import { CancelledError } from '../src/lib/cancelled-error';
 export interface PoolWorker {
 	remote: Remote<SimulationApi>;
 	terminate(): void | Promise<unknown>;
+	/** Rejects if the worker dies or cannot load (so a run does not wait for it forever). */
+	failed?: Promise<never>;
 }
 
 /** Options of RealizationPool.run. */
@@ -116,9 +118,19 @@ export class RealizationPool {
 				onRealization?.(rr, values);
 			}
 		};
+		const running = this.workers.slice(0, n);
+		const died = running.flatMap((w) => (w.failed ? [w.failed] : []));
 		try {
-			await Promise.race([Promise.all(this.workers.slice(0, n).map(work)), cancelPromise]);
+			await Promise.race([Promise.all(running.map(work)), cancelPromise, ...died]);
 			return results;
+		} catch (err) {
+			if (!(err instanceof CancelledError)) {
+				// A worker died (or threw): start afresh next time rather than reuse a pool in an unknown state.
+				cancelled = true;
+				for (const w of this.workers) void w.terminate();
+				this.workers = [];
+			}
+			throw err;
 		} finally {
 			signal?.removeEventListener('abort', onAbort);
 			this.cancelRun = null;

@@ -91,4 +91,10 @@ describe('createNodePool (worker_threads + comlink node adapter)', () => {
 		await expect(pool.call((w) => w.ensembleMap(ordered, 'mean'))).rejects.toThrow('a run is already in progress');
 		await running;
 	}, 60_000);
+
+	it('a worker that cannot load rejects the run instead of leaving it waiting', async () => {
+		const broken = createNodePool({ size: 1, workerUrl: new URL('file:///nonexistent/conefield-simulation-worker.mjs') });
+		await expect(broken.run(input, section(4, 1), [0])).rejects.toThrow();
+		await broken.close();
+	}, 60_000);
 });

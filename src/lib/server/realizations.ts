@@ -4,21 +4,48 @@
  * working on it. A small interface that summaries use now and exports and job runners can use later:
  * `runRealizations(recipe, list, onEach)`, `ensembleOf(hash, recipe)`, `ensembleMapOffThread(…)`.
  *
+ * The workers run workers/simulation.node-worker.ts bundled by the `?server-worker` plugin (vite.config.ts), the
+ * same in the built server, the dev server and vitest; a script run by tsx (the benchmarks) passes its own pool
+ * to useRealizationPool instead.
+ *
  * The realizations of the last ensemble asked for are kept in memory for a few minutes (never written), so the
  * ensemble maps of one recipe asked one after the other (mean, then SD …) regenerate it once.
  */
-import { availableParallelism } from 'node:os';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { availableParallelism, tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
 import type { Recipe } from '$lib/geostat';
 import type { EnsembleStat } from '$lib/ensemble';
 import { createNodePool } from '$workers/node-pool';
 import type { RealizationPool } from '$workers/realization-pool';
 
-let pool: RealizationPool | null = null;
+let pool: Promise<RealizationPool> | null = null;
 let queue: Promise<unknown> = Promise.resolve();
 
-function thePool(): RealizationPool {
-	pool ??= createNodePool({ size: Math.max(1, availableParallelism()) });
+function thePool(): Promise<RealizationPool> {
+	pool ??= import('../../../workers/simulation.node-worker.ts?server-worker').then(({ default: source }) =>
+		createNodePool({ size: Math.max(1, availableParallelism()), workerUrl: workerFile(source) })
+	);
 	return pool;
+}
+
+/**
+ * The bundled worker written to a private temporary directory, removed when the process exits. Unlike the upload
+ * parser's, this worker cannot start from a data: URL: its CommonJS dependencies (seedrandom, @stdlib) are bundled
+ * with createRequire(import.meta.url), which needs a file URL.
+ */
+function workerFile(source: string): URL {
+	const dir = mkdtempSync(join(tmpdir(), 'conefield-workers-'));
+	const file = join(dir, 'simulation.worker.mjs');
+	writeFileSync(file, source, { mode: 0o600 });
+	process.once('exit', () => rmSync(dir, { recursive: true, force: true }));
+	return pathToFileURL(file);
+}
+
+/** Runs on `given` instead of the bundled workers (scripts run by tsx, which has no `?server-worker`). */
+export function useRealizationPool(given: RealizationPool): void {
+	pool = Promise.resolve(given);
 }
 
 /** Runs `job` after every job asked for before it (whether they succeeded or not). */
@@ -35,12 +62,12 @@ function enqueue<T>(job: () => Promise<T>): Promise<T> {
  *   beyond the recipe's N
  */
 export function runRealizations(recipe: Recipe, realizations: number[], onEach?: (realization: number, values: Float64Array) => void): Promise<Map<number, Float64Array>> {
-	return enqueue(() => thePool().runRecipe(recipe, realizations, { onRealization: onEach }));
+	return enqueue(async () => (await thePool()).runRecipe(recipe, realizations, { onRealization: onEach }));
 }
 
 /** An ensemble map of realizations in realization order, computed on a worker of the pool. */
 export function ensembleMapOffThread(realizations: Float64Array[], stat: EnsembleStat, threshold?: number): Promise<Float64Array> {
-	return enqueue(() => thePool().call((w) => w.ensembleMap(realizations, stat, threshold)));
+	return enqueue(async () => (await thePool()).call((w) => w.ensembleMap(realizations, stat, threshold)));
 }
 
 /** How long the last ensemble's realizations stay in memory after their last use. */
@@ -90,5 +117,5 @@ export async function stopRealizations(): Promise<void> {
 	kept = null;
 	const p = pool;
 	pool = null;
-	await p?.close();
+	await (await p)?.close();
 }
