@@ -1,6 +1,6 @@
 import type { RecipeView } from '$lib/api';
 import type { CheckOptions, DomainCheck, EnsembleStat } from '$lib/ensemble';
-import type { Recipe } from '$lib/geostat';
+import { weightedQuantiles, type Recipe } from '$lib/geostat';
 import { PROPERTY_INFO, type SimulatedProperty } from '$lib/properties';
 import type { GridDefinition } from '$lib/site';
 import { expandRuns } from '$lib/plots/raster';
@@ -102,8 +102,22 @@ export class FieldViewer {
 		return this.maps.get(this.mapKey(this.mode, this.threshold)) ?? null;
 	});
 
-	/** The span the property's values take: the tail bounds of its domains (the data's extremes by default). */
+	/**
+	 * The span the colours of the property's values cover: the 1st to 99th percentile of its domains' conditioning
+	 * data (a few extreme readings would otherwise wash out the rest); values beyond take the end colours.
+	 */
 	readonly valueSpan = $derived.by((): [number, number] => {
+		const values: number[] = [];
+		this.recipe.input.domains.forEach((d, k) => {
+			if (this.domains[k]?.property === this.property) for (const s of d.samples) values.push(s.value);
+		});
+		if (values.length === 0) return [0, 1];
+		const [lo, hi] = weightedQuantiles(values, undefined, [0.01, 0.99]);
+		return hi > lo ? [lo, hi] : [lo - 1, hi + 1];
+	});
+
+	/** The span the property's values can take: the tail bounds of its domains (the data's extremes by default). */
+	readonly tailSpan = $derived.by((): [number, number] => {
 		const ds = this.domains.filter((d) => d.property === this.property);
 		return [Math.min(...ds.map((d) => d.zmin)), Math.max(...ds.map((d) => d.zmax))];
 	});
