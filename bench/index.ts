@@ -12,7 +12,9 @@ const MODULES: (() => Promise<{ default: BenchCase[] }>)[] = [
 	() => import('./variogram'),
 	() => import('./simulation'),
 	() => import('./soundings-storage'),
-	() => import('./import-latency')
+	() => import('./import-latency'),
+	() => import('./demo-run'),
+	() => import('./browser-run')
 ];
 
 const only = process.argv[2];
