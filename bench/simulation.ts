@@ -4,9 +4,10 @@
 // `ratio` says what search, covariance build and bookkeeping cost on top of the unavoidable solves.
 import seedrandom from 'seedrandom';
 import { availableParallelism } from 'node:os';
-import { choleskyFactor, choleskySolve, covariance, prepareSimulation, simulatePrepared } from '../src/lib/geostat/index';
+import { choleskyFactor, choleskySolve, covariance, prepareSimulation, recipeInput, simulatePrepared, targetsFromDefinition } from '../src/lib/geostat/index';
 import type { SimulationInput, SimulationStats, TargetPoints, VariogramModel, Sample } from '../src/lib/geostat/index';
 import { createNodePool } from '../workers/node-pool';
+import { demoRecipe } from '../scripts/demo-recipe';
 import type { BenchCase } from './index';
 
 let peakRss = process.memoryUsage().rss;
@@ -59,6 +60,13 @@ function blockInput(): { input: SimulationInput; targets: TargetPoints } {
 	return { targets, input: { seed: 'bench-block', domains: [{ samples, model, transform: 'normal-score', kriging: 'simple', search: { maxData: 16, maxSimulated: 16 } }] } };
 }
 
+function offgridInput(): { input: SimulationInput; targets: TargetPoints } {
+	// The demo's own domain samples (five domains, 0.2 m windows at the soundings' chainages: off the lattice) on a
+	// 400 × 80 section at 1 m × 0.2 m (about 32,000 cells); exponential 40 m / 0.9 m; 16 data (≤ 8 a sounding), 16 nodes.
+	const recipe = demoRecipe({ seed: 'bench-section-offgrid' });
+	return { input: recipeInput(recipe), targets: targetsFromDefinition(recipe.targets) };
+}
+
 /** Covariance matrices of k points along a line: SPD with realistic conditioning, for the floor. */
 function floorMatrices(k: number): Float64Array[] {
 	const model: VariogramModel = { azimuth: 90, structures: [{ type: 'exponential', sill: 1, rangeMajor: 40, rangeMinor: 40, rangeVertical: 1 }] };
@@ -87,50 +95,82 @@ function floorMs(mats: Float64Array[], k: number, systems: number): number {
 	return ms;
 }
 
-function simulationCase(name: string, setup: () => { input: SimulationInput; targets: TargetPoints }, realizations: number): Record<string, number> {
-	const { input, targets } = setup();
-	sampleRss();
+interface Run {
+	simMs: number;
+	floorMs: number;
+	floorSystems: number;
+	systems: number;
+	neighbours: number;
+	reused: number;
+	prepareMs: number;
+	cacheMB: number;
+}
+
+/** Realizations 0…R−1 of one prepared simulation, each timed next to its floor (the box is shared with other work). */
+function run(input: SimulationInput, targets: TargetPoints, realizations: number, reuseBytes?: number): Run {
 	const t0 = performance.now();
-	const prep = prepareSimulation(input, targets);
-	const prepareMs = performance.now() - t0;
+	const prep = prepareSimulation(input, targets, reuseBytes === undefined ? {} : { reuseBytes });
+	const out: Run = { simMs: 0, floorMs: 0, floorSystems: 0, systems: 0, neighbours: 0, reused: 0, prepareMs: performance.now() - t0, cacheMB: 0 };
 	sampleRss();
-	// The box is shared with other work; timing each realization next to its floor keeps the ratio fair.
-	let simMs = 0;
-	let floorTotalMs = 0;
-	let floorSystems = 0;
-	let systems = 0;
-	let neighbours = 0;
 	let mats: Float64Array[] | null = null;
 	let k = 0;
 	for (let r = 0; r < realizations; r++) {
-		const stats: SimulationStats = { systems: 0, neighbours: 0 };
+		const stats: SimulationStats = { systems: 0, neighbours: 0, reused: 0 };
 		const t1 = performance.now();
 		simulatePrepared(prep, r, sampleRss, stats);
-		simMs += performance.now() - t1;
+		out.simMs += performance.now() - t1;
 		sampleRss();
-		systems += stats.systems;
-		neighbours += stats.neighbours;
+		out.systems += stats.systems;
+		out.neighbours += stats.neighbours;
+		out.reused += stats.reused;
 		if (!mats) {
 			k = Math.round(stats.neighbours / stats.systems);
 			mats = floorMatrices(k);
 		}
 		const m = Math.min(stats.systems, 200_000);
-		floorTotalMs += floorMs(mats, k, m);
-		floorSystems += m;
+		out.floorMs += floorMs(mats, k, m);
+		out.floorSystems += m;
 	}
-	const nodes = systems / realizations;
-	const usPerNode = (simMs * 1000) / systems;
-	const floorUs = (floorTotalMs * 1000) / floorSystems;
+	out.cacheMB = prep.cache && prep.cache.stores > 0 ? prep.cache.bytes / 2 ** 20 : 0;
+	return out;
+}
+
+const round2 = (v: number) => Math.round(v * 100) / 100;
+
+/**
+ * One simulation case on one path: realizations with reuse (ratio, hitRate: share of systems whose solution was
+ * reused, over all realizations run), then the same without reuse (ratioNoReuse), each against its own floor.
+ */
+function simulationCase(
+	name: string,
+	setup: () => { input: SimulationInput; targets: TargetPoints },
+	realizations: number,
+	path: 'random' | 'multigrid'
+): Record<string, number> {
+	const base = setup();
+	const input: SimulationInput = { ...base.input, domains: base.input.domains.map((d) => ({ ...d, search: { ...d.search, path } })) };
+	const { targets } = base;
+	sampleRss();
+	peakRss = process.memoryUsage().rss;
+	const on = run(input, targets, realizations);
+	const peak = peakRss;
+	const off = run(input, targets, realizations, 0);
+	const us = (r: Run) => (r.simMs * 1000) / r.systems;
+	const floorUs = (r: Run) => (r.floorMs * 1000) / r.floorSystems;
 	return {
-		nodes,
+		nodes: on.systems / realizations,
 		targets: targets.x.length,
-		k: Math.round((neighbours / systems) * 100) / 100,
-		prepareMs: Math.round(prepareMs),
-		msPerRealization: Math.round(simMs / realizations),
-		usPerNode: Math.round(usPerNode * 100) / 100,
-		floorUsPerNode: Math.round(floorUs * 100) / 100,
-		ratio: Math.round((usPerNode / floorUs) * 100) / 100,
-		...(name === 'block' ? { peakRssMB: Math.round(peakRss / 2 ** 20) } : {})
+		k: round2(on.neighbours / on.systems),
+		prepareMs: Math.round(on.prepareMs),
+		msPerRealization: Math.round(on.simMs / realizations),
+		usPerNode: round2(us(on)),
+		floorUsPerNode: round2(floorUs(on)),
+		ratio: round2(us(on) / floorUs(on)),
+		hitRate: round2(on.reused / on.systems),
+		msPerRealizationNoReuse: Math.round(off.simMs / realizations),
+		ratioNoReuse: round2(us(off) / floorUs(off)),
+		cacheMB: Math.round(on.cacheMB),
+		...(name.startsWith('block') ? { peakRssMB: Math.round(peak / 2 ** 20) } : {})
 	};
 }
 
@@ -154,9 +194,14 @@ async function poolCase(): Promise<Record<string, number>> {
 }
 
 const cases: BenchCase[] = [
-	{ name: 'section', run: () => simulationCase('section', sectionInput, 3) },
-	{ name: 'block', run: () => simulationCase('block', blockInput, 1) },
+	{ name: 'section', run: () => simulationCase('section', sectionInput, 3, 'random') },
+	{ name: 'section:multigrid', run: () => simulationCase('section', sectionInput, 3, 'multigrid') },
+	{ name: 'section-offgrid', run: () => simulationCase('section-offgrid', offgridInput, 3, 'random') },
+	{ name: 'section-offgrid:multigrid', run: () => simulationCase('section-offgrid', offgridInput, 3, 'multigrid') },
+	{ name: 'block', run: () => simulationCase('block', blockInput, 1, 'random') },
+	{ name: 'block:multigrid', run: () => simulationCase('block', blockInput, 1, 'multigrid') },
 	{ name: 'pool', run: poolCase }
 ];
 
 export default cases;
+export { sectionInput, blockInput, offgridInput };

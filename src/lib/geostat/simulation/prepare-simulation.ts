@@ -1,5 +1,6 @@
-import { compileVariogram, validateVariogramModel } from '../variogram/model';
-import type { CompiledVariogram } from '../variogram/model';
+import { validateVariogramModel } from '../variogram/model';
+import { tabulatedCovariance } from '../variogram/covariance-table';
+import type { TabulatedCovariance } from '../variogram/covariance-table';
 import { normalScore } from '../distribution/normal-score';
 import type { NormalScoreTable } from '../types';
 import { searchEllipsoid, normalisedCoordinates } from '../search/search-ellipsoid';
@@ -9,6 +10,8 @@ import { offsetTemplate } from '../search/offset-template';
 import type { OffsetTemplate } from '../search/offset-template';
 import { detectLattice } from './lattice';
 import type { Lattice } from './lattice';
+import { multigridLevel, multigridStrides } from './multigrid-path';
+import { SolutionCache } from './solution-cache';
 import type { DomainInput, SimulationInput, TargetPoints } from './types';
 
 /**
@@ -20,10 +23,36 @@ export const COINCIDENCE_TOLERANCE = 1e-6;
 // Covariance tables beyond this many entries cost more to fill than they save.
 const MAX_TABLE = 8_000_000;
 
+/** Default memory of the solution cache of one prepared simulation (so of one worker): 64 MiB. */
+export const DEFAULT_REUSE_BYTES = 64 * 1024 * 1024;
+
+// Memory for the data–data covariances kept per prepared simulation (a domain's nd² doubles, filled as used),
+// and for the kept data searches (maxData + 1 integers per path node).
+const DATA_COVARIANCE_BYTES = 32 * 1024 * 1024;
+const DATA_SELECTION_BYTES = 32 * 1024 * 1024;
+// ...and for the covariances between data off the lattice and the cells around them.
+const DATA_NODE_BYTES = 32 * 1024 * 1024;
+
+/** Options of prepareSimulation; none changes a single bit of any realization. */
+export interface PrepareOptions {
+	/**
+	 * Keep what realizations have in common and use it again (default true): solved kriging systems whose
+	 * neighbourhood repeats (see SolutionCache), each target's data search, and covariances between data and
+	 * between data and nearby lattice cells (each within a budget of 32 MiB a prepared simulation). false: compute
+	 * everything afresh every time (the same bits; for tests that prove it).
+	 */
+	reuse?: boolean;
+	/**
+	 * Memory for the solved kriging systems, in bytes; default DEFAULT_REUSE_BYTES, 0: none kept. The cache takes
+	 * no more than it could fill: two slots per simulated target at most.
+	 */
+	reuseBytes?: number;
+}
+
 /** One domain, ready for any number of realizations (internal layout, not part of the recipe). */
 export interface PreparedDomain {
 	index: number;
-	cov: CompiledVariogram;
+	cov: TabulatedCovariance;
 	sill: number;
 	mean: number;
 	ordinary: boolean;
@@ -41,7 +70,7 @@ export interface PreparedDomain {
 	dorig: Float64Array;
 	dgroup: Int32Array;
 	dataGrid: BucketGrid;
-	/** Lattice coordinates of data (3 each) and whether a datum sits on the lattice. */
+	/** Nearest lattice coordinates of data (3 each) and whether a datum sits on the lattice (within its box). */
 	dlat: Int32Array;
 	donlat: Uint8Array;
 	/** Global indices of the domain's targets, ascending. */
@@ -55,6 +84,29 @@ export interface PreparedDomain {
 	tableHalf: [number, number, number];
 	/** General mode: bucket grid over the domain's targets (local indices). */
 	nodeGrid: BucketGrid | null;
+	/**
+	 * Multiple-grid path (lattice mode with a template only): strides per level (see multigridStrides), the
+	 * level of each path node, and per level ≥ 1 the template entries whose offsets lie on that level's grid
+	 * (the only cells that can hold a simulated node while the level is visited). Null for the random path.
+	 */
+	multigrid: { strides: Int32Array; level: Uint8Array; entries: Int32Array[] } | null;
+	/**
+	 * Covariances between data i and j at i·nd + j, NaN until first needed (filled by the simulation; the same
+	 * bits as evaluating them each time), or null when the domain has too many data to keep them.
+	 */
+	dataCov: Float64Array | null;
+	/**
+	 * The data search of each path node (by position in pathNodes), which depends on the target alone: at
+	 * p·(maxData + 1) the count (−1 until first searched), then the chosen data. Null when there is no room.
+	 */
+	dataSelection: Int32Array | null;
+	/**
+	 * Lattice mode, data off the lattice: covariances between datum i and the lattice cells within `nodeHalf`
+	 * cells of the datum's nearest cell, NaN until first needed (the same bits as evaluating them each time:
+	 * a node's coordinates are a function of its cell), i·W + cell offset; or null when there is no room.
+	 */
+	dataNodeCov: Float64Array | null;
+	nodeHalf: [number, number, number];
 }
 
 /** A simulation prepared once and realized many times (see simulatePrepared). */
@@ -67,18 +119,23 @@ export interface PreparedSimulation {
 	domains: PreparedDomain[];
 	/** Number of targets with a domain. */
 	active: number;
+	/** Solved systems kept for reuse (lattice mode with covariance tables), or null. Never changes a result. */
+	cache: SolutionCache | null;
 }
 
 /**
  * Validates a simulation input against its targets and prepares everything that does not depend on the
  * realization: normal-score transforms (Deutsch & Journel 1998, ch. V), merged data, search structures,
- * the lattice with its offset template and covariance table. Does not mutate its inputs (targets are kept
- * by reference).
+ * the lattice with its offset template and covariance table, the multiple-grid levels, and a cache for reusing
+ * solved kriging systems (see PrepareOptions). Does not mutate its inputs (targets are kept by reference); the
+ * prepared simulation's caches fill as realizations run, without changing any result.
  * @throws {TypeError} on malformed input
  * @throws {RangeError} on bad sizes, non-finite numbers, domain indices out of range, or a normal-score
  *   domain without samples
  */
-export function prepareSimulation(input: SimulationInput, targets: TargetPoints): PreparedSimulation {
+export function prepareSimulation(input: SimulationInput, targets: TargetPoints, options: PrepareOptions = {}): PreparedSimulation {
+	const { reuse = true, reuseBytes = DEFAULT_REUSE_BYTES } = options;
+	if (!(reuseBytes >= 0)) throw new RangeError('reuseBytes must be >= 0');
 	if (input === null || typeof input !== 'object') throw new TypeError('input must be an object');
 	if (typeof input.seed !== 'string') throw new TypeError('seed must be a string');
 	if (!Array.isArray(input.domains)) throw new TypeError('domains must be an array');
@@ -91,7 +148,45 @@ export function prepareSimulation(input: SimulationInput, targets: TargetPoints)
 	const lattice = detectLattice(targets);
 	const datumAt = new Int32Array(n).fill(-1);
 	const domains = input.domains.map((d, index) => prepareDomain(d, index, targets, lattice, datumAt));
-	return { seed: input.seed, targets, lattice, datumAt, domains, active };
+	let covBytes = DATA_COVARIANCE_BYTES;
+	let selBytes = DATA_SELECTION_BYTES;
+	let nodeBytes = DATA_NODE_BYTES;
+	for (const dom of domains) {
+		if (!reuse || dom.nd === 0 || dom.maxData === 0 || dom.ellipsoid.empty) continue;
+		const bytes = 8 * dom.nd * dom.nd;
+		if (dom.nd > 1 && bytes <= covBytes) {
+			dom.dataCov = new Float64Array(dom.nd * dom.nd).fill(NaN);
+			covBytes -= bytes;
+		}
+		const sel = dom.pathNodes.length * (dom.maxData + 1);
+		if (4 * sel <= selBytes) {
+			dom.dataSelection = new Int32Array(sel).fill(-1);
+			selBytes -= 4 * sel;
+		}
+		if (dom.template !== null && dom.donlat.includes(0)) {
+			const [hx, hy, hz] = dom.nodeHalf;
+			const size = dom.nd * (2 * hx + 1) * (2 * hy + 1) * (2 * hz + 1);
+			if (8 * size <= nodeBytes) {
+				dom.dataNodeCov = new Float64Array(size).fill(NaN);
+				nodeBytes -= 8 * size;
+			}
+		}
+	}
+	return { seed: input.seed, targets, lattice, datumAt, domains, active, cache: reuse ? solutionCache(domains, reuseBytes) : null };
+}
+
+/** The solution cache: for domains with a covariance table, sized to the budget and the number of path nodes. */
+function solutionCache(domains: PreparedDomain[], bytes: number): SolutionCache | null {
+	let kmax = 0;
+	let nodes = 0;
+	for (const d of domains) {
+		if (d.covTable === null) continue;
+		kmax = Math.max(kmax, d.maxData + d.maxSimulated);
+		nodes += d.pathNodes.length;
+	}
+	if (kmax === 0) return null;
+	const slots = Math.min(Math.floor(bytes / SolutionCache.bytesPerSlot(kmax)), 2 * nodes + 2);
+	return slots >= 2 ? new SolutionCache(kmax, slots) : null;
 }
 
 function checkTargets(t: TargetPoints, nDomains: number): void {
@@ -134,6 +229,7 @@ function checkDomain(d: DomainInput): void {
 	if (s.maxPerSounding !== undefined && (!Number.isInteger(s.maxPerSounding) || s.maxPerSounding < 1)) {
 		throw new RangeError('maxPerSounding must be an integer >= 1');
 	}
+	if (s.path !== undefined && s.path !== 'random' && s.path !== 'multigrid') throw new TypeError("path must be 'random' or 'multigrid'");
 	if (d.transform === 'normal-score' && d.samples.length === 0) throw new RangeError('a normal-score domain needs samples');
 }
 
@@ -145,7 +241,7 @@ function prepareDomain(
 	datumAt: Int32Array
 ): PreparedDomain {
 	checkDomain(d);
-	const cov = compileVariogram(d.model);
+	const cov = tabulatedCovariance(d.model);
 	const ellipsoid = searchEllipsoid(d.model, d.search.radius);
 	let kvals = d.samples.map((s) => s.value);
 	let table: NormalScoreTable | null = null;
@@ -172,7 +268,7 @@ function prepareDomain(
 				// Only data inside the lattice's box count as on it: then every offset between two entries of a
 				// kriging system is within the covariance table (see tableHalf below), with no bounds checks.
 				if (Math.abs(f - r) * lattice.spacing[a] > COINCIDENCE_TOLERANCE || r < 0 || r >= lattice.counts[a]) on = 0;
-				dlat[3 * i + a] = on ? r : 0;
+				dlat[3 * i + a] = r;
 			}
 			donlat[i] = on;
 		}
@@ -217,7 +313,10 @@ function prepareDomain(
 				}
 			}
 		}
-	} else {
+	}
+	let multigrid: PreparedDomain['multigrid'] = null;
+	if (template && lattice && d.search.path === 'multigrid') multigrid = multigridOf(template, lattice, path);
+	if (!template || !lattice) {
 		const tn = new Float64Array(3 * targets.length);
 		for (let i = 0; i < targets.length; i++) {
 			const g = targets[i];
@@ -248,8 +347,35 @@ function prepareDomain(
 		templateCells,
 		covTable,
 		tableHalf,
-		nodeGrid
+		nodeGrid,
+		multigrid,
+		dataCov: null,
+		dataSelection: null,
+		dataNodeCov: null,
+		// A node of a system lies within the ellipsoid's reach of the target, and so mostly of the data too.
+		nodeHalf: template && lattice ? [0, 1, 2].map((a) => Math.min(template!.reach[a], lattice.counts[a] - 1)) as [number, number, number] : [0, 0, 0]
 	};
+}
+
+/** The multiple-grid levels of a domain's path nodes and the template entries of each coarse level. */
+function multigridOf(template: OffsetTemplate, lattice: Lattice, path: number[]): PreparedDomain['multigrid'] {
+	const strides = multigridStrides(template.reach, lattice.counts);
+	const [cx, cy] = lattice.counts;
+	const level = new Uint8Array(path.length);
+	path.forEach((g, p) => {
+		const c = lattice.cellOf[g];
+		level[p] = multigridLevel(strides, c % cx, Math.floor(c / cx) % cy, Math.floor(c / (cx * cy)));
+	});
+	const entries: Int32Array[] = [new Int32Array(0)];
+	const o = template.offsets;
+	for (let l = 1; l < strides.length / 3; l++) {
+		const keep: number[] = [];
+		for (let e = 0; e < template.count; e++) {
+			if (o[3 * e] % strides[3 * l] === 0 && o[3 * e + 1] % strides[3 * l + 1] === 0 && o[3 * e + 2] % strides[3 * l + 2] === 0) keep.push(e);
+		}
+		entries.push(Int32Array.from(keep));
+	}
+	return { strides, level, entries };
 }
 
 interface MergedData {

@@ -6,6 +6,8 @@ import { selectNearest } from '../search/select-nearest';
 import { choleskyFactor, choleskySolve } from '../linalg/cholesky';
 import { prepareSimulation } from './prepare-simulation';
 import type { PreparedDomain, PreparedSimulation } from './prepare-simulation';
+import { multigridLevel, multigridPath } from './multigrid-path';
+import { signatureHash } from './solution-cache';
 import type { SimulationInput, TargetPoints } from './types';
 
 /**
@@ -21,10 +23,12 @@ export function realizationStream(seed: string, realization: number, domain: num
 /**
  * Sequential Gaussian simulation (Deutsch & Journel 1998, ch. V.2.3; Goovaerts 1997, ch. 8; Isaaks 1990):
  * one conditional realization of every domain's field at the target points, in original units (NaN where
- * the target's domain is −1). Domain by domain, a seeded random path visits the domain's targets; at each
+ * the target's domain is −1). Domain by domain, a seeded random path (or a multiple-grid path, see
+ * multigridPath) visits the domain's targets; at each
  * the nearest conditioning data (≤ maxData, ≤ maxPerSounding from one sounding) and previously simulated
  * nodes (≤ maxSimulated) inside the search ellipsoid, ranked by the ellipsoid's normalised (anisotropic)
- * distance, enter a simple or ordinary kriging system; the node gets estimate + √variance·N(0,1), drawn by
+ * distance, enter a simple or ordinary kriging system (covariances as TabulatedCovariance evaluates them);
+ * the node gets estimate + √variance·N(0,1), drawn by
  * Φ⁻¹ of a uniform (Wichura 1988), and is back-transformed from normal scores. Targets within
  * COINCIDENCE_TOLERANCE of a datum take the datum's value exactly. With no neighbour at all a node is drawn
  * from the simple-kriging mean and the sill (ordinary kriging too).
@@ -42,15 +46,19 @@ export function simulate(
 	return simulatePrepared(prepareSimulation(input, targets), realization, onProgress);
 }
 
-/** Counters a caller may pass to simulatePrepared (benchmarks): kriging systems solved and their total size. */
+/**
+ * Counters a caller may pass to simulatePrepared (benchmarks): kriging systems (one per simulated node), their
+ * total size, and how many took a solution already solved for the same neighbourhood signature.
+ */
 export interface SimulationStats {
 	systems: number;
 	neighbours: number;
+	reused: number;
 }
 
 /**
  * simulate() for a prepared input: the same bits, without repeating the preparation for each realization.
- * Does not mutate the prepared simulation; adds to `stats` if given.
+ * Fills the prepared simulation's caches (never changing a result); adds to `stats` if given.
  * @throws {RangeError} if realization is not a non-negative safe integer
  */
 export function simulatePrepared(
@@ -72,7 +80,7 @@ export function simulatePrepared(
 	const yCell = prep.lattice ? new Float64Array(prep.lattice.cell.length) : null;
 	const progress = { done: 0, total: prep.active, step: Math.max(1, Math.floor(prep.active / 100)), next: 0, cb: onProgress };
 	progress.next = progress.step;
-	const counters = stats ?? { systems: 0, neighbours: 0 };
+	const counters = stats ?? { systems: 0, neighbours: 0, reused: 0 };
 	for (const dom of prep.domains) simulateDomain(prep, dom, realization, out, y, state, ready, yCell, progress, counters);
 	if (onProgress) onProgress(prep.active, prep.active);
 	return out;
@@ -116,13 +124,21 @@ function simulateDomain(
 		}
 	}
 
-	const path = dom.pathNodes.slice();
-	// Fisher–Yates shuffle (Knuth 1997, TAOCP vol. 2, alg. 3.4.2 P).
-	for (let i = path.length - 1; i > 0; i--) {
-		const j = Math.floor(rand() * (i + 1));
-		const tmp = path[i];
-		path[i] = path[j];
-		path[j] = tmp;
+	// The path as positions in dom.pathNodes (the same permutation as of the nodes themselves), so per-node
+	// kept results (the data search) are found by position.
+	const nodes = dom.pathNodes;
+	const mg = dom.multigrid;
+	let path: Int32Array;
+	if (mg) path = multigridPath(identity(nodes.length), mg.level, rand);
+	else {
+		path = identity(nodes.length);
+		// Fisher–Yates shuffle (Knuth 1997, TAOCP vol. 2, alg. 3.4.2 P).
+		for (let i = path.length - 1; i > 0; i--) {
+			const j = Math.floor(rand() * (i + 1));
+			const tmp = path[i];
+			path[i] = path[j];
+			path[j] = tmp;
+		}
 	}
 
 	const { cov, sill, mean, ordinary, maxData, maxSimulated } = dom;
@@ -157,32 +173,129 @@ function simulateDomain(
 	const [ldx, ldy, ldz] = lat ? lat.spacing : [1, 1, 1];
 	const useData = dom.nd > 0 && maxData > 0 && !dom.ellipsoid.empty;
 	const useNodes = maxSimulated > 0 && !dom.ellipsoid.empty;
+	// Reuse needs every entry's covariances from the table: then the signature fixes the system.
+	const cache = table !== null ? prep.cache : null;
+	const key = new Int32Array(kmax);
+	const nd = dom.nd;
+	const dataCov = dom.dataCov;
+	const dataSel = dom.dataSelection;
+	const selStride = maxData + 1;
+	// Datum index of each system entry (−1 for a simulated node), for the kept data–data covariances, and the
+	// lattice cell of each node entry, for the kept datum–node covariances.
+	const pid = new Int32Array(kmax);
+	const pi = new Int32Array(kmax);
+	const pj = new Int32Array(kmax);
+	const pk = new Int32Array(kmax);
+	const dnc = dom.dataNodeCov;
+	const dlat = dom.dlat;
+	const [wx, wy, wz] = dom.nodeHalf;
+	const nwy = 2 * wy + 1;
+	const nwz = 2 * wz + 1;
+	const nw = (2 * wx + 1) * nwy * nwz;
+	/** Covariance of datum i and the node at cell (ii, jj, kk) with coordinates (xn, yn, zn). */
+	const covDatumNode = (i: number, ii: number, jj: number, kk: number, xn: number, yn: number, zn: number): number => {
+		const oi = ii - dlat[3 * i] + wx;
+		const oj = jj - dlat[3 * i + 1] + wy;
+		const ok = kk - dlat[3 * i + 2] + wz;
+		if (dnc === null || oi < 0 || oi > 2 * wx || oj < 0 || oj >= nwy || ok < 0 || ok >= nwz) {
+			return cov.covariance(xn - dom.dx[i], yn - dom.dy[i], zn - dom.dz[i]);
+		}
+		const at = i * nw + (oi * nwy + oj) * nwz + ok;
+		let c = dnc[at];
+		if (c !== c) {
+			c = cov.covariance(xn - dom.dx[i], yn - dom.dy[i], zn - dom.dz[i]);
+			dnc[at] = c;
+		}
+		return c;
+	};
+	const covData = (i: number, j: number): number => {
+		const at = i * nd + j;
+		let c = dataCov![at];
+		if (c !== c) {
+			c = cov.covariance(dom.dx[i] - dom.dx[j], dom.dy[i] - dom.dy[j], dom.dz[i] - dom.dz[j]);
+			// C(h) = C(−h) bit for bit (TabulatedCovariance), so one evaluation serves both orders.
+			dataCov![at] = c;
+			dataCov![j * nd + i] = c;
+		}
+		return c;
+	};
 
 	// Table position of each system entry on the lattice (−1 off it): the covariance of two entries on the
 	// lattice is table[centre + tp[p] − tp[q]], always in range (see tableHalf in prepareSimulation).
 	const tp = new Int32Array(kmax);
-	const buildSystem = (k: number, tq: number, x0: number, y0: number, z0: number, ridge: number): void => {
+	// The lower triangle of the covariance matrix of the k entries (data first, then nodes) and the right-hand side.
+	// Two entries both on the lattice take the table; two data the kept data–data covariances when there are
+	// some; anything else the covariance itself — each the same bits the covariance gives (C(h) = C(−h) too).
+	const buildSystem = (k: number, kd: number, tq: number, gi: number, gj: number, gk: number, x0: number, y0: number, z0: number, ridge: number): void => {
 		for (let p = 0; p < k; p++) {
 			const tpp = tp[p];
 			const xp = px[p];
 			const yp = py[p];
 			const zp = pz[p];
-			rhs[p] = tpp >= 0 && tq >= 0 ? table![centre + tpp - tq] : cov.covariance(xp - x0, yp - y0, zp - z0);
+			if (tpp >= 0 && tq >= 0) rhs[p] = table![centre + tpp - tq];
+			else if (p < kd && tq >= 0) rhs[p] = covDatumNode(pid[p], gi, gj, gk, x0, y0, z0);
+			else rhs[p] = cov.covariance(xp - x0, yp - y0, zp - z0);
 			const row = p * k;
-			if (tpp >= 0) {
-				const base = centre + tpp;
+			const base = centre + tpp;
+			if (p < kd) {
+				const ip = pid[p];
 				for (let r = 0; r < p; r++) {
 					const tr = tp[r];
-					a[row + r] = tr >= 0 ? table![base - tr] : cov.covariance(xp - px[r], yp - py[r], zp - pz[r]);
+					if (tpp >= 0 && tr >= 0) a[row + r] = table![base - tr];
+					else if (dataCov !== null) a[row + r] = covData(ip, pid[r]);
+					else a[row + r] = cov.covariance(xp - px[r], yp - py[r], zp - pz[r]);
 				}
 			} else {
-				for (let r = 0; r < p; r++) a[row + r] = cov.covariance(xp - px[r], yp - py[r], zp - pz[r]);
+				for (let r = 0; r < kd; r++) {
+					const tr = tp[r];
+					if (tpp >= 0 && tr >= 0) a[row + r] = table![base - tr];
+					else if (tpp >= 0) a[row + r] = covDatumNode(pid[r], pi[p], pj[p], pk[p], xp, yp, zp);
+					else a[row + r] = cov.covariance(xp - px[r], yp - py[r], zp - pz[r]);
+				}
+				if (tpp >= 0) for (let r = kd; r < p; r++) a[row + r] = table![base - tp[r]];
+				else for (let r = kd; r < p; r++) a[row + r] = cov.covariance(xp - px[r], yp - py[r], zp - pz[r]);
 			}
 			a[row + p] = sill * ridge;
 		}
 	};
+	/**
+	 * Builds, factors and solves the system of k entries: leaves the simple-kriging weights, or the ordinary-kriging
+	 * λ = w − μ·u (with K·w = k₀, K·u = 1, μ = (Σw − 1)/Σu), in `w` and returns the kriging variance (≥ 0).
+	 */
+	const solve = (k: number, kd: number, tq: number, gi: number, gj: number, gk: number, x0: number, y0: number, z0: number, g: number): number => {
+		buildSystem(k, kd, tq, gi, gj, gk, x0, y0, z0, 1);
+		if (!choleskyFactor(a, k)) {
+			// A tiny ridge (1e-9 of the sill) rescues systems that are singular only to rounding, e.g. a
+			// Gaussian model without nugget at close points; common practice.
+			buildSystem(k, kd, tq, gi, gj, gk, x0, y0, z0, 1 + 1e-9);
+			if (!choleskyFactor(a, k)) throw new Error(`singular kriging system at target ${g}`);
+		}
+		choleskySolve(a, k, rhs, w);
+		let variance: number;
+		if (!ordinary) {
+			variance = sill;
+			for (let p = 0; p < k; p++) variance -= w[p] * rhs[p];
+		} else {
+			choleskySolve(a, k, ones, u1);
+			let sw = 0;
+			let su = 0;
+			for (let p = 0; p < k; p++) {
+				sw += w[p];
+				su += u1[p];
+			}
+			const mu = (sw - 1) / su;
+			variance = sill - mu;
+			for (let p = 0; p < k; p++) {
+				const lam = w[p] - mu * u1[p];
+				w[p] = lam;
+				variance -= lam * rhs[p];
+			}
+		}
+		return variance < 0 ? 0 : variance;
+	};
 	for (let step = 0; step < path.length; step++) {
-		const g = path[step];
+		const pos = path[step];
+		const g = nodes[pos];
 		let uu = rand();
 		// Φ⁻¹(0) is −∞; a zero from a 53-bit uniform (chance 2⁻⁵³) is nudged to the smallest step.
 		if (uu === 0) uu = 1.1102230246251565e-16;
@@ -210,16 +323,34 @@ function simulateDomain(
 		}
 		normalisedCoordinates(dom.ellipsoid, x0, y0, z0, q);
 		let k = 0;
+		let kd = 0;
 		if (useData) {
-			const m = dom.dataGrid.query(q[0], q[1], q[2], candIdx, candD2);
-			const kd = selectNearest(candIdx, candD2, m, maxData, selIdx, selD2, dom.dgroup, dom.maxPerSounding);
+			// The data search depends on the target alone: kept from an earlier realization when there is room.
+			let sel: Int32Array = selIdx;
+			let so = 0;
+			if (dataSel !== null) {
+				so = pos * selStride;
+				if (dataSel[so] < 0) {
+					const m = dom.dataGrid.query(q[0], q[1], q[2], candIdx, candD2);
+					const n = selectNearest(candIdx, candD2, m, maxData, selIdx, selD2, dom.dgroup, dom.maxPerSounding);
+					for (let s = 0; s < n; s++) dataSel[so + 1 + s] = selIdx[s];
+					dataSel[so] = n;
+				}
+				kd = dataSel[so];
+				sel = dataSel;
+				so++;
+			} else {
+				const m = dom.dataGrid.query(q[0], q[1], q[2], candIdx, candD2);
+				kd = selectNearest(candIdx, candD2, m, maxData, selIdx, selD2, dom.dgroup, dom.maxPerSounding);
+			}
 			for (let s = 0; s < kd; s++) {
-				const i = selIdx[s];
+				const i = sel[so + s];
 				px[k] = dom.dx[i];
 				py[k] = dom.dy[i];
 				pz[k] = dom.dz[i];
 				pv[k] = dom.dval[i];
 				tp[k] = table !== null && dom.donlat[i] === 1 ? dom.dlat[3 * i] * sx + dom.dlat[3 * i + 1] * sy + dom.dlat[3 * i + 2] : -1;
+				pid[k] = i;
 				k++;
 			}
 		}
@@ -231,8 +362,14 @@ function simulateDomain(
 				const mark = d + 1;
 				// Away from the lattice's faces every offset of the template lands inside it: no bounds checks.
 				const inside = gi >= ex && gi < cx - ex && gj >= ey && gj < cy - ey && gk >= ez && gk < cz - ez;
+				// On a coarse level of a multiple-grid path only that level's grid can hold simulated nodes: walk
+				// its entries alone (the same nodes in the same order as the whole template, found sooner).
+				const lv = mg ? multigridLevel(mg.strides, gi, gj, gk) : 0;
+				const list = lv > 0 ? mg!.entries[lv] : null;
+				const ne = list ? list.length : tmpl.count;
 				let found = 0;
-				for (let e = 0, ne = tmpl.count; e < ne && found < maxSimulated; e++) {
+				for (let n = 0; n < ne && found < maxSimulated; n++) {
+					const e = list ? list[n] : n;
 					let c: number;
 					if (inside) c = c0 + cellOfs[e];
 					else {
@@ -252,6 +389,10 @@ function simulateDomain(
 					pz[k] = loz + kk * ldz;
 					pv[k] = yCell![c];
 					tp[k] = table !== null ? ii * sx + jj * sy + kk : -1;
+					pid[k] = -1;
+					pi[k] = ii;
+					pj[k] = jj;
+					pk[k] = kk;
 					k++;
 					found++;
 				}
@@ -274,6 +415,7 @@ function simulateDomain(
 					pz[k] = Z[h];
 					pv[k] = y[h];
 					tp[k] = -1;
+					pid[k] = -1;
 					k++;
 				}
 			}
@@ -285,37 +427,41 @@ function simulateDomain(
 		stats.neighbours += k;
 		if (k > 0) {
 			const tq = table !== null ? gi * sx + gj * sy + gk : -1;
-			buildSystem(k, tq, x0, y0, z0, 1);
-			if (!choleskyFactor(a, k)) {
-				// A tiny ridge (1e-9 of the sill) rescues systems that are singular only to rounding, e.g. a
-				// Gaussian model without nugget at close points; common practice.
-				buildSystem(k, tq, x0, y0, z0, 1 + 1e-9);
-				if (!choleskyFactor(a, k)) throw new Error(`singular kriging system at target ${g}`);
-			}
-			choleskySolve(a, k, rhs, w);
-			if (!ordinary) {
+			// The signature: every entry's lattice offset from the target, in system order.
+			let slot = -1;
+			let hash = 0;
+			let reusable = cache !== null;
+			if (reusable) {
 				for (let p = 0; p < k; p++) {
-					est += w[p] * (pv[p] - mean);
-					variance -= w[p] * rhs[p];
+					if (tp[p] < 0) {
+						reusable = false;
+						break;
+					}
+					key[p] = tp[p] - tq;
 				}
+				if (reusable) {
+					hash = signatureHash(d, k, key);
+					slot = cache!.find(d, k, key, hash);
+				}
+			}
+			// Weights (simple kriging) or λ (ordinary kriging), and where they are.
+			let wts: Float64Array = w;
+			let at = 0;
+			if (slot >= 0) {
+				wts = cache!.values();
+				at = cache!.valueOffset(slot);
+				variance = wts[at + cache!.kmax];
+				stats.reused++;
 			} else {
-				choleskySolve(a, k, ones, u1);
-				let sw = 0;
-				let su = 0;
-				for (let p = 0; p < k; p++) {
-					sw += w[p];
-					su += u1[p];
-				}
-				const mu = (sw - 1) / su;
-				est = 0;
-				variance = sill - mu;
-				for (let p = 0; p < k; p++) {
-					const lam = w[p] - mu * u1[p];
-					est += lam * pv[p];
-					variance -= lam * rhs[p];
-				}
+				variance = solve(k, kd, tq, gi, gj, gk, x0, y0, z0, g);
+				if (reusable) cache!.store(d, k, key, hash, w, variance);
 			}
-			if (variance < 0) variance = 0;
+			if (!ordinary) {
+				for (let p = 0; p < k; p++) est += wts[at + p] * (pv[p] - mean);
+			} else {
+				est = 0;
+				for (let p = 0; p < k; p++) est += wts[at + p] * pv[p];
+			}
 		}
 		y[g] = est + Math.sqrt(variance) * zdev;
 		state[g] = 1;
@@ -335,4 +481,11 @@ function simulateDomain(
 		if (i >= 0) out[g] = dom.dorig[i];
 		else out[g] = tbl ? backTransform(tbl, y[g]) : y[g];
 	}
+}
+
+
+function identity(n: number): Int32Array {
+	const out = new Int32Array(n);
+	for (let i = 0; i < n; i++) out[i] = i;
+	return out;
 }
