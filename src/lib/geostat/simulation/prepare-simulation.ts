@@ -30,16 +30,14 @@ export const DEFAULT_REUSE_BYTES = 64 * 1024 * 1024;
 // and for the kept data searches (maxData + 1 integers per path node).
 const DATA_COVARIANCE_BYTES = 32 * 1024 * 1024;
 const DATA_SELECTION_BYTES = 32 * 1024 * 1024;
-// ...and for the covariances between data off the lattice and the cells around them.
-const DATA_NODE_BYTES = 32 * 1024 * 1024;
 
 /** Options of prepareSimulation; none changes a single bit of any realization. */
 export interface PrepareOptions {
 	/**
 	 * Keep what realizations have in common and use it again (default true): solved kriging systems whose
-	 * neighbourhood repeats (see SolutionCache), each target's data search, and covariances between data and
-	 * between data and nearby lattice cells (each within a budget of 32 MiB a prepared simulation). false: compute
-	 * everything afresh every time (the same bits; for tests that prove it).
+	 * neighbourhood repeats (see SolutionCache), each target's data search and the covariances between data
+	 * (each of the last two within a budget of 32 MiB a prepared simulation). false: compute everything afresh
+	 * every time (the same bits; for tests that prove it).
 	 */
 	reuse?: boolean;
 	/**
@@ -100,13 +98,6 @@ export interface PreparedDomain {
 	 * p·(maxData + 1) the count (−1 until first searched), then the chosen data. Null when there is no room.
 	 */
 	dataSelection: Int32Array | null;
-	/**
-	 * Lattice mode, data off the lattice: covariances between datum i and the lattice cells within `nodeHalf`
-	 * cells of the datum's nearest cell, NaN until first needed (the same bits as evaluating them each time:
-	 * a node's coordinates are a function of its cell), i·W + cell offset; or null when there is no room.
-	 */
-	dataNodeCov: Float64Array | null;
-	nodeHalf: [number, number, number];
 }
 
 /** A simulation prepared once and realized many times (see simulatePrepared). */
@@ -150,7 +141,6 @@ export function prepareSimulation(input: SimulationInput, targets: TargetPoints,
 	const domains = input.domains.map((d, index) => prepareDomain(d, index, targets, lattice, datumAt));
 	let covBytes = DATA_COVARIANCE_BYTES;
 	let selBytes = DATA_SELECTION_BYTES;
-	let nodeBytes = DATA_NODE_BYTES;
 	for (const dom of domains) {
 		if (!reuse || dom.nd === 0 || dom.maxData === 0 || dom.ellipsoid.empty) continue;
 		const bytes = 8 * dom.nd * dom.nd;
@@ -162,14 +152,6 @@ export function prepareSimulation(input: SimulationInput, targets: TargetPoints,
 		if (4 * sel <= selBytes) {
 			dom.dataSelection = new Int32Array(sel).fill(-1);
 			selBytes -= 4 * sel;
-		}
-		if (dom.template !== null && dom.donlat.includes(0)) {
-			const [hx, hy, hz] = dom.nodeHalf;
-			const size = dom.nd * (2 * hx + 1) * (2 * hy + 1) * (2 * hz + 1);
-			if (8 * size <= nodeBytes) {
-				dom.dataNodeCov = new Float64Array(size).fill(NaN);
-				nodeBytes -= 8 * size;
-			}
 		}
 	}
 	return { seed: input.seed, targets, lattice, datumAt, domains, active, cache: reuse ? solutionCache(domains, reuseBytes) : null };
@@ -350,10 +332,7 @@ function prepareDomain(
 		nodeGrid,
 		multigrid,
 		dataCov: null,
-		dataSelection: null,
-		dataNodeCov: null,
-		// A node of a system lies within the ellipsoid's reach of the target, and so mostly of the data too.
-		nodeHalf: template && lattice ? [0, 1, 2].map((a) => Math.min(template!.reach[a], lattice.counts[a] - 1)) as [number, number, number] : [0, 0, 0]
+		dataSelection: null
 	};
 }
 

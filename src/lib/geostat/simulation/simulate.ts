@@ -148,9 +148,9 @@ function simulateDomain(
 	const candD2 = new Float64Array(ncand);
 	const selIdx = new Int32Array(Math.max(kmax, 1));
 	const selD2 = new Float64Array(Math.max(kmax, 1));
-	const px = new Float64Array(kmax);
-	const py = new Float64Array(kmax);
-	const pz = new Float64Array(kmax);
+	const px = new Float64Array(kmax + 1);
+	const py = new Float64Array(kmax + 1);
+	const pz = new Float64Array(kmax + 1);
 	const pv = new Float64Array(kmax);
 	const a = new Float64Array(kmax * kmax);
 	const rhs = new Float64Array(kmax);
@@ -180,94 +180,103 @@ function simulateDomain(
 	const dataCov = dom.dataCov;
 	const dataSel = dom.dataSelection;
 	const selStride = maxData + 1;
-	// Datum index of each system entry (−1 for a simulated node), for the kept data–data covariances, and the
-	// lattice cell of each node entry, for the kept datum–node covariances.
+	// Datum index of each system entry (−1 for a simulated node), for the kept data–data covariances.
 	const pid = new Int32Array(kmax);
-	const pi = new Int32Array(kmax);
-	const pj = new Int32Array(kmax);
-	const pk = new Int32Array(kmax);
-	const dnc = dom.dataNodeCov;
-	const dlat = dom.dlat;
-	const [wx, wy, wz] = dom.nodeHalf;
-	const nwy = 2 * wy + 1;
-	const nwz = 2 * wz + 1;
-	const nw = (2 * wx + 1) * nwy * nwz;
-	/** Covariance of datum i and the node at cell (ii, jj, kk) with coordinates (xn, yn, zn). */
-	const covDatumNode = (i: number, ii: number, jj: number, kk: number, xn: number, yn: number, zn: number): number => {
-		const oi = ii - dlat[3 * i] + wx;
-		const oj = jj - dlat[3 * i + 1] + wy;
-		const ok = kk - dlat[3 * i + 2] + wz;
-		if (dnc === null || oi < 0 || oi > 2 * wx || oj < 0 || oj >= nwy || ok < 0 || ok >= nwz) {
-			return cov.covariance(xn - dom.dx[i], yn - dom.dy[i], zn - dom.dz[i]);
-		}
-		const at = i * nw + (oi * nwy + oj) * nwz + ok;
-		let c = dnc[at];
-		if (c !== c) {
-			c = cov.covariance(xn - dom.dx[i], yn - dom.dy[i], zn - dom.dz[i]);
-			dnc[at] = c;
-		}
-		return c;
-	};
-	const covData = (i: number, j: number): number => {
-		const at = i * nd + j;
-		let c = dataCov![at];
-		if (c !== c) {
-			c = cov.covariance(dom.dx[i] - dom.dx[j], dom.dy[i] - dom.dy[j], dom.dz[i] - dom.dz[j]);
-			// C(h) = C(−h) bit for bit (TabulatedCovariance), so one evaluation serves both orders.
-			dataCov![at] = c;
-			dataCov![j * nd + i] = c;
-		}
-		return c;
-	};
-
+	const DX = dom.dx;
+	const DY = dom.dy;
+	const DZ = dom.dz;
 	// Table position of each system entry on the lattice (−1 off it): the covariance of two entries on the
 	// lattice is table[centre + tp[p] − tp[q]], always in range (see tableHalf in prepareSimulation).
 	const tp = new Int32Array(kmax);
-	// The lower triangle of the covariance matrix of the k entries (data first, then nodes) and the right-hand side.
-	// Two entries both on the lattice take the table; two data the kept data–data covariances when there are
-	// some; anything else the covariance itself — each the same bits the covariance gives (C(h) = C(−h) too).
-	const buildSystem = (k: number, kd: number, tq: number, gi: number, gj: number, gk: number, x0: number, y0: number, z0: number, ridge: number): void => {
-		for (let p = 0; p < k; p++) {
-			const tpp = tp[p];
-			const xp = px[p];
-			const yp = py[p];
-			const zp = pz[p];
-			if (tpp >= 0 && tq >= 0) rhs[p] = table![centre + tpp - tq];
-			else if (p < kd && tq >= 0) rhs[p] = covDatumNode(pid[p], gi, gj, gk, x0, y0, z0);
-			else rhs[p] = cov.covariance(xp - x0, yp - y0, zp - z0);
-			const row = p * k;
-			const base = centre + tpp;
-			if (p < kd) {
-				const ip = pid[p];
-				for (let r = 0; r < p; r++) {
-					const tr = tp[r];
-					if (tpp >= 0 && tr >= 0) a[row + r] = table![base - tr];
-					else if (dataCov !== null) a[row + r] = covData(ip, pid[r]);
-					else a[row + r] = cov.covariance(xp - px[r], yp - py[r], zp - pz[r]);
-				}
-			} else {
-				for (let r = 0; r < kd; r++) {
-					const tr = tp[r];
-					if (tpp >= 0 && tr >= 0) a[row + r] = table![base - tr];
-					else if (tpp >= 0) a[row + r] = covDatumNode(pid[r], pi[p], pj[p], pk[p], xp, yp, zp);
-					else a[row + r] = cov.covariance(xp - px[r], yp - py[r], zp - pz[r]);
-				}
-				if (tpp >= 0) for (let r = kd; r < p; r++) a[row + r] = table![base - tp[r]];
-				else for (let r = kd; r < p; r++) a[row + r] = cov.covariance(xp - px[r], yp - py[r], zp - pz[r]);
-			}
-			a[row + p] = sill * ridge;
+	// The system's covariances. Two entries both on the lattice take the table; two data the kept data–data
+	// covariances when there are some; anything else is evaluated, in rows (cov.row) where it can. Each is the
+	// same bits the covariance gives for that pair (C(h) = C(−h) too). The target sits at index kmax of px, py,
+	// pz, so the right-hand side is a row too. `off`: how many of the kd data are off the lattice.
+	/** rhs[p]: covariance of entry p and the target. */
+	const buildRhs = (k: number, kd: number, off: number, tq: number): void => {
+		if (tq < 0) {
+			cov.row(rhs, 0, px, py, pz, kmax, 0, k);
+			return;
 		}
+		for (let p = kd; p < k; p++) rhs[p] = table![centre + tp[p] - tq];
+		if (off === kd) cov.row(rhs, 0, px, py, pz, kmax, 0, kd);
+		else {
+			for (let p = 0; p < kd; p++) {
+				if (tp[p] >= 0) rhs[p] = table![centre + tp[p] - tq];
+				else cov.pair(rhs, p, px, py, pz, kmax, px, py, pz, p);
+			}
+		}
+	};
+	/** Rows p < kd (data) of the lower triangle. */
+	const buildDataRows = (k: number, kd: number, off: number): void => {
+		for (let p = 0; p < kd; p++) {
+			const row = p * k;
+			const tpp = tp[p];
+			if (dataCov === null) {
+				if (off === kd) cov.row(a, row, px, py, pz, p, 0, p);
+				else {
+					for (let r = 0; r < p; r++) {
+						if (tpp >= 0 && tp[r] >= 0) a[row + r] = table![centre + tpp - tp[r]];
+						else cov.pair(a, row + r, px, py, pz, p, px, py, pz, r);
+					}
+				}
+				continue;
+			}
+			const ip = pid[p];
+			for (let r = 0; r < p; r++) {
+				const tr = tp[r];
+				if (tpp >= 0 && tr >= 0) {
+					a[row + r] = table![centre + tpp - tr];
+					continue;
+				}
+				const at = ip * nd + pid[r];
+				if (dataCov[at] !== dataCov[at]) {
+					cov.pair(dataCov, at, DX, DY, DZ, ip, DX, DY, DZ, pid[r]);
+					// C(h) = C(−h) bit for bit, so one evaluation serves both orders.
+					dataCov[pid[r] * nd + ip] = dataCov[at];
+				}
+				a[row + r] = dataCov[at];
+			}
+		}
+	};
+	/** Rows p ≥ kd (simulated nodes) of the lower triangle. */
+	const buildNodeRows = (k: number, kd: number, off: number): void => {
+		for (let p = kd; p < k; p++) {
+			const row = p * k;
+			const tpp = tp[p];
+			if (tpp < 0) {
+				cov.row(a, row, px, py, pz, p, 0, p);
+				continue;
+			}
+			const base = centre + tpp;
+			if (off === kd) cov.row(a, row, px, py, pz, p, 0, kd);
+			else {
+				for (let r = 0; r < kd; r++) {
+					if (tp[r] >= 0) a[row + r] = table![base - tp[r]];
+					else cov.pair(a, row + r, px, py, pz, p, px, py, pz, r);
+				}
+			}
+			for (let r = kd; r < p; r++) a[row + r] = table![base - tp[r]];
+		}
+	};
+	/** The lower triangle of the system and its right-hand side; ridged: 1 + 1e-9 times the sill on the diagonal. */
+	const buildSystem = (k: number, kd: number, off: number, tq: number, ridged: boolean): void => {
+		buildRhs(k, kd, off, tq);
+		buildDataRows(k, kd, off);
+		buildNodeRows(k, kd, off);
+		const diag = ridged ? sill * (1 + 1e-9) : sill * 1;
+		for (let p = 0; p < k; p++) a[p * k + p] = diag;
 	};
 	/**
 	 * Builds, factors and solves the system of k entries: leaves the simple-kriging weights, or the ordinary-kriging
 	 * λ = w − μ·u (with K·w = k₀, K·u = 1, μ = (Σw − 1)/Σu), in `w` and returns the kriging variance (≥ 0).
 	 */
-	const solve = (k: number, kd: number, tq: number, gi: number, gj: number, gk: number, x0: number, y0: number, z0: number, g: number): number => {
-		buildSystem(k, kd, tq, gi, gj, gk, x0, y0, z0, 1);
+	const solve = (k: number, kd: number, off: number, tq: number, g: number): number => {
+		buildSystem(k, kd, off, tq, false);
 		if (!choleskyFactor(a, k)) {
 			// A tiny ridge (1e-9 of the sill) rescues systems that are singular only to rounding, e.g. a
 			// Gaussian model without nugget at close points; common practice.
-			buildSystem(k, kd, tq, gi, gj, gk, x0, y0, z0, 1 + 1e-9);
+			buildSystem(k, kd, off, tq, true);
 			if (!choleskyFactor(a, k)) throw new Error(`singular kriging system at target ${g}`);
 		}
 		choleskySolve(a, k, rhs, w);
@@ -322,8 +331,12 @@ function simulateDomain(
 			z0 = Z[g];
 		}
 		normalisedCoordinates(dom.ellipsoid, x0, y0, z0, q);
+		px[kmax] = x0;
+		py[kmax] = y0;
+		pz[kmax] = z0;
 		let k = 0;
 		let kd = 0;
+		let off = 0;
 		if (useData) {
 			// The data search depends on the target alone: kept from an earlier realization when there is room.
 			let sel: Int32Array = selIdx;
@@ -351,6 +364,7 @@ function simulateDomain(
 				pv[k] = dom.dval[i];
 				tp[k] = table !== null && dom.donlat[i] === 1 ? dom.dlat[3 * i] * sx + dom.dlat[3 * i + 1] * sy + dom.dlat[3 * i + 2] : -1;
 				pid[k] = i;
+				if (tp[k] < 0) off++;
 				k++;
 			}
 		}
@@ -390,9 +404,6 @@ function simulateDomain(
 					pv[k] = yCell![c];
 					tp[k] = table !== null ? ii * sx + jj * sy + kk : -1;
 					pid[k] = -1;
-					pi[k] = ii;
-					pj[k] = jj;
-					pk[k] = kk;
 					k++;
 					found++;
 				}
@@ -453,7 +464,7 @@ function simulateDomain(
 				variance = wts[at + cache!.kmax];
 				stats.reused++;
 			} else {
-				variance = solve(k, kd, tq, gi, gj, gk, x0, y0, z0, g);
+				variance = solve(k, kd, off, tq, g);
 				if (reusable) cache!.store(d, k, key, hash, w, variance);
 			}
 			if (!ordinary) {

@@ -30,26 +30,27 @@ let table: Float64Array | null = null;
  * instead of an exponential, with the bits still defined by + − × ÷ and √ only, which agree in every engine.
  * Beyond x = 8 the exponential is evaluated directly (@stdlib, deterministic).
  *
- * One class for every model (not a closure per model), so the simulation's call sites stay monomorphic.
+ * One class for every model (not a closure per model), so the simulation's call sites stay monomorphic; fields
+ * are declared only (not emitted as class fields), so V8 keeps the numbers unboxed in the instance.
  */
 export class TabulatedCovariance {
 	/** Total sill: the sum of all structures' sills, nugget included; the covariance at h = 0. */
-	readonly sill: number;
-	private readonly sin: number;
-	private readonly cos: number;
-	private readonly n: number;
-	private readonly type: Int8Array;
-	private readonly c: Float64Array;
-	private readonly ia: Float64Array;
-	private readonly ib: Float64Array;
-	private readonly ic: Float64Array;
-	private readonly t: Float64Array;
+	declare readonly sill: number;
+	declare private readonly sin: number;
+	declare private readonly cos: number;
+	declare private readonly n: number;
+	declare private readonly type: Int8Array;
+	declare private readonly c: Float64Array;
+	declare private readonly ia: Float64Array;
+	declare private readonly ib: Float64Array;
+	declare private readonly ic: Float64Array;
+	declare private readonly t: Float64Array;
 	// One exponential structure (with or without a nugget), the common case: its sill and reciprocal ranges.
-	private readonly single: boolean;
-	private readonly c0: number;
-	private readonly a0: number;
-	private readonly b0: number;
-	private readonly v0: number;
+	declare private readonly single: boolean;
+	declare private readonly c0: number;
+	declare private readonly a0: number;
+	declare private readonly b0: number;
+	declare private readonly v0: number;
 
 	/** @throws {TypeError} {RangeError} on an invalid model (see validateVariogramModel) */
 	constructor(model: VariogramModel) {
@@ -84,6 +85,56 @@ export class TabulatedCovariance {
 		const v = (dx * this.cos - dy * this.sin) * this.b0;
 		const w = dz * this.v0;
 		return this.c0 * expNeg3(this.t, Math.sqrt(u * u + v * v + w * w));
+	}
+
+	/**
+	 * out[o] = covariance(xa[i] − xb[j], ya[i] − yb[j], za[i] − zb[j]). Points pass as columns and indices, so an
+	 * inner loop that calls this never boxes a number (a call that V8 does not inline passes doubles boxed).
+	 */
+	pair(out: Float64Array, o: number, xa: Float64Array, ya: Float64Array, za: Float64Array, i: number, xb: Float64Array, yb: Float64Array, zb: Float64Array, j: number): void {
+		out[o] = this.covariance(xa[i] - xb[j], ya[i] - yb[j], za[i] - zb[j]);
+	}
+
+	/** out[o + r − from] = covariance(x[p] − x[r], y[p] − y[r], z[p] − z[r]) for from ≤ r < to (see pair). */
+	row(out: Float64Array, o: number, x: Float64Array, y: Float64Array, z: Float64Array, p: number, from: number, to: number): void {
+		const xp = x[p];
+		const yp = y[p];
+		const zp = z[p];
+		if (!this.single) {
+			this.rowOfSums(out, o, x, y, z, p, from, to);
+			return;
+		}
+		// covariance() for one exponential structure, written out with the fields in locals (twice as fast in V8).
+		const { sin, cos, a0, b0, v0, c0, t, sill } = this;
+		for (let r = from; r < to; r++) {
+			const dx = xp - x[r];
+			const dy = yp - y[r];
+			const dz = zp - z[r];
+			if (dx === 0 && dy === 0 && dz === 0) {
+				out[o + r - from] = sill;
+				continue;
+			}
+			const u = (dx * sin + dy * cos) * a0;
+			const v = (dx * cos - dy * sin) * b0;
+			const w = dz * v0;
+			const q = Math.sqrt(u * u + v * v + w * w);
+			let e: number;
+			if (q < COVARIANCE_TABLE_END) {
+				const yq = q * PER_UNIT;
+				const i = yq | 0;
+				const f = yq - i;
+				const b = 4 * i;
+				e = t[b] + f * (t[b + 1] + f * (t[b + 2] + f * t[b + 3]));
+			} else e = exp(-3 * q);
+			out[o + r - from] = c0 * e;
+		}
+	}
+
+	private rowOfSums(out: Float64Array, o: number, x: Float64Array, y: Float64Array, z: Float64Array, p: number, from: number, to: number): void {
+		const xp = x[p];
+		const yp = y[p];
+		const zp = z[p];
+		for (let r = from; r < to; r++) out[o + r - from] = this.covariance(xp - x[r], yp - y[r], zp - z[r]);
 	}
 
 	private sum(dx: number, dy: number, dz: number): number {
