@@ -203,8 +203,8 @@ async function poolCase(): Promise<Record<string, number>> {
 const cases: BenchCase[] = [
 	{ name: 'section', run: () => simulationCase('section', sectionInput, 3, 'random') },
 	{ name: 'section:multigrid', run: () => simulationCase('section', sectionInput, 3, 'multigrid') },
-	{ name: 'section-offgrid', run: () => simulationCase('section-offgrid', offgridInput, 3, 'random') },
-	{ name: 'section-offgrid:multigrid', run: () => simulationCase('section-offgrid', offgridInput, 3, 'multigrid') },
+	{ name: 'section-offgrid', run: () => simulationCase('section-offgrid', offgridInput, 5, 'random') },
+	{ name: 'section-offgrid:multigrid', run: () => simulationCase('section-offgrid', offgridInput, 5, 'multigrid') },
 	{ name: 'block', run: () => simulationCase('block', blockInput, 1, 'random') },
 	{ name: 'block:multigrid', run: () => simulationCase('block', blockInput, 1, 'multigrid') },
 	{ name: 'pool', run: poolCase }

@@ -30,14 +30,16 @@ export const DEFAULT_REUSE_BYTES = 64 * 1024 * 1024;
 // and for the kept data searches (maxData + 1 integers per path node).
 const DATA_COVARIANCE_BYTES = 32 * 1024 * 1024;
 const DATA_SELECTION_BYTES = 32 * 1024 * 1024;
+// ...and for the data part of each target's factor (data off the lattice only).
+const DATA_FACTOR_BYTES = 48 * 1024 * 1024;
 
 /** Options of prepareSimulation; none changes a single bit of any realization. */
 export interface PrepareOptions {
 	/**
 	 * Keep what realizations have in common and use it again (default true): solved kriging systems whose
 	 * neighbourhood repeats (see SolutionCache), each target's data search and the covariances between data
-	 * (each of the last two within a budget of 32 MiB a prepared simulation). false: compute everything afresh
-	 * every time (the same bits; for tests that prove it).
+	 * (each within 32 MiB a prepared simulation), and for data off the lattice the data part of each target's
+	 * factor (within 48 MiB). false: compute everything afresh every time (the same bits; for tests that prove it).
 	 */
 	reuse?: boolean;
 	/**
@@ -98,6 +100,13 @@ export interface PreparedDomain {
 	 * p·(maxData + 1) the count (−1 until first searched), then the chosen data. Null when there is no room.
 	 */
 	dataSelection: Int32Array | null;
+	/**
+	 * Data off the lattice (or no lattice): per path node, the first kd rows of its system's Cholesky factor
+	 * (packed lower triangle) and of its right-hand side, which do not change between realizations; kept once
+	 * `dataFactorReady` is 1. Null when there is no room or the data come from the covariance table.
+	 */
+	dataFactor: Float64Array | null;
+	dataFactorReady: Uint8Array | null;
 }
 
 /** A simulation prepared once and realized many times (see simulatePrepared). */
@@ -141,6 +150,7 @@ export function prepareSimulation(input: SimulationInput, targets: TargetPoints,
 	const domains = input.domains.map((d, index) => prepareDomain(d, index, targets, lattice, datumAt));
 	let covBytes = DATA_COVARIANCE_BYTES;
 	let selBytes = DATA_SELECTION_BYTES;
+	let factorBytes = DATA_FACTOR_BYTES;
 	for (const dom of domains) {
 		if (!reuse || dom.nd === 0 || dom.maxData === 0 || dom.ellipsoid.empty) continue;
 		const bytes = 8 * dom.nd * dom.nd;
@@ -152,6 +162,13 @@ export function prepareSimulation(input: SimulationInput, targets: TargetPoints,
 		if (4 * sel <= selBytes) {
 			dom.dataSelection = new Int32Array(sel).fill(-1);
 			selBytes -= 4 * sel;
+		}
+		const perNode = (dom.maxData * (dom.maxData + 1)) / 2 + dom.maxData;
+		const bytes8 = 8 * perNode * dom.pathNodes.length + dom.pathNodes.length;
+		if ((dom.covTable === null || dom.donlat.includes(0)) && bytes8 <= factorBytes) {
+			dom.dataFactor = new Float64Array(perNode * dom.pathNodes.length);
+			dom.dataFactorReady = new Uint8Array(dom.pathNodes.length);
+			factorBytes -= bytes8;
 		}
 	}
 	return { seed: input.seed, targets, lattice, datumAt, domains, active, cache: reuse ? solutionCache(domains, reuseBytes) : null };
@@ -332,7 +349,9 @@ function prepareDomain(
 		nodeGrid,
 		multigrid,
 		dataCov: null,
-		dataSelection: null
+		dataSelection: null,
+		dataFactor: null,
+		dataFactorReady: null
 	};
 }
 

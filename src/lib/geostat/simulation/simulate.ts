@@ -180,6 +180,9 @@ function simulateDomain(
 	const dataCov = dom.dataCov;
 	const dataSel = dom.dataSelection;
 	const selStride = maxData + 1;
+	const dataFactor = dom.dataFactor;
+	const factorReady = dom.dataFactorReady;
+	const factorStride = (maxData * (maxData + 1)) / 2 + maxData;
 	// Datum index of each system entry (−1 for a simulated node), for the kept data–data covariances.
 	const pid = new Int32Array(kmax);
 	const DX = dom.dx;
@@ -194,18 +197,21 @@ function simulateDomain(
 	// pz, so the right-hand side is a row too. `off`: how many of the kd data are off the lattice.
 	/** rhs[p]: covariance of entry p and the target. */
 	const buildRhs = (k: number, kd: number, off: number, tq: number): void => {
-		if (tq < 0) {
-			cov.row(rhs, 0, px, py, pz, kmax, 0, k);
-			return;
-		}
-		for (let p = kd; p < k; p++) rhs[p] = table![centre + tp[p] - tq];
-		if (off === kd) cov.row(rhs, 0, px, py, pz, kmax, 0, kd);
+		buildRhsData(kd, off, tq);
+		buildRhsNodes(k, kd, tq);
+	};
+	const buildRhsData = (kd: number, off: number, tq: number): void => {
+		if (tq < 0 || off === kd) cov.row(rhs, 0, px, py, pz, kmax, 0, kd);
 		else {
 			for (let p = 0; p < kd; p++) {
 				if (tp[p] >= 0) rhs[p] = table![centre + tp[p] - tq];
 				else cov.pair(rhs, p, px, py, pz, kmax, px, py, pz, p);
 			}
 		}
+	};
+	const buildRhsNodes = (k: number, kd: number, tq: number): void => {
+		if (tq < 0) cov.row(rhs, kd, px, py, pz, kmax, kd, k);
+		else for (let p = kd; p < k; p++) rhs[p] = table![centre + tp[p] - tq];
 	};
 	/** Rows p < kd (data) of the lower triangle. */
 	const buildDataRows = (k: number, kd: number, off: number): void => {
@@ -271,9 +277,37 @@ function simulateDomain(
 	 * Builds, factors and solves the system of k entries: leaves the simple-kriging weights, or the ordinary-kriging
 	 * λ = w − μ·u (with K·w = k₀, K·u = 1, μ = (Σw − 1)/Σu), in `w` and returns the kriging variance (≥ 0).
 	 */
-	const solve = (k: number, kd: number, off: number, tq: number, g: number): number => {
-		buildSystem(k, kd, off, tq, false);
-		if (!choleskyFactor(a, k)) {
+	const solve = (k: number, kd: number, off: number, tq: number, g: number, pos: number): number => {
+		// The data part of a target's system (its first kd rows of the factor and of the right-hand side) is the
+		// same in every realization: kept after the first, and the factorisation continued from row kd.
+		const fo = pos * factorStride;
+		let ok: boolean;
+		if (factorReady !== null && factorReady[pos] === 1) {
+			let f = fo;
+			for (let i = 0; i < kd; i++) {
+				const row = i * k;
+				for (let j = 0; j <= i; j++) a[row + j] = dataFactor![f++];
+			}
+			for (let i = 0; i < kd; i++) rhs[i] = dataFactor![f++];
+			buildRhsNodes(k, kd, tq);
+			buildNodeRows(k, kd, off);
+			const diag = sill * 1;
+			for (let p = kd; p < k; p++) a[p * k + p] = diag;
+			ok = choleskyFactor(a, k, 1e-13, kd);
+		} else {
+			buildSystem(k, kd, off, tq, false);
+			ok = choleskyFactor(a, k);
+			if (ok && factorReady !== null && kd > 0) {
+				let f = fo;
+				for (let i = 0; i < kd; i++) {
+					const row = i * k;
+					for (let j = 0; j <= i; j++) dataFactor![f++] = a[row + j];
+				}
+				for (let i = 0; i < kd; i++) dataFactor![f++] = rhs[i];
+				factorReady[pos] = 1;
+			}
+		}
+		if (!ok) {
 			// A tiny ridge (1e-9 of the sill) rescues systems that are singular only to rounding, e.g. a
 			// Gaussian model without nugget at close points; common practice.
 			buildSystem(k, kd, off, tq, true);
@@ -464,7 +498,7 @@ function simulateDomain(
 				variance = wts[at + cache!.kmax];
 				stats.reused++;
 			} else {
-				variance = solve(k, kd, off, tq, g);
+				variance = solve(k, kd, off, tq, g, pos);
 				if (reusable) cache!.store(d, k, key, hash, w, variance);
 			}
 			if (!ordinary) {
