@@ -114,9 +114,9 @@ interface Run {
 }
 
 /** Realizations 0…R−1 of one prepared simulation, each timed next to its floor (the box is shared with other work). */
-function run(input: SimulationInput, targets: TargetPoints, realizations: number, reuseBytes?: number): Run {
+function run(input: SimulationInput, targets: TargetPoints, realizations: number, reuseSolutions: boolean): Run {
 	const t0 = cpuMs();
-	const prep = prepareSimulation(input, targets, reuseBytes === undefined ? {} : { reuseBytes });
+	const prep = prepareSimulation(input, targets, { reuseSolutions });
 	const out: Run = { simMs: 0, floorMs: 0, floorSystems: 0, systems: 0, neighbours: 0, reused: 0, prepareMs: cpuMs() - t0, cacheMB: 0 };
 	sampleRss();
 	let mats: Float64Array[] | null = null;
@@ -159,9 +159,9 @@ function simulationCase(
 	const { targets } = base;
 	sampleRss();
 	peakRss = process.memoryUsage().rss;
-	const on = run(input, targets, realizations);
+	const on = run(input, targets, realizations, true);
 	const peak = peakRss;
-	const off = run(input, targets, realizations, 0);
+	const off = run(input, targets, realizations, false);
 	const us = (r: Run) => (r.simMs * 1000) / r.systems;
 	const floorUs = (r: Run) => (r.floorMs * 1000) / r.floorSystems;
 	return {

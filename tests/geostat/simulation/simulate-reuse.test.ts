@@ -79,7 +79,7 @@ describe('simulate with reuse on and off (same bits)', () => {
 		it(`section, ${path} path: SHA-256 of realizations 0–2 are equal with reuse on and off, and systems were reused`, () => {
 			const { input, targets } = section();
 			const on = run(withPath(input, path), targets, 3, {});
-			const off = run(withPath(input, path), targets, 3, { reuse: false });
+			const off = run(withPath(input, path), targets, 3, { reuseBytes: 0 });
 			expect(on.hashes).toEqual(off.hashes);
 			expect(new Set(on.hashes).size).toBe(3);
 			expect(off.stats.reused).toBe(0);
@@ -90,7 +90,7 @@ describe('simulate with reuse on and off (same bits)', () => {
 		it(`block-like grid with two domains (simple and ordinary kriging, nugget, rotated anisotropy), ${path} path: same SHA-256 with reuse on and off`, () => {
 			const { input, targets } = block();
 			const on = run(withPath(input, path), targets, 2, {});
-			const off = run(withPath(input, path), targets, 2, { reuse: false });
+			const off = run(withPath(input, path), targets, 2, { reuseBytes: 0 });
 			expect(on.hashes).toEqual(off.hashes);
 			expect(on.stats.reused).toBeGreaterThan(0);
 		});
@@ -100,7 +100,7 @@ describe('simulate with reuse on and off (same bits)', () => {
 			const input = withPath(recipeInput(recipe), path);
 			const targets = targetsFromDefinition(recipe.targets);
 			const on = run(input, targets, 2, {});
-			const off = run(input, targets, 2, { reuse: false });
+			const off = run(input, targets, 2, { reuseBytes: 0 });
 			expect(on.hashes).toEqual(off.hashes);
 			// Data off the lattice: no signature is reusable, but the kept data searches and covariances were used.
 			expect(on.stats.reused).toBe(0);
@@ -114,7 +114,7 @@ describe('simulate with reuse on and off (same bits)', () => {
 		const { input, targets } = section();
 		const tiny = run(input, targets, 3, { reuseBytes: 20_000 });
 		expect(tiny.prep.cache!.slots).toBeLessThan(64);
-		const off = run(input, targets, 3, { reuse: false });
+		const off = run(input, targets, 3, { reuseBytes: 0 });
 		expect(tiny.hashes).toEqual(off.hashes);
 		expect(tiny.stats.reused).toBeGreaterThan(0);
 		expect(hash(simulate(input, targets, 2))).toBe(off.hashes[2]);
@@ -130,11 +130,19 @@ describe('simulate with reuse on and off (same bits)', () => {
 		}
 	});
 
-	it('prepareSimulation rejects a negative or NaN reuseBytes; reuseBytes 0 keeps no solved systems', () => {
+	it('prepareSimulation rejects a negative or NaN reuseBytes; reuseBytes 0 keeps nothing; reuseSolutions false keeps only the data parts', () => {
 		const { input, targets } = section();
 		expect(() => prepareSimulation(input, targets, { reuseBytes: -1 })).toThrow(RangeError);
 		expect(() => prepareSimulation(input, targets, { reuseBytes: NaN })).toThrow(RangeError);
-		expect(prepareSimulation(input, targets, { reuseBytes: 0 }).cache).toBeNull();
+		const none = prepareSimulation(input, targets, { reuseBytes: 0 });
+		expect(none.cache).toBeNull();
+		expect(none.domains[0].dataSelection).toBeNull();
+		const data = prepareSimulation(input, targets, { reuseSolutions: false });
+		expect(data.cache).toBeNull();
+		expect(data.domains[0].dataSelection).not.toBeNull();
+		// Data on the lattice: their covariances come from the table, so neither data covariances nor factors are kept.
+		expect(data.domains[0].dataCov).toBeNull();
+		expect(data.domains[0].dataFactor).toBeNull();
 		// Scattered targets have no lattice, so no signature: no cache either.
 		const scattered = { ...targets, x: targets.x.map((x, i) => x + (i % 3) * 1e-3) };
 		expect(prepareSimulation(input, scattered).cache).toBeNull();

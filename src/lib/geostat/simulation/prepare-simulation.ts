@@ -23,30 +23,24 @@ export const COINCIDENCE_TOLERANCE = 1e-6;
 // Covariance tables beyond this many entries cost more to fill than they save.
 const MAX_TABLE = 8_000_000;
 
-/** Default memory of the solution cache of one prepared simulation (so of one worker): 64 MiB. */
+/** Default memory a prepared simulation (so one worker) may keep for reuse: 64 MiB. */
 export const DEFAULT_REUSE_BYTES = 64 * 1024 * 1024;
 
-// Memory for the data–data covariances kept per prepared simulation (a domain's nd² doubles, filled as used),
-// and for the kept data searches (maxData + 1 integers per path node).
-const DATA_COVARIANCE_BYTES = 32 * 1024 * 1024;
-const DATA_SELECTION_BYTES = 32 * 1024 * 1024;
-// ...and for the data part of each target's factor (data off the lattice only).
-const DATA_FACTOR_BYTES = 48 * 1024 * 1024;
-
-/** Options of prepareSimulation; none changes a single bit of any realization. */
+/**
+ * Options of prepareSimulation; none changes a single bit of any realization.
+ *
+ * What is kept, in this order while the memory lasts (each domain in turn): each target's data search
+ * (maxData + 1 16-bit integers a target); the covariances between a domain's data when some are off the lattice
+ * (nd² doubles, filled as used); for data off the lattice, the data part of each target's factor and right-hand
+ * side, the same in every realization (maxData(maxData + 3)/2 doubles a target); and, with the rest, solved kriging
+ * systems whose neighbourhood signature repeats (SolutionCache; lattice mode with covariance tables only,
+ * allocated on first use, at most two slots a target).
+ */
 export interface PrepareOptions {
-	/**
-	 * Keep what realizations have in common and use it again (default true): solved kriging systems whose
-	 * neighbourhood repeats (see SolutionCache), each target's data search and the covariances between data
-	 * (each within 32 MiB a prepared simulation), and for data off the lattice the data part of each target's
-	 * factor (within 48 MiB). false: compute everything afresh every time (the same bits; for tests that prove it).
-	 */
-	reuse?: boolean;
-	/**
-	 * Memory for the solved kriging systems, in bytes; default DEFAULT_REUSE_BYTES, 0: none kept. The cache takes
-	 * no more than it could fill: two slots per simulated target at most.
-	 */
+	/** Memory for everything kept, in bytes; default DEFAULT_REUSE_BYTES. 0: nothing is kept, all is computed afresh. */
 	reuseBytes?: number;
+	/** Keep solved kriging systems (default true); false keeps only the data parts (for measuring what reuse adds). */
+	reuseSolutions?: boolean;
 }
 
 /** One domain, ready for any number of realizations (internal layout, not part of the recipe). */
@@ -97,9 +91,9 @@ export interface PreparedDomain {
 	dataCov: Float64Array | null;
 	/**
 	 * The data search of each path node (by position in pathNodes), which depends on the target alone: at
-	 * p·(maxData + 1) the count (−1 until first searched), then the chosen data. Null when there is no room.
+	 * p·(maxData + 1) the count (0xffff until first searched), then the chosen data. Null when there is no room.
 	 */
-	dataSelection: Int32Array | null;
+	dataSelection: Uint16Array | null;
 	/**
 	 * Data off the lattice (or no lattice): per path node, the first kd rows of its system's Cholesky factor
 	 * (packed lower triangle) and of its right-hand side, which do not change between realizations; kept once
@@ -134,7 +128,7 @@ export interface PreparedSimulation {
  *   domain without samples
  */
 export function prepareSimulation(input: SimulationInput, targets: TargetPoints, options: PrepareOptions = {}): PreparedSimulation {
-	const { reuse = true, reuseBytes = DEFAULT_REUSE_BYTES } = options;
+	const { reuseBytes = DEFAULT_REUSE_BYTES, reuseSolutions = true } = options;
 	if (!(reuseBytes >= 0)) throw new RangeError('reuseBytes must be >= 0');
 	if (input === null || typeof input !== 'object') throw new TypeError('input must be an object');
 	if (typeof input.seed !== 'string') throw new TypeError('seed must be a string');
@@ -148,30 +142,38 @@ export function prepareSimulation(input: SimulationInput, targets: TargetPoints,
 	const lattice = detectLattice(targets);
 	const datumAt = new Int32Array(n).fill(-1);
 	const domains = input.domains.map((d, index) => prepareDomain(d, index, targets, lattice, datumAt));
-	let covBytes = DATA_COVARIANCE_BYTES;
-	let selBytes = DATA_SELECTION_BYTES;
-	let factorBytes = DATA_FACTOR_BYTES;
-	for (const dom of domains) {
-		if (!reuse || dom.nd === 0 || dom.maxData === 0 || dom.ellipsoid.empty) continue;
-		const bytes = 8 * dom.nd * dom.nd;
-		if (dom.nd > 1 && bytes <= covBytes) {
-			dom.dataCov = new Float64Array(dom.nd * dom.nd).fill(NaN);
-			covBytes -= bytes;
-		}
-		const sel = dom.pathNodes.length * (dom.maxData + 1);
-		if (4 * sel <= selBytes) {
-			dom.dataSelection = new Int32Array(sel).fill(-1);
-			selBytes -= 4 * sel;
-		}
-		const perNode = (dom.maxData * (dom.maxData + 1)) / 2 + dom.maxData;
-		const bytes8 = 8 * perNode * dom.pathNodes.length + dom.pathNodes.length;
-		if ((dom.covTable === null || dom.donlat.includes(0)) && bytes8 <= factorBytes) {
-			dom.dataFactor = new Float64Array(perNode * dom.pathNodes.length);
-			dom.dataFactorReady = new Uint8Array(dom.pathNodes.length);
-			factorBytes -= bytes8;
+	const left = keepDataParts(domains, reuseBytes);
+	return { seed: input.seed, targets, lattice, datumAt, domains, active, cache: reuseSolutions ? solutionCache(domains, left) : null };
+}
+
+/** Allocates the kept data parts (see PrepareOptions) within `bytes`; returns the bytes left. */
+function keepDataParts(domains: PreparedDomain[], bytes: number): number {
+	const withData = domains.filter((d) => d.nd > 0 && d.maxData > 0 && !d.ellipsoid.empty);
+	// Off the lattice (or without a covariance table) data covariances are evaluated, not read from the table.
+	const offLattice = (d: PreparedDomain) => d.covTable === null || d.donlat.includes(0);
+	let left = bytes;
+	for (const d of withData) {
+		const size = d.pathNodes.length * (d.maxData + 1);
+		if (d.nd < 0xffff && d.maxData < 0xffff && 2 * size <= left) {
+			d.dataSelection = new Uint16Array(size).fill(0xffff);
+			left -= 2 * size;
 		}
 	}
-	return { seed: input.seed, targets, lattice, datumAt, domains, active, cache: reuse ? solutionCache(domains, reuseBytes) : null };
+	for (const d of withData) {
+		if (d.nd > 1 && offLattice(d) && 8 * d.nd * d.nd <= left) {
+			d.dataCov = new Float64Array(d.nd * d.nd).fill(NaN);
+			left -= 8 * d.nd * d.nd;
+		}
+	}
+	for (const d of withData) {
+		const size = ((d.maxData * (d.maxData + 3)) / 2) * d.pathNodes.length;
+		if (offLattice(d) && 8 * size + d.pathNodes.length <= left) {
+			d.dataFactor = new Float64Array(size);
+			d.dataFactorReady = new Uint8Array(d.pathNodes.length);
+			left -= 8 * size + d.pathNodes.length;
+		}
+	}
+	return left;
 }
 
 /** The solution cache: for domains with a covariance table, sized to the budget and the number of path nodes. */

@@ -373,11 +373,11 @@ function simulateDomain(
 		let off = 0;
 		if (useData) {
 			// The data search depends on the target alone: kept from an earlier realization when there is room.
-			let sel: Int32Array = selIdx;
+			let sel: Int32Array | Uint16Array = selIdx;
 			let so = 0;
 			if (dataSel !== null) {
 				so = pos * selStride;
-				if (dataSel[so] < 0) {
+				if (dataSel[so] === 0xffff) {
 					const m = dom.dataGrid.query(q[0], q[1], q[2], candIdx, candD2);
 					const n = selectNearest(candIdx, candD2, m, maxData, selIdx, selD2, dom.dgroup, dom.maxPerSounding);
 					for (let s = 0; s < n; s++) dataSel[so + 1 + s] = selIdx[s];
