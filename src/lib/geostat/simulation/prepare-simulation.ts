@@ -133,8 +133,6 @@ export function prepareSimulation(input: SimulationInput, targets: TargetPoints,
 	if (input === null || typeof input !== 'object') throw new TypeError('input must be an object');
 	if (typeof input.seed !== 'string') throw new TypeError('seed must be a string');
 	if (!Array.isArray(input.domains)) throw new TypeError('domains must be an array');
-	// Simulated lattice cells are marked with 1 + their domain in a Uint16Array.
-	if (input.domains.length > 65534) throw new RangeError('at most 65534 domains');
 	checkTargets(targets, input.domains.length);
 	const n = targets.domain.length;
 	let active = 0;

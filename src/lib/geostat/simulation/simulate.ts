@@ -73,15 +73,18 @@ export function simulatePrepared(
 	const y = new Float64Array(n);
 	// 0: not yet simulated, 1: simulated, 2: at a datum (its datum conditions instead, never counted twice).
 	const state = new Uint8Array(n);
-	// Lattice mode: per cell, 1 + the domain of a simulated node there (0: none yet). One compact array,
-	// read in the template walk instead of three scattered ones.
-	const ready = prep.lattice ? new Uint16Array(prep.lattice.cell.length) : null;
+	// Lattice mode: one bit per cell, set once the domain being simulated has a node there (cleared between
+	// domains). The template walk reads it at scattered cells: a bit a cell keeps it in the processor's caches.
+	const ready = prep.lattice ? new Uint8Array((prep.lattice.cell.length + 7) >> 3) : null;
 	// ...and the simulated value by cell, so a neighbour's value is one read near the others, not two.
 	const yCell = prep.lattice ? new Float64Array(prep.lattice.cell.length) : null;
 	const progress = { done: 0, total: prep.active, step: Math.max(1, Math.floor(prep.active / 100)), next: 0, cb: onProgress };
 	progress.next = progress.step;
 	const counters = stats ?? { systems: 0, neighbours: 0, reused: 0 };
-	for (const dom of prep.domains) simulateDomain(prep, dom, realization, out, y, state, ready, yCell, progress, counters);
+	for (const dom of prep.domains) {
+		if (ready) ready.fill(0);
+		simulateDomain(prep, dom, realization, out, y, state, ready, yCell, progress, counters);
+	}
 	if (onProgress) onProgress(prep.active, prep.active);
 	return out;
 }
@@ -101,7 +104,7 @@ function simulateDomain(
 	out: Float64Array,
 	y: Float64Array,
 	state: Uint8Array,
-	ready: Uint16Array | null,
+	ready: Uint8Array | null,
 	yCell: Float64Array | null,
 	progress: Progress,
 	stats: SimulationStats
@@ -407,7 +410,6 @@ function simulateDomain(
 				const offs = tmpl.offsets;
 				const cellOfs = dom.templateCells!;
 				const c0 = lat!.cellOf[g];
-				const mark = d + 1;
 				// Away from the lattice's faces every offset of the template lands inside it: no bounds checks.
 				const inside = gi >= ex && gi < cx - ex && gj >= ey && gj < cy - ey && gk >= ez && gk < cz - ez;
 				// On a coarse level of a multiple-grid path only that level's grid can hold simulated nodes: walk
@@ -427,7 +429,7 @@ function simulateDomain(
 						if (ii < 0 || ii >= cx || jj < 0 || jj >= cy || kk < 0 || kk >= cz) continue;
 						c = (kk * cy + jj) * cx + ii;
 					}
-					if (ready![c] !== mark) continue;
+					if ((ready![c >> 3] & (1 << (c & 7))) === 0) continue;
 					const ii = gi + offs[3 * e];
 					const jj = gj + offs[3 * e + 1];
 					const kk = gk + offs[3 * e + 2];
@@ -511,7 +513,7 @@ function simulateDomain(
 		y[g] = est + Math.sqrt(variance) * zdev;
 		state[g] = 1;
 		if (ready) {
-			ready[gc] = d + 1;
+			ready[gc >> 3] |= 1 << (gc & 7);
 			yCell![gc] = y[g];
 		}
 		if (++progress.done >= progress.next) {
