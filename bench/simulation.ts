@@ -1,11 +1,17 @@
-// Sequential Gaussian simulation benchmarks (issue 4): "section", "block" and "pool".
+// Sequential Gaussian simulation benchmarks (issues 4 and 16): "section", "section-offgrid", "block" (each also
+// on the multiple-grid path, ":multigrid") and "pool".
 // Each simulation case also times, in the same process, a floor: factoring and solving as many k×k systems
 // with the plain Float64Array Cholesky (k = the mean neighbour count the simulation actually used), so
-// `ratio` says what search, covariance build and bookkeeping cost on top of the unavoidable solves.
+// `ratio` says what search, covariance build and bookkeeping cost on top of the unavoidable solves — or, with
+// solved systems reused, how far below it the engine goes. Per case, each on a fresh prepared simulation after an
+// untimed warm-up realization (so the compiler's warm-up is not counted): `ratio` and `hitRate` (share of systems
+// whose solution was reused) with everything kept (the default); `ratioNoReuse` keeping the data parts but no
+// solved systems; `ratioFresh` keeping nothing (reuseBytes 0); each a mean over realizations 0…R−1, the first of
+// which fills what is kept.
 import seedrandom from 'seedrandom';
 import { availableParallelism } from 'node:os';
 import { choleskyFactor, choleskySolve, covariance, prepareSimulation, recipeInput, simulatePrepared, targetsFromDefinition } from '../src/lib/geostat/index';
-import type { SimulationInput, SimulationStats, TargetPoints, VariogramModel, Sample } from '../src/lib/geostat/index';
+import type { PrepareOptions, SimulationInput, SimulationStats, TargetPoints, VariogramModel, Sample } from '../src/lib/geostat/index';
 import { createNodePool } from '../workers/node-pool';
 import { demoRecipe } from '../scripts/demo-recipe';
 import type { BenchCase } from './index';
@@ -114,9 +120,9 @@ interface Run {
 }
 
 /** Realizations 0…R−1 of one prepared simulation, each timed next to its floor (the box is shared with other work). */
-function run(input: SimulationInput, targets: TargetPoints, realizations: number, reuseSolutions: boolean): Run {
+function run(input: SimulationInput, targets: TargetPoints, realizations: number, options: PrepareOptions): Run {
 	const t0 = cpuMs();
-	const prep = prepareSimulation(input, targets, { reuseSolutions });
+	const prep = prepareSimulation(input, targets, options);
 	const out: Run = { simMs: 0, floorMs: 0, floorSystems: 0, systems: 0, neighbours: 0, reused: 0, prepareMs: cpuMs() - t0, cacheMB: 0 };
 	sampleRss();
 	let mats: Float64Array[] | null = null;
@@ -144,10 +150,7 @@ function run(input: SimulationInput, targets: TargetPoints, realizations: number
 
 const round2 = (v: number) => Math.round(v * 100) / 100;
 
-/**
- * One simulation case on one path: realizations with reuse (ratio, hitRate: share of systems whose solution was
- * reused, over all realizations run), then the same without reuse (ratioNoReuse), each against its own floor.
- */
+/** One simulation case on one path (see the head of this file). */
 function simulationCase(
 	name: string,
 	setup: () => { input: SimulationInput; targets: TargetPoints },
@@ -157,11 +160,13 @@ function simulationCase(
 	const base = setup();
 	const input: SimulationInput = { ...base.input, domains: base.input.domains.map((d) => ({ ...d, search: { ...d.search, path } })) };
 	const { targets } = base;
+	if (realizations > 1) simulatePrepared(prepareSimulation(input, targets, { reuseBytes: 0 }), 999);
 	sampleRss();
 	peakRss = process.memoryUsage().rss;
-	const on = run(input, targets, realizations, true);
+	const on = run(input, targets, realizations, {});
 	const peak = peakRss;
-	const off = run(input, targets, realizations, false);
+	const off = run(input, targets, realizations, { reuseSolutions: false });
+	const fresh = realizations > 1 ? run(input, targets, realizations, { reuseBytes: 0 }) : null;
 	const us = (r: Run) => (r.simMs * 1000) / r.systems;
 	const floorUs = (r: Run) => (r.floorMs * 1000) / r.floorSystems;
 	return {
@@ -176,6 +181,7 @@ function simulationCase(
 		hitRate: round2(on.reused / on.systems),
 		msPerRealizationNoReuse: Math.round(off.simMs / realizations),
 		ratioNoReuse: round2(us(off) / floorUs(off)),
+		...(fresh ? { ratioFresh: round2(us(fresh) / floorUs(fresh)) } : {}),
 		cacheMB: Math.round(on.cacheMB),
 		...(name.startsWith('block') ? { peakRssMB: Math.round(peak / 2 ** 20) } : {})
 	};
