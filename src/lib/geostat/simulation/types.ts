@@ -21,7 +21,8 @@ export interface SearchOptions {
 	/**
 	 * Order in which the domain's targets are visited: 'random' (default), or 'multigrid' — coarse grids first,
 	 * then finer ones, each in random order (see multigridPath), which reproduces long ranges with a small search.
-	 * 'multigrid' needs targets on a regular lattice (a grid); elsewhere the path is random.
+	 * 'multigrid' needs targets on a regular lattice (a grid) and a search small enough for a grid template
+	 * (at most 4 million cells); elsewhere the path is random.
 	 */
 	path?: 'random' | 'multigrid';
 }
