@@ -159,6 +159,11 @@ describe('simulate with reuse on and off (same bits)', () => {
 		// Data on the lattice: their covariances come from the table, so neither data covariances nor factors are kept.
 		expect(data.domains[0].dataCov).toBeNull();
 		expect(data.domains[0].dataFactor).toBeNull();
+		// One realization (simulate()): nothing kept per target.
+		const recipe = demoRecipe({ nx: 40, nz: 20 });
+		const one = prepareSimulation(recipeInput(recipe), targetsFromDefinition(recipe.targets), { keepPerTarget: false });
+		expect(one.domains.every((d) => d.dataSelection === null && d.dataFactor === null)).toBe(true);
+		expect(one.domains.some((d) => d.dataCov !== null)).toBe(true);
 		// Scattered targets have no lattice, so no signature: no cache either.
 		const scattered = { ...targets, x: targets.x.map((x, i) => x + (i % 3) * 1e-3) };
 		expect(prepareSimulation(input, scattered).cache).toBeNull();

@@ -41,6 +41,11 @@ export interface PrepareOptions {
 	reuseBytes?: number;
 	/** Keep solved kriging systems (default true); false keeps only the data parts (for measuring what reuse adds). */
 	reuseSolutions?: boolean;
+	/**
+	 * Keep each target's data search and data factor (default true). They pay off from the second realization
+	 * on; simulate(), which runs one, sets false.
+	 */
+	keepPerTarget?: boolean;
 }
 
 /** One domain, ready for any number of realizations (internal layout, not part of the recipe). */
@@ -64,7 +69,7 @@ export interface PreparedDomain {
 	dorig: Float64Array;
 	dgroup: Int32Array;
 	dataGrid: BucketGrid;
-	/** Nearest lattice coordinates of data (3 each) and whether a datum sits on the lattice (within its box). */
+	/** Lattice coordinates of data (3 each) and whether a datum sits on the lattice. */
 	dlat: Int32Array;
 	donlat: Uint8Array;
 	/** Global indices of the domain's targets, ascending. */
@@ -128,7 +133,7 @@ export interface PreparedSimulation {
  *   domain without samples
  */
 export function prepareSimulation(input: SimulationInput, targets: TargetPoints, options: PrepareOptions = {}): PreparedSimulation {
-	const { reuseBytes = DEFAULT_REUSE_BYTES, reuseSolutions = true } = options;
+	const { reuseBytes = DEFAULT_REUSE_BYTES, reuseSolutions = true, keepPerTarget = true } = options;
 	if (!(reuseBytes >= 0)) throw new RangeError('reuseBytes must be >= 0');
 	if (input === null || typeof input !== 'object') throw new TypeError('input must be an object');
 	if (typeof input.seed !== 'string') throw new TypeError('seed must be a string');
@@ -140,19 +145,19 @@ export function prepareSimulation(input: SimulationInput, targets: TargetPoints,
 	const lattice = detectLattice(targets);
 	const datumAt = new Int32Array(n).fill(-1);
 	const domains = input.domains.map((d, index) => prepareDomain(d, index, targets, lattice, datumAt));
-	const left = keepDataParts(domains, reuseBytes);
+	const left = keepDataParts(domains, reuseBytes, keepPerTarget);
 	return { seed: input.seed, targets, lattice, datumAt, domains, active, cache: reuseSolutions ? solutionCache(domains, left) : null };
 }
 
 /** Allocates the kept data parts (see PrepareOptions) within `bytes`; returns the bytes left. */
-function keepDataParts(domains: PreparedDomain[], bytes: number): number {
+function keepDataParts(domains: PreparedDomain[], bytes: number, perTarget: boolean): number {
 	const withData = domains.filter((d) => d.nd > 0 && d.maxData > 0 && !d.ellipsoid.empty);
 	// Off the lattice (or without a covariance table) data covariances are evaluated, not read from the table.
 	const offLattice = (d: PreparedDomain) => d.covTable === null || d.donlat.includes(0);
 	let left = bytes;
 	for (const d of withData) {
 		const size = d.pathNodes.length * (d.maxData + 1);
-		if (d.nd < 0xffff && d.maxData < 0xffff && 2 * size <= left) {
+		if (perTarget && d.nd < 0xffff && d.maxData < 0xffff && 2 * size <= left) {
 			d.dataSelection = new Uint16Array(size).fill(0xffff);
 			left -= 2 * size;
 		}
@@ -165,7 +170,7 @@ function keepDataParts(domains: PreparedDomain[], bytes: number): number {
 	}
 	for (const d of withData) {
 		const size = ((d.maxData * (d.maxData + 3)) / 2) * d.pathNodes.length;
-		if (offLattice(d) && 8 * size + d.pathNodes.length <= left) {
+		if (perTarget && offLattice(d) && 8 * size + d.pathNodes.length <= left) {
 			d.dataFactor = new Float64Array(size);
 			d.dataFactorReady = new Uint8Array(d.pathNodes.length);
 			left -= 8 * size + d.pathNodes.length;
@@ -267,7 +272,7 @@ function prepareDomain(
 				// Only data inside the lattice's box count as on it: then every offset between two entries of a
 				// kriging system is within the covariance table (see tableHalf below), with no bounds checks.
 				if (Math.abs(f - r) * lattice.spacing[a] > COINCIDENCE_TOLERANCE || r < 0 || r >= lattice.counts[a]) on = 0;
-				dlat[3 * i + a] = r;
+				dlat[3 * i + a] = on ? r : 0;
 			}
 			donlat[i] = on;
 		}

@@ -43,7 +43,7 @@ export function simulate(
 	realization: number,
 	onProgress?: (done: number, total: number) => void
 ): Float64Array {
-	return simulatePrepared(prepareSimulation(input, targets), realization, onProgress);
+	return simulatePrepared(prepareSimulation(input, targets, { keepPerTarget: false }), realization, onProgress);
 }
 
 /**
