@@ -30,8 +30,9 @@ let table: Float64Array | null = null;
  * instead of an exponential, with the bits still defined by + − × ÷ and √ only, which agree in every engine.
  * Beyond x = 8 the exponential is evaluated directly (@stdlib, deterministic).
  *
- * One class for every model (not a closure per model), so the simulation's call sites stay monomorphic; fields
- * are declared only (not emitted as class fields), so V8 keeps the numbers unboxed in the instance.
+ * One class for every model (not a closure per model), so the simulation's call sites stay monomorphic; the
+ * fields are only declared (not emitted as class fields), so each is first set in the constructor with its final
+ * type. row() and pair() take points as columns and indices, so inner loops pass no boxed numbers.
  */
 export class TabulatedCovariance {
 	/** Total sill: the sum of all structures' sills, nugget included; the covariance at h = 0. */
