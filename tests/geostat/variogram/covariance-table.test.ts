@@ -97,6 +97,22 @@ describe('tabulatedCovariance(model)', () => {
 		expect(Math.max(...K.clone().sub(E).abs().to1DArray())).toBeLessThan(1e-12);
 	});
 
+	it('TabulatedCovariance.row and pair give covariance() bit for bit (one exponential and a nested model), the sill at h = 0', () => {
+		const x = Float64Array.from([0, 1.5, 1.5, 40, 7.25, 0]);
+		const y = Float64Array.from([0, 0, 2, -3, 0.5, 0]);
+		const z = Float64Array.from([0, -0.2, -0.2, -1, -0.4, 0]);
+		for (const m of [one('exponential'), nested]) {
+			const t = tabulatedCovariance(m);
+			const out = new Float64Array(8);
+			t.row(out, 1, x, y, z, 2, 0, 6);
+			for (let r = 0; r < 6; r++) expect(Object.is(out[1 + r], t.covariance(x[2] - x[r], y[2] - y[r], z[2] - z[r]))).toBe(true);
+			expect(out[1 + 2]).toBe(t.sill);
+			expect(out[0]).toBe(0);
+			t.pair(out, 7, x, y, z, 4, x, y, z, 1);
+			expect(Object.is(out[7], t.covariance(x[4] - x[1], y[4] - y[1], z[4] - z[1]))).toBe(true);
+		}
+	});
+
 	it('tabulatedCovariance is one class for every model and rejects invalid models like validateVariogramModel', () => {
 		expect(tabulatedCovariance(one('gaussian'))).toBeInstanceOf(TabulatedCovariance);
 		expect(() => tabulatedCovariance({ azimuth: 0, structures: [{ type: 'cubic' as Structure['type'], sill: 1, rangeMajor: 1, rangeMinor: 1, rangeVertical: 1 }] })).toThrow(TypeError);
