@@ -19,6 +19,7 @@ import { toFloat64Blob } from '$lib/server/db/float64';
 import { soundings, sourceFiles, units, type SourceFormat } from '$lib/server/db/site-schema';
 import { ServiceError, type ErrorStatus } from '$lib/server/errors';
 import type { DbOrTx } from '$lib/server/db/transaction';
+import { refreshInterpolatedContacts } from './contacts';
 import { geologyOffer, writeGeologyContacts, type GeologyOffer, type GeologyRequest, type GeologySource, type WrittenSounding } from './import-geology';
 import { planSoundings, type ClashResolution, type PlannedSounding } from './import-plan';
 
@@ -98,6 +99,8 @@ export interface ImportResult {
 	files: ImportedFile[];
 	/** Contacts written from GEOL groups, when asked for. */
 	geology?: { contacts: number; unitsCreated: string[] };
+	/** Soundings without contacts of their own that took contacts interpolated from their neighbours. */
+	interpolatedContacts: number;
 }
 
 export function sha256Hex(bytes: Uint8Array): string {
@@ -233,9 +236,9 @@ function writeImport(projectId: string, userId: string | null, prepared: Prepare
 		const left = tx.select({ n: count() }).from(soundings).where(eq(soundings.sourceFileId, id)).get()?.n ?? 0;
 		if (left === 0) tx.delete(sourceFiles).where(eq(sourceFiles.id, id)).run();
 	}
-	const result: ImportResult = { files };
-	if (request.geology) result.geology = writeGeologyContacts(projectId, prepared.map((p) => p.geology), written, request.geology, tx);
-	return result;
+	const geology = request.geology ? writeGeologyContacts(projectId, prepared.map((p) => p.geology), written, request.geology, tx) : undefined;
+	const interpolatedContacts = refreshInterpolatedContacts(projectId, tx);
+	return { files, ...(geology ? { geology } : {}), interpolatedContacts };
 }
 
 function prepare(file: UploadedFile, request: ImportRequest): Prepared {
