@@ -14,6 +14,7 @@ import {
 	type DelimitedPreview,
 	type ParsedSounding
 } from '$lib/cpt';
+import { formatDateTime } from '$lib/dates';
 import { getDb } from '$lib/server/db';
 import { toFloat64Blob } from '$lib/server/db/float64';
 import { soundings, sourceFiles, units, type SourceFormat } from '$lib/server/db/site-schema';
@@ -307,8 +308,7 @@ function alreadyImported(projectId: string, prepared: Prepared[], db: DbOrTx): F
 		const file = p.file.name;
 		const known = knownFiles.find((k) => k.sha256 === p.sha256);
 		if (known) {
-			const when = known.uploadedAt.toISOString().slice(0, 16).replace('T', ' ');
-			problems.push({ file, code: 'already-imported', message: `${file}: already imported (as ${known.name}, ${when} UTC)` });
+			problems.push({ file, code: 'already-imported', message: `${file}: already imported (as ${known.name}, ${formatDateTime(known.uploadedAt, { utc: true })})` });
 			continue;
 		}
 		const twin = seenSha.get(p.sha256);

@@ -8,6 +8,7 @@ import { PROPERTY_INFO, type PropertyKey } from '$lib/properties';
 import { contactLines, effectiveTops, locateSounding, zoneNamesOf, type BoundaryLine, type ContactSource, type StoredTop } from '$lib/site';
 import { listContacts, refreshInterpolatedContacts } from './contacts';
 import { deriveSoundings } from './derived';
+import { listSoundings } from './soundings';
 import { getSite, updateSite, type SiteUpdate, type SiteView } from './site';
 
 // The contacts' own service; named here too for callers that take the whole stratigraphy from one place.
@@ -199,6 +200,8 @@ export interface SectionView {
 		value: (number | null)[];
 		/** Index into `units` per reading, −1 for none. */
 		unit: number[];
+		/** Its contacts follow its neighbours (none of its own). */
+		contactsInterpolated: boolean;
 	}[];
 	/** Names of soundings without a chainage (not drawn). */
 	unlocated: string[];
@@ -210,6 +213,7 @@ export interface SectionView {
 /** The section of a project: soundings as traces of a property at their chainage, contacts and zone boundaries. */
 export function sectionView(projectId: string, property: PropertyKey, db: DbOrTx = getDb()): SectionView {
 	const derived = deriveSoundings(projectId, undefined, db);
+	const following = new Map(listSoundings(projectId, db).map((s) => [s.id, s.contactsInterpolated]));
 	const info = PROPERTY_INFO[property];
 	const located = derived.filter((d) => d.sounding.chainage !== null).sort((a, b) => a.sounding.chainage! - b.sounding.chainage!);
 	return {
@@ -231,7 +235,8 @@ export function sectionView(projectId: string, property: PropertyKey, db: DbOrTx
 					const v = values ? values[i] : NaN;
 					return Number.isFinite(v) ? Number(v.toPrecision(5)) : null;
 				}),
-				unit: Array.from(d.unit)
+				unit: Array.from(d.unit),
+				contactsInterpolated: following.get(d.sounding.id) ?? false
 			};
 		}),
 		unlocated: derived.filter((d) => d.sounding.chainage === null).map((d) => d.sounding.name),
