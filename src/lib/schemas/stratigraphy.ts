@@ -50,13 +50,12 @@ const unitFields = {
 /** A new unit names the property it is simulated in: no silent default that suits sands for a clay. */
 export const unitCreateSchema = z
 	.object({
-		...unitFields,
+		...z.object(unitFields).partial().shape,
+		name: unitFields.name,
 		property: z.enum(SIMULATED_PROPERTIES, {
 			error: `Choose the property to simulate the unit in (qc1Ncs for sands, suRatio for clays; any of ${SIMULATED_PROPERTIES.join(', ')}).`
 		})
 	})
-	.partial()
-	.required({ name: true, property: true })
 	.strict();
 export const unitUpdateSchema = z.object(unitFields).partial().strict();
 

@@ -105,7 +105,7 @@ export function editContacts(projectId: string, edit: ContactsPatch, db: DbOrTx 
 		const message =
 			edit.set.length === 1
 				? `The top elevation ${above[0].topElevation} lies above the ground surface of ${byId.get(above[0].soundingId)!.name} (${byId.get(above[0].soundingId)!.ground}).`
-				: `${above.length} tops lie above the ground surface: ${named.join('; ')}${more}. Nothing was saved.`;
+				: `${above.length} ${above.length === 1 ? 'top lies' : 'tops lie'} above the ground surface: ${named.join('; ')}${more}. Nothing was saved.`;
 		throw new ServiceError(422, message);
 	}
 
@@ -137,7 +137,8 @@ export function editContacts(projectId: string, edit: ContactsPatch, db: DbOrTx 
  * Brings interpolated contacts up to date. A sounding without contacts of its own (none measured, and none
  * set or removed by anyone since it was added) takes its contacts from the soundings that have their own,
  * interpolated along chainage (in 3D over their triangulation in plan; interpolateContacts), stored flagged as
- * interpolated; the top unit keeps its ground-surface default unless its neighbours store a top for it. A
+ * interpolated and rounded to thousandths of the length unit; the top unit keeps its ground-surface default
+ * unless its neighbours store a top for it. A
  * sounding that cannot be placed loses its interpolated contacts. Run after anything that changes contacts,
  * soundings or the section line; cheap (one pass over the project's soundings and contacts).
  * Returns the number of soundings whose contacts changed.
@@ -180,7 +181,9 @@ export function refreshInterpolatedContacts(projectId: string, db: DbOrTx = getD
 
 	let changed = 0;
 	for (const t of targets) {
-		const want = interpolateContacts(stations, unitIds, { chainage: locateSounding(site, t).chainage, x: t.x, y: t.y, groundElevation: t.ground }, site.geometry) ?? new Map();
+		const exact = interpolateContacts(stations, unitIds, { chainage: locateSounding(site, t).chainage, x: t.x, y: t.y, groundElevation: t.ground }, site.geometry);
+		// To the millimetre (or thousandth of a foot): as precise as anyone types a contact, and no binary noise.
+		const want = new Map([...(exact ?? [])].map(([u, top]) => [u, Math.round(top * 1000) / 1000]));
 		const have = stored.get(t.id) ?? [];
 		const same = have.length === want.size && have.every((c) => want.get(c.unitId) === c.top);
 		if (same) continue;
