@@ -60,7 +60,8 @@ const ABSENT = /^(-|—|–|absent|none|n\/a|na)$/i;
 
 /**
  * Reads a pasted block. Cells are split by tabs (a spreadsheet's copy), else by semicolons or commas. A first
- * column whose cells are mostly text (not numbers) holds sounding names and places the rows by name; a first row naming units (as "Sand",
+ * column whose cells are mostly text (not numbers), beside other columns, holds sounding names and places the
+ * rows by name; a first row naming units (as "Sand",
  * "Sand top" or "Sand top (m)") places the columns by name and its other columns are left out. Otherwise the
  * block fills the table from the start cell, row by row and column by column. Empty cells and dashes mean
  * the unit is absent; depths are turned into elevations with each sounding's ground elevation.
@@ -76,15 +77,15 @@ export function readContactBlock(text: string, o: BlockOptions): BlockReading {
 
 	const header = grid[0]?.some((c) => unitOf(c) !== undefined) ? grid[0] : null;
 	if (header) grid = grid.slice(1);
-	// A first column of text (not numbers, not dashes) holds sounding names, known or not.
+	// A first column of text (not numbers, not dashes) beside other columns holds sounding names, known or not.
+	const width = Math.max(0, ...grid.map((r) => r.length), header?.length ?? 0);
 	const firsts = grid.map((r) => (r[0] ?? '').trim()).filter(Boolean);
 	const isName = (c: string) => !ABSENT.test(c) && !Number.isFinite(parseNumber(c) ?? NaN);
-	const namesColumn = firsts.length > 0 && firsts.filter(isName).length * 2 >= firsts.length;
+	const namesColumn = width > 1 && firsts.length > 0 && firsts.filter(isName).length * 2 >= firsts.length;
 
 	const firstValue = namesColumn ? 1 : 0;
 	const columnUnits: (number | null)[] = [];
 	const ignoredColumns: string[] = [];
-	const width = Math.max(0, ...grid.map((r) => r.length), header?.length ?? 0);
 	for (let c = firstValue; c < width; c++) {
 		if (header) {
 			const u = unitOf(header[c] ?? '');

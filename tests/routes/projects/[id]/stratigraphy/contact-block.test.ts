@@ -58,6 +58,13 @@ describe('readContactBlock(text, options)', () => {
 		expect(r.set.map((c) => c.top)).toEqual([2.3, 2.1]); // 4 − 1.7, 4.2 − 2.1, to the millimetre
 	});
 
+	it('readContactBlock reads a single column of values by position, even when some are not numbers', () => {
+		const r = readContactBlock('2.0\nabc\n', base);
+		expect(r.byName.soundings).toBe(false);
+		expect(r.set.map((c) => [c.soundingName, c.top])).toEqual([['LV-01', 2]]);
+		expect(r.problems).toEqual(['LV-02, Point-bar sand: “abc” is not a number.']);
+	});
+
 	it('readContactBlock counts values beyond the table and names cells that are not numbers', () => {
 		const r = readContactBlock('1\t2\t3\nx\t2\t3\n1\t2\t3\n1\t2\t3\n', base);
 		expect(r.outside).toBe(3 + 3); // a third value column on the three rows in the table, and the fourth row
