@@ -17,6 +17,7 @@ const EXPORTS = [
 	'interpolateContacts',
 	'locateSounding',
 	'membersOverlap',
+	'planDistance',
 	'polylineLength',
 	'projectOntoPolyline',
 	'triangulatedSurface',
