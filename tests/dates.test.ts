@@ -15,6 +15,12 @@ describe('formatDate(value) and formatDateTime(value)', () => {
 		expect(formatDateTime(new Date(2026, 0, 5, 7, 3))).toBe('5 Jan 2026, 07:03');
 	});
 
+	it('formatDateTime(v, {shortThisYear}) leaves out the year of a date in the current year only', () => {
+		const now = new Date(2026, 11, 20);
+		expect(formatDateTime(new Date(2026, 11, 2, 4, 45), { shortThisYear: true, now })).toBe('2 Dec, 04:45');
+		expect(formatDateTime(new Date(2025, 11, 2, 4, 45), { shortThisYear: true, now })).toBe('2 Dec 2025, 04:45');
+	});
+
 	it('formatDate and formatDateTime write a dash for no date or an invalid one', () => {
 		for (const v of [null, undefined, 'not a date', NaN]) {
 			expect(formatDate(v)).toBe('—');
@@ -33,7 +39,7 @@ describe('one date format everywhere', () => {
 
 	it('no page or service formats a date itself: they all go through $lib/dates', () => {
 		const src = join(import.meta.dirname, '..', 'src');
-		const offenders = files(src).filter((f) => !f.endsWith(join('lib', 'dates.ts')) && /new Date\([^)]*\)\.toLocale|toLocale(Date|Time)String\(|toISOString\(\)\.slice|DateTimeFormat|dateStyle/.test(readFileSync(f, 'utf8')));
+		const offenders = files(src).filter((f) => !f.endsWith(join('lib', 'dates.ts')) && /new Date\([^)]*\)\.toLocale|toLocale(Date|Time)String\(|toISOString\(\)\.slice|DateTimeFormat|dateStyle|month:\s*'/.test(readFileSync(f, 'utf8')));
 		expect(offenders).toEqual([]);
 	});
 });

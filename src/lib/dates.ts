@@ -30,10 +30,17 @@ export function formatDate(value: DateLike | null | undefined, { utc = false }: 
 	return p ? `${p.day} ${MONTHS[p.month]} ${p.year}` : '—';
 }
 
-/** "2 Dec 2026, 15:04" in the reader's time zone, or "2 Dec 2026, 15:04 UTC"; "—" for null, undefined or an invalid date. */
-export function formatDateTime(value: DateLike | null | undefined, { utc = false }: { utc?: boolean } = {}): string {
+/**
+ * "2 Dec 2026, 15:04" in the reader's time zone, or "2 Dec 2026, 15:04 UTC"; with `shortThisYear`, "2 Dec, 15:04"
+ * for a date in the current year (lists of recent events). "—" for null, undefined or an invalid date.
+ */
+export function formatDateTime(
+	value: DateLike | null | undefined,
+	{ utc = false, shortThisYear = false, now = new Date() }: { utc?: boolean; shortThisYear?: boolean; now?: Date } = {}
+): string {
 	const p = value === null || value === undefined ? null : partsOf(value, utc);
 	if (!p) return '—';
 	const hm = `${String(p.hours).padStart(2, '0')}:${String(p.minutes).padStart(2, '0')}`;
-	return `${p.day} ${MONTHS[p.month]} ${p.year}, ${hm}${utc ? ' UTC' : ''}`;
+	const year = shortThisYear && p.year === partsOf(now, utc)!.year ? '' : ` ${p.year}`;
+	return `${p.day} ${MONTHS[p.month]}${year}, ${hm}${utc ? ' UTC' : ''}`;
 }
