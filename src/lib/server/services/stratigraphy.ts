@@ -1,7 +1,7 @@
 import { and, asc, eq } from 'drizzle-orm';
 import { getDb } from '$lib/server/db';
 import { inTransaction, type DbOrTx } from '$lib/server/db/transaction';
-import { contacts, soundings, units, zoneBoundaries, type Unit, type ZoneBoundary } from '$lib/server/db/site-schema';
+import { soundings, units, zoneBoundaries, type Unit, type ZoneBoundary } from '$lib/server/db/site-schema';
 import { ServiceError } from '$lib/server/errors';
 import type { UnitCreate, UnitUpdate, ZoneBoundaryInput } from '$lib/schemas/stratigraphy';
 import { PROPERTY_INFO, type PropertyKey } from '$lib/properties';
