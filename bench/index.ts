@@ -12,6 +12,7 @@ const MODULES: (() => Promise<{ default: BenchCase[] }>)[] = [
 	() => import('./variogram'),
 	() => import('./simulation'),
 	() => import('./soundings-storage'),
+	() => import('./contacts'),
 	() => import('./import-latency'),
 	() => import('./demo-run'),
 	() => import('./browser-run')

@@ -65,4 +65,19 @@ describe('projectApi(projectId)', () => {
 			'/api/v1/projects/p/recipes/r1/recipe.json'
 		]);
 	});
+
+	it('projectApi(id).editContacts(edit) PATCHes the edits and answers what changed', async () => {
+		const calls = answer({ changed: { set: 1, removed: 0, interpolated: 0 }, contacts: [] });
+		const r = await projectApi('p').editContacts({ set: [{ soundingId: 's', unitId: 'u', topElevation: 1 }] });
+		expect(r.changed.set).toBe(1);
+		expect(calls[0]).toEqual({ url: '/api/v1/projects/p/contacts', method: 'PATCH', body: { set: [{ soundingId: 's', unitId: 'u', topElevation: 1 }] } });
+	});
+
+	it('projectApi(id).csv names the CSV downloads with encoded ids', () => {
+		const csv = projectApi('p 1').csv;
+		expect(csv.contacts).toBe('/api/v1/projects/p%201/contacts.csv');
+		expect(csv.readings(['a', 'b/c'])).toBe('/api/v1/projects/p%201/soundings/readings.csv?s=a,b%2Fc');
+		expect(csv.domainStatistics('d')).toBe('/api/v1/projects/p%201/domains/d/statistics.csv');
+		expect(csv.zonationStatistics('z')).toBe('/api/v1/projects/p%201/zonations/z/statistics.csv');
+	});
 });

@@ -170,7 +170,7 @@ describe('soundings page (Chromium)', () => {
 		expect(await page.getByTestId('profile-readout').textContent()).toMatch(/m depth · el\./);
 	});
 
-	it('in the demo project the profiles show the contacts, and a click picks a new one', async () => {
+	it('in the demo project the profiles show the contacts, a click picks a new one and Undo puts the old one back', async () => {
 		const res = await page.request.get('/api/v1/projects');
 		const demoId = ((await res.json()) as { projects: { id: string; name: string }[] }).projects.find((p) => p.name === DEMO_PROJECT_NAME)!.id;
 		const list = ((await (await page.request.get(`/api/v1/projects/${demoId}/soundings`)).json()) as { soundings: { id: string; name: string }[] }).soundings;
@@ -185,9 +185,17 @@ describe('soundings page (Chromium)', () => {
 		const box = (await plot.locator('svg').boundingBox())!;
 		await page.mouse.click(box.x + box.width / 2, box.y + box.height * 0.8);
 		await expect.poll(() => page.getByTestId('pick-status').textContent()).toMatch(/^Top of Dense sand at LV-07: elevation -?\d+\.\d\d m/);
-		const contacts = ((await (await page.request.get(`/api/v1/projects/${demoId}/contacts`)).json()) as { contacts: { soundingId: string; topElevation: number }[] }).contacts;
+		const dense = async () =>
+			((await (await page.request.get(`/api/v1/projects/${demoId}/contacts`)).json()) as { contacts: { soundingId: string; unitId: string; topElevation: number }[] }).contacts.filter(
+				(c) => c.soundingId === lv07.id
+			);
 		const status = (await page.getByTestId('pick-status').textContent())!;
 		const picked = Number(/elevation (-?\d+\.\d\d)/.exec(status)![1]);
-		expect(contacts.some((c) => c.soundingId === lv07.id && Math.abs(c.topElevation - picked) < 1e-9)).toBe(true);
+		expect((await dense()).some((c) => Math.abs(c.topElevation - picked) < 1e-9)).toBe(true);
+
+		await page.getByTestId('pick-undo').click();
+		await expect.poll(async () => (await page.getByTestId('pick-status').textContent())?.trim()).toMatch(/^Undone: the top of Dense sand at LV-07 is back at -?\d+\.\d\d m\.$/);
+		expect((await dense()).some((c) => Math.abs(c.topElevation - picked) < 1e-9)).toBe(false);
+		expect(await page.getByTestId('pick-undo').isDisabled()).toBe(true);
 	});
 });

@@ -66,11 +66,11 @@ describe('site, units, contacts and zone boundaries', () => {
 
 	it('POST, PATCH and DELETE /units keep the stacking order and colours', async () => {
 		const clay = await ok<{ unit: UnitJson }>(await analyst.json('POST', api(ownId, '/units'), { name: 'Clay', property: 'suRatio' }), 201);
-		const sand = await ok<{ unit: UnitJson }>(await analyst.json('POST', api(ownId, '/units'), { name: 'Sand', gammaBelow: 19.5 }), 201);
+		const sand = await ok<{ unit: UnitJson }>(await analyst.json('POST', api(ownId, '/units'), { name: 'Sand', gammaBelow: 19.5, property: 'qc1Ncs' }), 201);
 		expect(clay.unit.position).toBe(0);
 		expect(sand.unit.position).toBe(1);
 		expect(clay.unit.colour).toMatch(/^#[0-9a-f]{6}$/);
-		const peat = await ok<{ unit: UnitJson }>(await analyst.json('POST', api(ownId, '/units'), { name: 'Peat', position: 0, colour: '#5A4A3A' }), 201);
+		const peat = await ok<{ unit: UnitJson }>(await analyst.json('POST', api(ownId, '/units'), { name: 'Peat', position: 0, colour: '#5A4A3A', property: 'suRatio' }), 201);
 		expect(peat.unit.colour).toBe('#5a4a3a');
 		await ok(await analyst.json('PATCH', api(ownId, `/units/${peat.unit.id}`), { position: 2 }));
 		const list = await ok<{ units: UnitJson[] }>(await analyst.json('GET', api(ownId, '/units')));
@@ -232,9 +232,13 @@ describe('roles and validation', () => {
 	});
 
 	it('bad bodies answer 422 with the issues, bad JSON 400, a duplicate name 409, unknown ids 404', async () => {
-		const colour = await analyst.json('POST', api(ownId, '/units'), { name: 'Silt', colour: 'brown' });
+		const colour = await analyst.json('POST', api(ownId, '/units'), { name: 'Silt', colour: 'brown', property: 'suRatio' });
 		expect(colour.status).toBe(422);
 		expect((await errorOf(colour)).issues?.[0]).toMatchObject({ path: ['colour'] });
+		// A new unit names its property: no silent qc1Ncs for a clay.
+		const noProperty = await analyst.json('POST', api(ownId, '/units'), { name: 'Soft clay' });
+		expect(noProperty.status).toBe(422);
+		expect((await errorOf(noProperty)).issues?.[0]).toMatchObject({ path: ['property'], message: expect.stringMatching(/Choose the property to simulate the unit in/) });
 		const top = await analyst.json('PUT', api(ownId, '/contacts'), { soundingId: soundingIds[0], unitId: 'u', topElevation: 'high' });
 		expect(top.status).toBe(422);
 		const above = await analyst.json('POST', api(ownId, '/zone-boundaries'), { unitId: 'u', chainageTop: 0, elevationTop: -5, chainageBottom: 0, elevationBottom: 0 });
@@ -246,7 +250,7 @@ describe('roles and validation', () => {
 		expect(same.status).toBe(422);
 		const json = await analyst.fetch(api(ownId, '/units'), { method: 'POST', headers: { 'content-type': 'application/json' }, body: '{"name":' });
 		expect(json.status).toBe(400);
-		expect((await analyst.json('POST', api(ownId, '/units'), { name: 'clay' })).status).toBe(409);
+		expect((await analyst.json('POST', api(ownId, '/units'), { name: 'clay', property: 'suRatio' })).status).toBe(409);
 		expect((await analyst.json('GET', api(ownId, '/section?property=colour'))).status).toBe(422);
 		expect((await analyst.json('PATCH', api(ownId, '/units/no-such-unit'), { nkt: 12 })).status).toBe(404);
 		const ground = await analyst.json('PUT', api(ownId, '/contacts'), { soundingId: soundingIds[0], unitId: (await ok<{ units: UnitJson[] }>(await analyst.json('GET', api(ownId, '/units')))).units[0].id, topElevation: 99 });

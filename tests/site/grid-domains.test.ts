@@ -116,6 +116,23 @@ describe('gridDomains(stratigraphy, zonation, spec) on a crafted section', () =>
 	});
 });
 
+describe('gridStratigraphy(parts)', () => {
+	it('takes the top unit from the ground surface where no top is stored for it (effectiveTops), interpolated contacts as stored', () => {
+		const g = gridStratigraphy({
+			sectionLine: null,
+			soundings: [{ id: 'a', name: 'A', chainage: 0, x: null, y: null, groundElevation: 4 }],
+			units: [
+				{ id: 'top', name: 'Top' },
+				{ id: 'mid', name: 'Mid' },
+				{ id: 'low', name: 'Low' }
+			],
+			contacts: [{ soundingId: 'a', unitId: 'mid', topElevation: 1.5, interpolated: true }],
+			boundaries: []
+		});
+		expect(g.stations[0].tops).toEqual([4, 1.5, NaN]);
+	});
+});
+
 describe('gridDomains in 3D', () => {
 	// Three soundings in plan; one unit of 2 m over a second; the top unit is zoned along a section line y = 0.
 	const s3 = gridStratigraphy({

@@ -160,6 +160,21 @@ describe('lagTableCsv(bins, options) and defaultSettings(data)', () => {
 		expect(csv).toBe('bin,lag_m,mean_separation_m,gamma,pairs,model_gamma\n1,1,0.9,0.5,40,0.45\n2,2,,,0,1\n');
 	});
 
+	it('lagTableCsv rounds for people: the nominal lag without binary noise, four significant figures, exact pair counts', () => {
+		const csv = lagTableCsv(
+			[
+				{ h: 0.19873456, gamma: 0.412345678, pairs: 1234567 },
+				{ h: 0.401, gamma: 0.7, pairs: 900 },
+				{ h: 0.61234, gamma: 0.95555555, pairs: 800 }
+			],
+			{ lag: 0.2, lengthUnit: 'm', model: (h) => 1 - Math.exp(-h) }
+		);
+		// 3 × 0.2 is 0.6000000000000001 in binary; 1 − exp(−0.61234) = 0.45790… (any calculator).
+		expect(csv.split('\n')[3]).toBe('3,0.6,0.6123,0.9556,800,0.4579');
+		expect(csv.split('\n')[1]).toBe('1,0.2,0.1987,0.4123,1234567,0.1802');
+		expect(csv).not.toMatch(/0{6,}|9{6,}/);
+	});
+
 	it('defaultSettings reads the reading spacing and the sounding spacing off the samples', () => {
 		// 0.05 m readings → vertical lag 0.1 m (the floor). Nearest-neighbour distances 7.5 m (×4) and 15 m (×4):
 		// median 11.25 m → horizontal lag 10 m (1-2-2.5-5 steps from below).
@@ -172,6 +187,11 @@ describe('lagTableCsv(bins, options) and defaultSettings(data)', () => {
 		// Band: the larger of half the vertical lag (0.05) and the reading spacing (0.05).
 		expect(s.horizontal.verticalBand).toBe(0.05);
 		expect(s.horizontal.azimuth).toBeNull();
+	});
+
+	it('defaultSettings uses the declustering weights only when the domain sets a declustering cell', () => {
+		expect(defaultSettings({ ...handDomain(), domain: { declusterCell: { x: 40, y: 40, z: null } } }).declustered).toBe(true);
+		expect(defaultSettings({ ...handDomain(), domain: { declusterCell: null } }).declustered).toBe(false);
 	});
 
 	it('defaultSettings takes a 0.2 m averaging cell as the vertical lag (0.2 / 0.1 rounds below 2 in binary)', () => {

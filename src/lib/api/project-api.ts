@@ -2,6 +2,7 @@ import type { z } from 'zod';
 import type { PropertyKey } from '$lib/properties';
 import type {
 	contactPutSchema,
+	contactsPatchSchema,
 	domainCreateSchema,
 	domainUpdateSchema,
 	siteUpdateSchema,
@@ -60,6 +61,9 @@ export function projectApi(projectId: string) {
 		contacts: async () => (await getJson<{ contacts: ContactView[] }>(at('contacts'))).contacts,
 		putContact: async (input: In<typeof contactPutSchema>) => (await send<{ contact: ContactView }>('PUT', at('contacts'), input)).contact,
 		deleteContact: (soundingId: string, unitId: string) => send<void>('DELETE', at('contacts'), { soundingId, unitId }),
+		/** Several edits at once, all or nothing; answers what changed and every contact after. */
+		editContacts: (input: In<typeof contactsPatchSchema>) =>
+			send<{ changed: { set: number; removed: number; interpolated: number }; contacts: ContactView[] }>('PATCH', at('contacts'), input),
 
 		zoneBoundaries: async () => (await getJson<{ boundaries: ZoneBoundaryView[] }>(at('zone-boundaries'))).boundaries,
 		createZoneBoundary: async (input: In<typeof zoneBoundarySchema>) =>
@@ -98,7 +102,14 @@ export function projectApi(projectId: string) {
 		recipeDocument: (recipeId: string) => getJson<Recipe>(at('recipes', recipeId, 'recipe.json')),
 		realization: (recipeId: string, r: number) => getJson<RealizationJson>(at('recipes', recipeId, 'realizations', String(r))),
 		summary: (recipeId: string, stat: EnsembleStat, threshold?: number) =>
-			getJson<SummaryJson>(`${at('recipes', recipeId, 'summary')}?stat=${stat}${stat === 'below' && threshold !== undefined ? `&threshold=${encodeURIComponent(String(threshold))}` : ''}`)
+			getJson<SummaryJson>(`${at('recipes', recipeId, 'summary')}?stat=${stat}${stat === 'below' && threshold !== undefined ? `&threshold=${encodeURIComponent(String(threshold))}` : ''}`),
+		/** Addresses of the CSV downloads, for links. */
+		csv: {
+			contacts: at('contacts.csv'),
+			readings: (soundingIds: string[]) => `${at('soundings', 'readings.csv')}?s=${soundingIds.map(encodeURIComponent).join(',')}`,
+			domainStatistics: (domainId: string) => at('domains', domainId, 'statistics.csv'),
+			zonationStatistics: (zonationId: string) => at('zonations', zonationId, 'statistics.csv')
+		}
 	};
 }
 

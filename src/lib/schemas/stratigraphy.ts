@@ -44,10 +44,15 @@ const unitFields = {
 	zoneNames: z.array(name('zone name')).max(20).nullable()
 };
 
+/** A new unit names the property it is simulated in: no silent default that suits sands for a clay. */
 export const unitCreateSchema = z
-	.object(unitFields)
-	.partial()
-	.required({ name: true })
+	.object({
+		...z.object(unitFields).partial().shape,
+		name: unitFields.name,
+		property: z.enum(SIMULATED_PROPERTIES, {
+			error: `Choose the property to simulate the unit in (qc1Ncs for sands, suRatio for clays; any of ${SIMULATED_PROPERTIES.join(', ')}).`
+		})
+	})
 	.strict();
 export const unitUpdateSchema = z.object(unitFields).partial().strict();
 
@@ -62,6 +67,22 @@ export const contactPutSchema = z
 export const contactDeleteSchema = z
 	.object({ soundingId: z.string().min(1), unitId: z.string().min(1) })
 	.strict();
+
+/** The most contacts one request may edit: a few hundred soundings × a dozen units, with room to spare. */
+export const MAX_CONTACT_EDITS = 5000;
+
+/**
+ * Several contact edits at once (a block pasted from a spreadsheet, an undo): tops to set, contacts to remove,
+ * soundings whose contacts should follow their neighbours again. All or nothing.
+ */
+export const contactsPatchSchema = z
+	.object({
+		set: z.array(contactPutSchema).max(MAX_CONTACT_EDITS, { error: `Edit at most ${MAX_CONTACT_EDITS} contacts at once.` }).default([]),
+		remove: z.array(contactDeleteSchema).max(MAX_CONTACT_EDITS, { error: `Edit at most ${MAX_CONTACT_EDITS} contacts at once.` }).default([]),
+		interpolate: z.array(z.string().min(1)).max(MAX_CONTACT_EDITS).default([])
+	})
+	.strict()
+	.refine((p) => p.set.length + p.remove.length + p.interpolate.length > 0, { error: 'Nothing to change: give set, remove or interpolate.' });
 
 export const zoneBoundarySchema = z
 	.object({
@@ -130,6 +151,7 @@ export type SiteUpdateInput = z.output<typeof siteUpdateSchema>;
 export type UnitCreate = z.output<typeof unitCreateSchema>;
 export type UnitUpdate = z.output<typeof unitUpdateSchema>;
 export type ContactPut = z.output<typeof contactPutSchema>;
+export type ContactsPatch = z.output<typeof contactsPatchSchema>;
 export type ZoneBoundaryInput = z.output<typeof zoneBoundarySchema>;
 export type MemberInput = z.output<typeof memberSchema>;
 export type DomainCreate = z.output<typeof domainCreateSchema>;

@@ -7,10 +7,15 @@ export type { Polyline, Projection } from './project-onto-polyline';
 export { locateSounding } from './locate-sounding';
 export type { SoundingLocation } from './locate-sounding';
 
-// Contacts: along the section, and over a triangulation of the soundings in plan.
+// Contacts: along the section, over a triangulation of the soundings in plan, the top unit's default, and
+// contacts for a sounding without its own.
 export { interpolateAlongChainage } from './interpolate-along-chainage';
 export type { Station } from './interpolate-along-chainage';
 export { contactLines } from './contact-lines';
+export { effectiveTops } from './effective-tops';
+export type { ContactSource, StoredTop } from './effective-tops';
+export { interpolateContacts } from './interpolate-contacts';
+export type { ContactStation, ContactTarget } from './interpolate-contacts';
 export { triangulatedSurface } from './triangulated-surface';
 export type { PlanPoint } from './triangulated-surface';
 
@@ -20,6 +25,8 @@ export type { BoundaryLine } from './zone-of';
 export { zoneNamesOf } from './zone-names';
 export { membersOverlap, WHOLE_UNIT } from './members-overlap';
 export type { Member } from './members-overlap';
+export { domainDefaults } from './domain-defaults';
+export type { DomainDefaults } from './domain-defaults';
 
 // Domain samples and their distribution.
 export { extractDomainSamples } from './extract-domain-samples';

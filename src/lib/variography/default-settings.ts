@@ -8,9 +8,13 @@ import type { DomainSamplesData, VariogramSettings } from './types';
  * - horizontal lag: the median distance from each sounding to its nearest neighbour, rounded likewise;
  *   lags to half the largest sounding separation, at most 30; a vertical band of half the vertical lag
  *   or one reading spacing, whichever is larger (wider bands mix vertical separation into horizontal pairs);
- * - lag tolerance half the lag; bins with fewer than 30 pairs left out of fits (common practice).
+ * - lag tolerance half the lag; bins with fewer than 30 pairs left out of fits (common practice);
+ * - declustering weights when the domain sets a declustering cell, else equal weights (which is what the
+ *   weights are without one), so the settings and the domain's summary say the same.
  */
-export function defaultSettings(data: Pick<DomainSamplesData, 'samples' | 'lengthUnit'>): VariogramSettings {
+export function defaultSettings(
+	data: Pick<DomainSamplesData, 'samples' | 'lengthUnit'> & { domain?: { declusterCell: object | null } }
+): VariogramSettings {
 	const ft = data.lengthUnit === 'ft';
 	const { x, y, z, sounding } = data.samples;
 	const bySounding = new Map<string, { z: number[]; x: number; y: number; n: number }>();
@@ -46,7 +50,7 @@ export function defaultSettings(data: Pick<DomainSamplesData, 'samples' | 'lengt
 	const hLag = nice(median(nearest) ?? (ft ? 30 : 10));
 	return {
 		transform: 'normal-score',
-		declustered: true,
+		declustered: data.domain ? data.domain.declusterCell !== null : true,
 		vertical: { lag: vLag, nLags: Math.min(40, Math.max(5, Math.ceil((ft ? 10 : 3) / vLag))), lagTolerance: vLag / 2 },
 		horizontal: {
 			lag: hLag,

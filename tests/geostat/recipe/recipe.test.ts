@@ -68,6 +68,9 @@ describe('createRecipe / recipeHash', () => {
 		expect(recipeInput(r).domains[0].model.structures[0].rangeMinor).toBe(Infinity);
 		expect(isCurrentEngine(r)).toBe(true);
 		expect(isCurrentEngine({ ...r, engineVersion: 'conefield-sgs/0' })).toBe(false);
+		// Version 1 computed covariances exactly rather than from the table (issue 16): its recipes are old now.
+		expect(ENGINE_VERSION).toBe('conefield-sgs/2');
+		expect(isCurrentEngine({ ...r, engineVersion: 'conefield-sgs/1' })).toBe(false);
 	});
 
 	it('recipeHash is 64 hex digits, unchanged by key order, changed by any value', () => {
@@ -124,6 +127,19 @@ describe('regenerate(recipe, r)', () => {
 	it('regenerate refuses a recipe of another engine version', () => {
 		const r = createRecipe(input, grid);
 		expect(() => regenerate({ ...r, engineVersion: 'conefield-sgs/0' }, 0)).toThrow('recipe is from engine version conefield-sgs/0');
+		expect(() => regenerate({ ...r, engineVersion: 'conefield-sgs/1' }, 0)).toThrow('recipe is from engine version conefield-sgs/1');
+	});
+
+	it('createRecipe keeps search.path, a recipe without it hashes as before, and regenerate follows it', () => {
+		const plain = createRecipe(input, grid);
+		expect(plain.input.domains[0].search.path).toBeUndefined();
+		expect(canonicalJson(plain)).not.toContain('path');
+		const mg = createRecipe({ ...input, domains: [{ ...input.domains[0], search: { ...input.domains[0].search, path: 'multigrid' } }] }, grid);
+		expect(mg.input.domains[0].search.path).toBe('multigrid');
+		expect(recipeHash(mg)).not.toBe(recipeHash(plain));
+		expectSameBits(regenerate(mg, 1), simulate(recipeInput(mg), targetsFromDefinition(grid), 1));
+		expect(Array.from(regenerate(mg, 1))).not.toEqual(Array.from(regenerate(plain, 1)));
+		expect(recipeSchema.safeParse({ ...mg, input: { ...mg.input, domains: [{ ...mg.input.domains[0], search: { maxData: 1, maxSimulated: 1, path: 'spiral' } }] } }).success).toBe(false);
 	});
 });
 

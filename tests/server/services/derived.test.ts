@@ -42,6 +42,7 @@ function sounding(over: Partial<Sounding> = {}): Sounding {
 		fs: toFloat64Blob(depth.map(() => 50)),
 		u2: toFloat64Blob(depth.map(() => 20)),
 		extras: null,
+		contactsEdited: false,
 		createdAt: new Date(0),
 		...over
 	};
@@ -51,8 +52,9 @@ const site = { geometry: '2d' as const, sectionLine: null, offLineTolerance: 25,
 const A = unit('A', 0, 17, 18);
 const B = unit('B', 1, 18, 20);
 
-function ctx(tops: Record<string, number>, over: Partial<DeriveContext> = {}): DeriveContext {
-	return { site, units: [A, B], contacts: new Map([['s1', new Map(Object.entries(tops))]]), ...over };
+function ctx(tops: Record<string, number>, over: Partial<DeriveContext> = {}, interpolated: string[] = []): DeriveContext {
+	const stored = new Map(Object.entries(tops).map(([u, top]) => [u, { top, interpolated: interpolated.includes(u) }]));
+	return { site, units: [A, B], contacts: new Map([['s1', stored]]), ...over };
 }
 
 describe('deriveWithContext(sounding, context)', () => {
@@ -86,11 +88,26 @@ describe('deriveWithContext(sounding, context)', () => {
 		expect(r.warnings.join(' ')).toMatch(/assumed at the ground surface/);
 	});
 
-	it('deriveWithContext(s, ctx) marks readings above the first unit top and absent units', () => {
-		// A absent; B's top at −1.2: the readings at 0.5 and 1 m lie above every unit.
+	it('deriveWithContext(s, ctx) starts the top unit at the ground surface where no top is stored for it', () => {
+		// A not stored: it starts at the ground (0); B's top at −1.2 takes the readings from 1.5 m down.
 		const r = deriveWithContext(sounding(), ctx({ B: -1.2 }));
-		expect(Array.from(r.unit)).toEqual([-1, -1, 1, 1, 1]);
-		expect(r.units.map((u) => u.topElevation)).toEqual([null, -1.2]);
+		expect(Array.from(r.unit)).toEqual([0, 0, 1, 1, 1]);
+		expect(r.units.map((u) => [u.topElevation, u.topSource])).toEqual([
+			[0, 'ground'],
+			[-1.2, 'measured']
+		]);
+	});
+
+	it('deriveWithContext(s, ctx) marks readings above a top unit entered below the ground surface, and interpolated tops', () => {
+		const r = deriveWithContext(sounding(), ctx({ A: -0.8, B: -1.2 }, {}, ['B']));
+		expect(Array.from(r.unit)).toEqual([-1, 0, 1, 1, 1]);
+		expect(r.units.map((u) => u.topSource)).toEqual(['measured', 'interpolated']);
+	});
+
+	it('deriveWithContext(s, ctx) gives the top unit no thickness where the next one is entered at the ground surface', () => {
+		const r = deriveWithContext(sounding(), ctx({ B: 0 }));
+		expect(Array.from(r.unit)).toEqual([1, 1, 1, 1, 1]);
+		expect(r.warnings).toEqual([]);
 	});
 
 	it('deriveWithContext(s, ctx) takes contacts out of stacking order by elevation and says so', () => {
@@ -99,12 +116,20 @@ describe('deriveWithContext(sounding, context)', () => {
 		expect(r.warnings.join(' ')).toMatch(/out of stacking order/);
 	});
 
-	it('deriveWithContext(s, ctx) falls back to default unit weights without contacts', () => {
-		// 18 above and 19 below the water at −1.5: σv(−2) = 18·1.5 + 19·0.5 = 36.5 kPa (worked by hand).
+	it('deriveWithContext(s, ctx) takes a sounding without contacts as the top unit and says so', () => {
+		// A (17 above, 18 below the water at −1.5) from the ground down: σv(−2) = 17·1.5 + 18·0.5 = 34.5 kPa (worked by hand).
 		const r = deriveWithContext(sounding(), ctx({}));
+		expect(Array.from(r.unit)).toEqual([0, 0, 0, 0, 0]);
+		expectAbsClose(r.derived.sigmaV[3], 34.5, 1e-9, 'σv');
+		expect(r.warnings.join(' ')).toMatch(/T-1 has no contacts: all of it is taken as A/);
+	});
+
+	it('deriveWithContext(s, ctx) falls back to default unit weights when the project has no units', () => {
+		// 18 above and 19 below the water at −1.5: σv(−2) = 18·1.5 + 19·0.5 = 36.5 kPa (worked by hand).
+		const r = deriveWithContext(sounding(), ctx({}, { units: [] }));
 		expect(Array.from(r.unit)).toEqual([-1, -1, -1, -1, -1]);
 		expectAbsClose(r.derived.sigmaV[3], 36.5, 1e-9, 'σv');
-		expect(r.warnings.join(' ')).toMatch(/no contacts yet/);
+		expect(r.warnings).toEqual([]);
 	});
 
 	it('deriveWithContext(s, ctx) reads a measured fines content from an extra column', () => {

@@ -104,7 +104,7 @@ describe('planImport and importSoundings with clashing sounding names', () => {
 		expect(now).toMatchObject({ id: old.id, groundElevation: 2.6, groundwaterElevation: 1.25, sourceFileId: result.files[0].id });
 		expect(fromFloat64Blob(now.qc)[0]).toBeCloseTo(1600, 9);
 		expect(now.createdAt.getTime()).toBeGreaterThanOrEqual(old.createdAt.getTime());
-		expect(t.db.select().from(contacts).all()).toEqual([{ soundingId: old.id, unitId: unit.id, topElevation: 1.5 }]);
+		expect(t.db.select().from(contacts).all()).toEqual([{ soundingId: old.id, unitId: unit.id, topElevation: 1.5, interpolated: false }]);
 		expect(t.db.select({ name: sourceFiles.name }).from(sourceFiles).all()).toEqual([{ name: 'new.gef' }]);
 	});
 

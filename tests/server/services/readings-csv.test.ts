@@ -2,19 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { parse } from 'csv-parse/sync';
 import { deriveSounding } from '../../../src/lib/server/services/derived';
 import { importSoundings } from '../../../src/lib/server/services/import';
-import { readingsCsv, roundedCell } from '../../../src/lib/server/services/readings-csv';
+import { readingsCsv } from '../../../src/lib/server/services/readings-csv';
 import { testProject } from './soundings-db';
-
-describe('roundedCell(v, decimals)', () => {
-	it('roundedCell rounds to fixed decimals, never writes "-0", and leaves undefined values blank', () => {
-		expect(roundedCell(0.6000000000000001, 3)).toBe('0.600');
-		expect(roundedCell(1234.5678, 0)).toBe('1235');
-		expect(roundedCell(-0.0004, 3)).toBe('0.000');
-		expect(roundedCell(-0.4, 0)).toBe('0');
-		expect(roundedCell(-1.25, 1)).toBe('-1.3');
-		for (const v of [NaN, Infinity, -Infinity, null, undefined]) expect(roundedCell(v, 2)).toBe('');
-	});
-});
 
 describe('readingsCsv(results, lengthUnit)', () => {
 	it('readingsCsv writes a header with units, one row per reading and quotes a name holding a comma (RFC 4180)', async () => {

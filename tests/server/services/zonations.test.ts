@@ -22,6 +22,8 @@ import {
 import { domainSamples } from '../../../src/lib/server/services/domains';
 import { getSite, updateSite } from '../../../src/lib/server/services/site';
 import { ServiceError } from '../../../src/lib/server/errors';
+import { projects } from '../../../src/lib/server/db/schema';
+import { eq } from 'drizzle-orm';
 import { addSounding, siteTestProject, type SiteTestProject } from './site-db';
 
 let t: SiteTestProject;
@@ -55,6 +57,13 @@ describe('units and contacts', () => {
 		expectServiceError(() => createUnit(t.projectId, { name: 'clay' }, t.db), 409, /already exists/);
 	});
 
+	it('listUnits(p) keeps zone names saved before a boundary exists, and uses them once one does', () => {
+		const u = createUnit(t.projectId, { name: 'Sand', zoneNames: ['West', 'East'] }, t.db);
+		expect(listUnits(t.projectId, t.db)[0]).toMatchObject({ zoneNames: ['Sand'], savedZoneNames: ['West', 'East'] });
+		createZoneBoundary(t.projectId, { unitId: u.id, chainageTop: 50, elevationTop: 0, chainageBottom: 50, elevationBottom: -10 }, t.db);
+		expect(listUnits(t.projectId, t.db)[0]).toMatchObject({ zoneNames: ['West', 'East'], savedZoneNames: ['West', 'East'] });
+	});
+
 	it('updateUnit(p, u, {position}) moves a unit and renumbers; deleteUnit closes the gap', () => {
 		const a = createUnit(t.projectId, { name: 'A' }, t.db);
 		createUnit(t.projectId, { name: 'B' }, t.db);
@@ -75,7 +84,7 @@ describe('units and contacts', () => {
 		const s = addSounding(t.db, t.projectId, 'S-1', { groundElevation: 2 });
 		putContact(t.projectId, { soundingId: s, unitId: u.id, topElevation: 1 }, t.db);
 		putContact(t.projectId, { soundingId: s, unitId: u.id, topElevation: 0.5 }, t.db);
-		expect(listContacts(t.projectId, t.db)).toEqual([{ soundingId: s, soundingName: 'S-1', unitId: u.id, topElevation: 0.5 }]);
+		expect(listContacts(t.projectId, t.db)).toEqual([{ soundingId: s, soundingName: 'S-1', unitId: u.id, topElevation: 0.5, interpolated: false }]);
 		expectServiceError(() => putContact(t.projectId, { soundingId: s, unitId: u.id, topElevation: 2.5 }, t.db), 422, /above the ground/);
 		expectServiceError(() => putContact(t.projectId, { soundingId: 'x', unitId: u.id, topElevation: 0 }, t.db), 404);
 		deleteContact(t.projectId, s, u.id, t.db);
@@ -83,17 +92,28 @@ describe('units and contacts', () => {
 		expectServiceError(() => deleteContact(t.projectId, s, u.id, t.db), 404);
 	});
 
-	it('sectionContacts(p) orders stations by chainage and breaks lines where a unit is absent', () => {
+	it('sectionContacts(p) orders stations by chainage, starts the top unit at the ground and breaks lines where a unit is absent', () => {
+		const clay = createUnit(t.projectId, { name: 'Clay' }, t.db);
 		const u = createUnit(t.projectId, { name: 'Sand' }, t.db);
-		const s1 = addSounding(t.db, t.projectId, 'S-1', { chainage: 0 });
+		const s1 = addSounding(t.db, t.projectId, 'S-1', { chainage: 0, groundElevation: 1 });
 		const s2 = addSounding(t.db, t.projectId, 'S-2', { chainage: 20 });
 		const s3 = addSounding(t.db, t.projectId, 'S-3', { chainage: 10 });
 		const s4 = addSounding(t.db, t.projectId, 'S-4', { chainage: 30 });
 		putContact(t.projectId, { soundingId: s1, unitId: u.id, topElevation: -1 }, t.db);
 		putContact(t.projectId, { soundingId: s3, unitId: u.id, topElevation: -2 }, t.db);
 		putContact(t.projectId, { soundingId: s4, unitId: u.id, topElevation: -3 }, t.db);
-		const [line] = sectionContacts(t.projectId, t.db);
+		// The sand is absent at S-2: someone removed its (interpolated) contact there.
+		deleteContact(t.projectId, s2, u.id, t.db);
+		const [top, line] = sectionContacts(t.projectId, t.db);
+		expect(top.unitId).toBe(clay.id);
+		expect(top.stations.map((s) => [s.topElevation, s.source])).toEqual([
+			[1, 'ground'],
+			[0, 'ground'],
+			[0, 'ground'],
+			[0, 'ground']
+		]);
 		expect(line.stations.map((s) => s.soundingId)).toEqual([s1, s3, s2, s4]);
+		expect(line.stations.map((s) => s.source)).toEqual(['measured', 'measured', null, 'measured']);
 		expect(line.lines).toEqual([
 			[
 				[0, -1],
@@ -156,6 +176,16 @@ describe('zonations and domains', () => {
 		expect(listZonations(t.projectId, t.db)).toEqual([]);
 	});
 
+	it('createDomain(p, z, input) starts with 0.2 m means and 40 m declustering cells; null keeps every reading and equal weights', () => {
+		const z = createZonation(t.projectId, { name: 'Z', description: '', domains: [{ name: 'A', property: 'qc1Ncs' }] }, t.db);
+		expect(z.domains[0]).toMatchObject({ cellHeight: 0.2, averaging: 'mean', declusterCell: { x: 40, y: 40, z: null } });
+		const raw = createDomain(t.projectId, z.id, { name: 'B', property: 'qc1Ncs', cellHeight: null, declusterCell: null }, t.db);
+		expect(raw).toMatchObject({ cellHeight: null, averaging: 'none', declusterCell: null });
+		t.db.update(projects).set({ lengthUnit: 'ft' }).where(eq(projects.id, t.projectId)).run();
+		const ft = createDomain(t.projectId, z.id, { name: 'C', property: 'suRatio' }, t.db);
+		expect(ft).toMatchObject({ cellHeight: 0.5, averaging: 'mean', declusterCell: { x: 130, y: 130, z: null } });
+	});
+
 	it('createDomain and updateDomain(p, d, {members}) keep members exclusive within a zonation only', () => {
 		const { sand } = sandSplit();
 		const a = createZonation(t.projectId, { name: 'A', description: '', domains: [] }, t.db);
@@ -191,7 +221,11 @@ describe('zonations and domains', () => {
 		}
 		const z = createZonation(
 			t.projectId,
-			{ name: 'Z', description: '', domains: [{ name: 'West', property: 'qc1Ncs', members: [{ unitId: sand.id, zone: 0 }], declusterCell: { x: 50, y: 50, z: null } }] },
+			{
+				name: 'Z',
+				description: '',
+				domains: [{ name: 'West', property: 'qc1Ncs', members: [{ unitId: sand.id, zone: 0 }], cellHeight: null, declusterCell: { x: 50, y: 50, z: null } }]
+			},
 			t.db
 		);
 		const r = domainSamples(t.projectId, z.domains[0].id, t.db);

@@ -83,6 +83,11 @@ export const soundings = sqliteTable(
 		u2: blob('u2', { mode: 'buffer' }),
 		/** Optional extra columns (e.g. a measured fines content), name → Float64 BLOB as base64. */
 		extras: json<Record<string, string>>('extras'),
+		/**
+		 * Someone has set or removed a contact at this sounding. Until then a sounding without contacts of its own
+		 * takes interpolated ones from its neighbours along chainage, and they follow the neighbours as these change.
+		 */
+		contactsEdited: integer('contacts_edited', { mode: 'boolean' }).notNull().default(false),
 		createdAt: timestamp('created_at').notNull().default(now)
 	},
 	(t) => [uniqueIndex('soundings_project_name_idx').on(t.projectId, t.name)]
@@ -110,7 +115,10 @@ export const units = sqliteTable(
 	(t) => [uniqueIndex('units_project_name_idx').on(t.projectId, t.name)]
 );
 
-/** The elevation of a unit's top at a sounding. A unit absent from a sounding has no row. */
+/**
+ * The elevation of a unit's top at a sounding. A unit absent from a sounding has no row; so has the top unit
+ * where it starts at the ground surface (its default, see effectiveTops in $lib/site).
+ */
 export const contacts = sqliteTable(
 	'contacts',
 	{
@@ -120,7 +128,9 @@ export const contacts = sqliteTable(
 		unitId: text('unit_id')
 			.notNull()
 			.references(() => units.id, { onDelete: 'cascade' }),
-		topElevation: real('top_elevation').notNull()
+		topElevation: real('top_elevation').notNull(),
+		/** Interpolated from the neighbouring soundings along chainage rather than entered, picked or imported. */
+		interpolated: integer('interpolated', { mode: 'boolean' }).notNull().default(false)
 	},
 	(t) => [primaryKey({ columns: [t.soundingId, t.unitId] }), index('contacts_unit_idx').on(t.unitId)]
 );

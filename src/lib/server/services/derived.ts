@@ -6,7 +6,7 @@ import { contacts, soundings, units, type Sounding, type Unit } from '$lib/serve
 import type { SimulatedProperty } from '$lib/properties';
 import { ServiceError } from '$lib/server/errors';
 import type { DbOrTx } from '$lib/server/db/transaction';
-import { locateSounding, type SoundingLocation } from '$lib/site';
+import { effectiveTops, locateSounding, type ContactSource, type SoundingLocation, type StoredTop } from '$lib/site';
 import { getSite, type SiteView } from './site';
 
 /** A project unit as it stands at one sounding. */
@@ -18,6 +18,8 @@ export interface UnitAtSoundingView {
 	property: SimulatedProperty;
 	/** Elevation of the unit's top at this sounding; null when the unit is absent here. */
 	topElevation: number | null;
+	/** Where the top comes from: entered, picked or imported; interpolated from neighbours; the ground surface (top unit's default). */
+	topSource: ContactSource | null;
 }
 
 /** One sounding with its derived properties, ready for profiles, sections and domain samples. */
@@ -49,7 +51,7 @@ export interface DerivedSoundingResult {
 	warnings: string[];
 }
 
-/** Unit weights used where a sounding has no contacts yet (kN/m³; common practice for soft soils). */
+/** Unit weights used where the project has no units yet (kN/m³; common practice for soft soils). */
 const FALLBACK_UNIT: UnitAtSounding = { topElevation: NaN, gammaAbove: 18, gammaBelow: 19 };
 
 /** Extra column names read as a measured fines content (%), case-insensitive. */
@@ -59,23 +61,23 @@ const FINES_COLUMN = /^(fc|fines|fines ?content)(\s*\(%\))?$/i;
 export interface DeriveContext {
 	site: SiteView;
 	units: Unit[];
-	/** soundingId → unitId → top elevation. */
-	contacts: Map<string, Map<string, number>>;
+	/** soundingId → unitId → stored top elevation (the top unit's ground default is not stored). */
+	contacts: Map<string, Map<string, StoredTop>>;
 }
 
 export function loadDeriveContext(projectId: string, db: DbOrTx = getDb()): DeriveContext {
 	const site = getSite(projectId, db);
 	const unitRows = db.select().from(units).where(eq(units.projectId, projectId)).orderBy(asc(units.position), asc(units.name)).all();
 	const contactRows = db
-		.select({ soundingId: contacts.soundingId, unitId: contacts.unitId, topElevation: contacts.topElevation })
+		.select({ soundingId: contacts.soundingId, unitId: contacts.unitId, topElevation: contacts.topElevation, interpolated: contacts.interpolated })
 		.from(contacts)
 		.innerJoin(units, eq(units.id, contacts.unitId))
 		.where(eq(units.projectId, projectId))
 		.all();
-	const byS = new Map<string, Map<string, number>>();
+	const byS = new Map<string, Map<string, StoredTop>>();
 	for (const c of contactRows) {
 		if (!byS.has(c.soundingId)) byS.set(c.soundingId, new Map());
-		byS.get(c.soundingId)!.set(c.unitId, c.topElevation);
+		byS.get(c.soundingId)!.set(c.unitId, { top: c.topElevation, interpolated: c.interpolated });
 	}
 	return { site, units: unitRows, contacts: byS };
 }
@@ -119,7 +121,7 @@ export function deriveSoundings(projectId: string, soundingIds?: string[], db: D
 			.from(soundings)
 			.where(eq(soundings.projectId, projectId))
 			.all();
-		const key = JSON.stringify([heads, ctx.site, ctx.units, [...ctx.contacts].map(([k, m]) => [k, [...m]])]);
+		const key = JSON.stringify([heads, ctx.site, ctx.units, [...ctx.contacts].map(([k, m]) => [k, [...m].map(([u, t]) => [u, t.top, t.interpolated])])]);
 		const hit = cache.get(projectId);
 		if (hit && hit.key === key) return hit.results;
 		const rows = db.select().from(soundings).where(eq(soundings.projectId, projectId)).orderBy(asc(soundings.name)).all();
@@ -165,15 +167,26 @@ export function deriveWithContext(row: Sounding, ctx: DeriveContext): DerivedSou
 		warnings.push('No groundwater elevation is set; the water table is assumed at the ground surface.');
 	}
 
-	const tops = ctx.contacts.get(row.id) ?? new Map<string, number>();
+	const stored = ctx.contacts.get(row.id) ?? new Map<string, StoredTop>();
+	const tops = effectiveTops(
+		ctx.units.map((u) => u.id),
+		stored,
+		row.groundElevation
+	);
 	const unitViews: UnitAtSoundingView[] = ctx.units.map((u) => ({
 		id: u.id,
 		name: u.name,
 		colour: u.colour,
 		position: u.position,
 		property: u.property,
-		topElevation: tops.has(u.id) ? tops.get(u.id)! : null
+		topElevation: tops.get(u.id)?.top ?? null,
+		topSource: tops.get(u.id)?.source ?? null
 	}));
+	if (stored.size === 0 && ctx.units.length > 1) {
+		warnings.push(
+			`${row.name} has no contacts: all of it is taken as ${ctx.units[0].name}, from the ground surface down. Enter its contacts, or place it on the section so it takes them from its neighbours.`
+		);
+	}
 	// The pipeline wants present units ordered by elevation; contacts that contradict the stacking order
 	// are taken as entered (sorted by elevation) and reported, rather than refused.
 	const present = unitViews
@@ -187,7 +200,6 @@ export function deriveWithContext(row: Sounding, ctx: DeriveContext): DerivedSou
 	let pipelineUnits: UnitAtSounding[];
 	let backToView: number[];
 	if (byElevation.length === 0) {
-		if (ctx.units.length > 0) warnings.push(`${row.name} has no contacts yet; default unit weights (18/19 kN/m³) are used.`);
 		pipelineUnits = [{ ...FALLBACK_UNIT, topElevation: row.groundElevation }];
 		backToView = [-1];
 	} else {

@@ -168,7 +168,10 @@ export function writeGeologyContacts(
 		const soundingId = idOf.get(c.sounding)!;
 		const unitId = existing.get(c.unit.toLowerCase())!;
 		const topElevation = c.sounding.groundElevation! - c.top;
-		db.insert(contacts).values({ soundingId, unitId, topElevation }).onConflictDoUpdate({ target: [contacts.soundingId, contacts.unitId], set: { topElevation } }).run();
+		db.insert(contacts)
+			.values({ soundingId, unitId, topElevation })
+			.onConflictDoUpdate({ target: [contacts.soundingId, contacts.unitId], set: { topElevation, interpolated: false } })
+			.run();
 	}
 	return { contacts: planned.length, unitsCreated: toCreate.map((c) => c.unit) };
 }

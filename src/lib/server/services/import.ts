@@ -1,10 +1,12 @@
 import { and, count, eq, inArray } from 'drizzle-orm';
 import { DEFAULT_AREA_RATIO, decodeCptText, previewDelimited, type DelimitedPreview, type ParsedSounding } from '$lib/cpt';
+import { formatDateTime } from '$lib/dates';
 import { getDb } from '$lib/server/db';
 import { toFloat64Blob } from '$lib/server/db/float64';
 import { soundings, sourceFiles, units, type SourceFormat } from '$lib/server/db/site-schema';
 import { ServiceError, type ErrorStatus } from '$lib/server/errors';
 import type { DbOrTx } from '$lib/server/db/transaction';
+import { refreshInterpolatedContacts } from './contacts';
 import { geologyOffer, writeGeologyContacts, type GeologyOffer, type GeologyRequest, type GeologySource, type WrittenSounding } from './import-geology';
 import { planSoundings, type ClashResolution, type PlannedSounding } from './import-plan';
 import { mappingFor, maxFinite, parseUpload, problemOf, type FileProblem, type ParsedUpload, type ParseRequest, type UploadedFile } from './import-parse';
@@ -61,6 +63,8 @@ export interface ImportResult {
 	files: ImportedFile[];
 	/** Contacts written from GEOL groups, when asked for. */
 	geology?: { contacts: number; unitsCreated: string[] };
+	/** Soundings without contacts of their own that took contacts interpolated from their neighbours. */
+	interpolatedContacts: number;
 }
 
 /**
@@ -214,9 +218,9 @@ function writeImport(projectId: string, userId: string | null, prepared: Prepare
 		const left = tx.select({ n: count() }).from(soundings).where(eq(soundings.sourceFileId, id)).get()?.n ?? 0;
 		if (left === 0) tx.delete(sourceFiles).where(eq(sourceFiles.id, id)).run();
 	}
-	const result: ImportResult = { files };
-	if (request.geology) result.geology = writeGeologyContacts(projectId, prepared.map((p) => p.geology), written, request.geology, tx);
-	return result;
+	const geology = request.geology ? writeGeologyContacts(projectId, prepared.map((p) => p.geology), written, request.geology, tx) : undefined;
+	const interpolatedContacts = refreshInterpolatedContacts(projectId, tx);
+	return { files, ...(geology ? { geology } : {}), interpolatedContacts };
 }
 
 
@@ -237,8 +241,7 @@ function alreadyImported(projectId: string, prepared: Prepared[], db: DbOrTx): F
 		const file = p.file.name;
 		const known = knownFiles.find((k) => k.sha256 === p.sha256);
 		if (known) {
-			const when = known.uploadedAt.toISOString().slice(0, 16).replace('T', ' ');
-			problems.push({ file, code: 'already-imported', message: `${file}: already imported (as ${known.name}, ${when} UTC)` });
+			problems.push({ file, code: 'already-imported', message: `${file}: already imported (as ${known.name}, ${formatDateTime(known.uploadedAt, { utc: true })})` });
 			continue;
 		}
 		const twin = seenSha.get(p.sha256);

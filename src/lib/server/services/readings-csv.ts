@@ -1,4 +1,5 @@
 import { describeFlags } from '$lib/cpt';
+import { csvField as field, roundedCell } from '$lib/csv';
 import { PROPERTY_INFO, labelWithUnit, type PropertyKey } from '$lib/properties';
 import type { DerivedSoundingResult } from './derived';
 
@@ -31,18 +32,6 @@ type DerivedKey = (typeof DERIVED_KEYS)[number];
 /** Label, unit and decimals of a quantity: from the property catalogue, else from OTHER_INFO. */
 function infoOf(key: DerivedKey | 'qc' | 'fs' | 'u2'): { label: string; unit: string; decimals: number } {
 	return key in PROPERTY_INFO ? PROPERTY_INFO[key as PropertyKey] : OTHER_INFO[key];
-}
-
-/** A number rounded for people: fixed decimals, no "-0", blank for NaN or infinity. */
-export function roundedCell(v: number | null | undefined, decimals: number): string {
-	if (v === null || v === undefined || !Number.isFinite(v)) return '';
-	const s = v.toFixed(decimals);
-	return /^-0\.?0*$/.test(s) ? s.slice(1) : s;
-}
-
-/** RFC 4180: a field with a comma, quote or line break is quoted, quotes doubled. */
-function field(s: string): string {
-	return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }
 
 /**

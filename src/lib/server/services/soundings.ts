@@ -1,8 +1,9 @@
-import { and, asc, count, eq } from 'drizzle-orm';
+import { and, asc, count, eq, sql } from 'drizzle-orm';
 import { getDb } from '$lib/server/db';
 import { fromFloat64Blob } from '$lib/server/db/float64';
-import { soundings, sourceFiles, type SourceFormat } from '$lib/server/db/site-schema';
+import { contacts, soundings, sourceFiles, type SourceFormat } from '$lib/server/db/site-schema';
 import { ServiceError } from '$lib/server/errors';
+import { refreshInterpolatedContacts } from './contacts';
 import { deriveSounding, jsonColumn, type UnitAtSoundingView } from './derived';
 import { READINGS_PER_SOUNDING_MAX } from '$lib/schemas/bounds';
 import { readingsPageJson, type ReadingsPage, type ReadingsPageView } from './sounding-readings';
@@ -31,6 +32,8 @@ export interface SoundingSummary {
 	/** kPa. */
 	maxQc: number;
 	sourceFile: { id: string; name: string; format: SourceFormat } | null;
+	/** Its contacts are interpolated from its neighbours and follow them: it has none of its own and nobody has edited them. */
+	contactsInterpolated: boolean;
 	createdAt: string;
 }
 
@@ -60,13 +63,17 @@ const summaryColumns = {
 	readings: soundings.readings,
 	maxDepth: soundings.maxDepth,
 	maxQc: soundings.maxQc,
+	contactsEdited: soundings.contactsEdited,
+	measuredContacts: sql<number>`(select count(*) from ${contacts} where ${contacts.soundingId} = ${soundings.id} and ${contacts.interpolated} = 0)`,
 	createdAt: soundings.createdAt,
 	fileId: sourceFiles.id,
 	fileName: sourceFiles.name,
 	fileFormat: sourceFiles.format
 };
 
-type SummaryRow = Omit<SoundingSummary, 'sourceFile' | 'createdAt' | 'offset' | 'farOffLine' | 'chainageSource'> & {
+type SummaryRow = Omit<SoundingSummary, 'sourceFile' | 'createdAt' | 'offset' | 'farOffLine' | 'chainageSource' | 'contactsInterpolated'> & {
+	contactsEdited: boolean;
+	measuredContacts: number;
 	createdAt: Date;
 	fileId: string | null;
 	fileName: string | null;
@@ -91,6 +98,7 @@ function summaryOf(r: SummaryRow, site: SiteView): SoundingSummary {
 		maxDepth: r.maxDepth,
 		maxQc: r.maxQc,
 		sourceFile: r.fileId && r.fileName && r.fileFormat ? { id: r.fileId, name: r.fileName, format: r.fileFormat } : null,
+		contactsInterpolated: !r.contactsEdited && r.measuredContacts === 0,
 		createdAt: r.createdAt.toISOString()
 	};
 }
@@ -181,7 +189,8 @@ export function soundingDetailView(
 
 /**
  * Deletes a sounding (its contacts go with it, ON DELETE CASCADE). When it was the last sounding of its
- * source file, the stored file goes too, so the same file can be imported again.
+ * source file, the stored file goes too, so the same file can be imported again. Interpolated contacts of
+ * other soundings are brought up to date.
  * @throws ServiceError 404 when the sounding is not in the project.
  */
 export function deleteSounding(projectId: string, soundingId: string, db: DbOrTx = getDb()): void {
@@ -197,5 +206,7 @@ export function deleteSounding(projectId: string, soundingId: string, db: DbOrTx
 			const left = tx.select({ n: count() }).from(soundings).where(eq(soundings.sourceFileId, row.sourceFileId)).get()?.n ?? 0;
 			if (left === 0) tx.delete(sourceFiles).where(eq(sourceFiles.id, row.sourceFileId)).run();
 		}
+		// Its neighbours' interpolated contacts may have leant on it.
+		refreshInterpolatedContacts(projectId, tx);
 	});
 }

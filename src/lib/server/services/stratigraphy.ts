@@ -1,13 +1,18 @@
 import { and, asc, eq } from 'drizzle-orm';
 import { getDb } from '$lib/server/db';
 import { inTransaction, type DbOrTx } from '$lib/server/db/transaction';
-import { contacts, soundings, units, zoneBoundaries, type Unit, type ZoneBoundary } from '$lib/server/db/site-schema';
+import { soundings, units, zoneBoundaries, type Unit, type ZoneBoundary } from '$lib/server/db/site-schema';
 import { ServiceError } from '$lib/server/errors';
-import type { ContactPut, UnitCreate, UnitUpdate, ZoneBoundaryInput } from '$lib/schemas/stratigraphy';
+import type { UnitCreate, UnitUpdate, ZoneBoundaryInput } from '$lib/schemas/stratigraphy';
 import { PROPERTY_INFO, type PropertyKey } from '$lib/properties';
-import { contactLines, locateSounding, zoneNamesOf, type BoundaryLine } from '$lib/site';
+import { contactLines, effectiveTops, locateSounding, zoneNamesOf, type BoundaryLine, type ContactSource, type StoredTop } from '$lib/site';
+import { listContacts, refreshInterpolatedContacts } from './contacts';
 import { deriveSoundings } from './derived';
-import { getSite, type SiteView } from './site';
+import { listSoundings } from './soundings';
+import { getSite, updateSite, type SiteUpdate, type SiteView } from './site';
+
+// The contacts' own service; named here too for callers that take the whole stratigraphy from one place.
+export { deleteContact, listContacts, putContact, type ContactView } from './contacts';
 
 /**
  * Default unit colours, our own set: earthy hues that stay apart from each other and from the teal accent,
@@ -39,6 +44,8 @@ export interface UnitView {
 	property: Unit['property'];
 	/** One name per zone, west to east (by chainage); one entry, the unit's name, when it has no boundaries. */
 	zoneNames: string[];
+	/** The zone names as saved, which may be given before the boundaries that make the zones exist. */
+	savedZoneNames: string[];
 }
 
 export function unitView(u: Unit, boundaryCount: number): UnitView {
@@ -52,7 +59,8 @@ export function unitView(u: Unit, boundaryCount: number): UnitView {
 		nkt: u.nkt,
 		cfc: u.cfc,
 		property: u.property,
-		zoneNames: zoneNamesOf(u, boundaryCount)
+		zoneNames: zoneNamesOf(u, boundaryCount),
+		savedZoneNames: u.zoneNames ?? []
 	};
 }
 
@@ -69,8 +77,11 @@ export function getUnit(projectId: string, unitId: string, db: DbOrTx = getDb())
 	return u;
 }
 
-/** Adds a unit at `position` (default: at the bottom), shifting the units below it down; takes the next free default colour. */
-export function createUnit(projectId: string, input: UnitCreate, db: DbOrTx = getDb()): UnitView {
+/**
+ * Adds a unit at `position` (default: at the bottom), shifting the units below it down; takes the next free
+ * default colour. The API asks for the property (unitCreateSchema); code that leaves it out gets qc1Ncs.
+ */
+export function createUnit(projectId: string, input: Omit<UnitCreate, 'property'> & Partial<Pick<UnitCreate, 'property'>>, db: DbOrTx = getDb()): UnitView {
 	const existing = db.select().from(units).where(eq(units.projectId, projectId)).orderBy(asc(units.position)).all();
 	if (existing.some((u) => u.name.toLowerCase() === input.name.toLowerCase())) {
 		throw new ServiceError(409, `A unit named ${input.name} already exists.`);
@@ -120,82 +131,55 @@ export function deleteUnit(projectId: string, unitId: string, db: DbOrTx = getDb
 	});
 }
 
-export interface ContactView {
-	soundingId: string;
-	soundingName: string;
-	unitId: string;
-	topElevation: number;
-}
-
-/** Every contact of the project, by sounding name then stacking order. */
-export function listContacts(projectId: string, db: DbOrTx = getDb()): ContactView[] {
-	return db
-		.select({ soundingId: contacts.soundingId, soundingName: soundings.name, unitId: contacts.unitId, topElevation: contacts.topElevation })
-		.from(contacts)
-		.innerJoin(soundings, eq(soundings.id, contacts.soundingId))
-		.innerJoin(units, eq(units.id, contacts.unitId))
-		.where(eq(units.projectId, projectId))
-		.orderBy(asc(soundings.name), asc(units.position))
-		.all();
-}
-
-/**
- * Sets the top elevation of a unit at a sounding (creating or replacing the contact).
- * @throws ServiceError 404 for a sounding or unit outside the project, 422 for a top above the ground surface
- */
-export function putContact(projectId: string, input: ContactPut, db: DbOrTx = getDb()): ContactView {
-	const s = db
-		.select({ id: soundings.id, name: soundings.name, ground: soundings.groundElevation })
-		.from(soundings)
-		.where(and(eq(soundings.id, input.soundingId), eq(soundings.projectId, projectId)))
-		.get();
-	if (!s) throw new ServiceError(404, 'Sounding not found.');
-	getUnit(projectId, input.unitId, db);
-	// A millimetre of slack lets the top unit sit at a ground elevation typed with rounding.
-	if (input.topElevation > s.ground + 1e-3) {
-		throw new ServiceError(422, `The top elevation ${input.topElevation} lies above the ground surface of ${s.name} (${s.ground}).`);
-	}
-	db.insert(contacts)
-		.values(input)
-		.onConflictDoUpdate({ target: [contacts.soundingId, contacts.unitId], set: { topElevation: input.topElevation } })
-		.run();
-	return { soundingId: s.id, soundingName: s.name, unitId: input.unitId, topElevation: input.topElevation };
-}
-
-/** Removes a contact (the unit is then absent at that sounding). @throws ServiceError 404 when there is none */
-export function deleteContact(projectId: string, soundingId: string, unitId: string, db: DbOrTx = getDb()): void {
-	getUnit(projectId, unitId, db);
-	const r = db.delete(contacts).where(and(eq(contacts.soundingId, soundingId), eq(contacts.unitId, unitId))).run();
-	if (r.changes === 0) throw new ServiceError(404, 'Contact not found.');
-}
-
 /** A unit's top in the section: its stations at the soundings, and polylines between consecutive present ones. */
 export interface SectionContact {
 	unitId: string;
-	stations: { soundingId: string; chainage: number; topElevation: number | null }[];
+	/** Where the top comes from at each station (null where the unit is absent): see effectiveTops in $lib/site. */
+	stations: { soundingId: string; chainage: number; topElevation: number | null; source: ContactSource | null }[];
 	/** Runs of [chainage, elevation] between soundings where the unit is present, broken where it is absent. */
 	lines: [number, number][][];
 }
 
 /**
  * The contacts of every unit along the section, interpolated linearly along chainage between soundings
- * (contactLines). Soundings without a chainage are left out.
+ * (contactLines), the top unit starting at the ground surface where no top is stored for it (effectiveTops).
+ * Soundings without a chainage are left out.
  */
 export function sectionContacts(projectId: string, db: DbOrTx = getDb()): SectionContact[] {
 	const site = getSite(projectId, db);
+	const unitList = listUnits(projectId, db);
+	const unitIds = unitList.map((u) => u.id);
+	const stored = new Map<string, Map<string, StoredTop>>();
+	for (const c of listContacts(projectId, db)) {
+		if (!stored.has(c.soundingId)) stored.set(c.soundingId, new Map());
+		stored.get(c.soundingId)!.set(c.unitId, { top: c.topElevation, interpolated: c.interpolated });
+	}
 	const located = db
-		.select({ id: soundings.id, x: soundings.x, y: soundings.y, chainage: soundings.chainage })
+		.select({ id: soundings.id, x: soundings.x, y: soundings.y, chainage: soundings.chainage, ground: soundings.groundElevation })
 		.from(soundings)
 		.where(eq(soundings.projectId, projectId))
 		.all()
-		.map((s) => ({ id: s.id, chainage: locateSounding(site, s).chainage }))
-		.filter((s): s is { id: string; chainage: number } => s.chainage !== null)
+		.map((s) => ({ id: s.id, chainage: locateSounding(site, s).chainage, tops: effectiveTops(unitIds, stored.get(s.id) ?? new Map(), s.ground) }))
+		.filter((s): s is { id: string; chainage: number; tops: ReturnType<typeof effectiveTops> } => s.chainage !== null)
 		.sort((a, b) => a.chainage - b.chainage);
-	const tops = new Map<string, number>();
-	for (const c of listContacts(projectId, db)) tops.set(`${c.soundingId}|${c.unitId}`, c.topElevation);
-	return listUnits(projectId, db).map((u) => {
-		const stations = located.map((s) => ({ soundingId: s.id, chainage: s.chainage, topElevation: tops.get(`${s.id}|${u.id}`) ?? null }));
+	return unitList.map((u) => {
+		const stations = located.map((s) => {
+			const t = s.tops.get(u.id);
+			return { soundingId: s.id, chainage: s.chainage, topElevation: t?.top ?? null, source: t?.source ?? null };
+		});
 		return { unitId: u.id, stations, lines: contactLines(stations) };
+	});
+}
+
+/**
+ * Stores site settings (updateSite) and brings interpolated contacts up to date, since a new section line
+ * moves the soundings' chainages. All or nothing.
+ */
+export function changeSite(projectId: string, input: SiteUpdate, db: DbOrTx = getDb()): SiteView {
+	return inTransaction(db, (tx) => {
+		const site = updateSite(projectId, input, tx);
+		refreshInterpolatedContacts(projectId, tx);
+		return site;
 	});
 }
 
@@ -216,6 +200,8 @@ export interface SectionView {
 		value: (number | null)[];
 		/** Index into `units` per reading, −1 for none. */
 		unit: number[];
+		/** Its contacts follow its neighbours (none of its own). */
+		contactsInterpolated: boolean;
 	}[];
 	/** Names of soundings without a chainage (not drawn). */
 	unlocated: string[];
@@ -227,6 +213,7 @@ export interface SectionView {
 /** The section of a project: soundings as traces of a property at their chainage, contacts and zone boundaries. */
 export function sectionView(projectId: string, property: PropertyKey, db: DbOrTx = getDb()): SectionView {
 	const derived = deriveSoundings(projectId, undefined, db);
+	const following = new Map(listSoundings(projectId, db).map((s) => [s.id, s.contactsInterpolated]));
 	const info = PROPERTY_INFO[property];
 	const located = derived.filter((d) => d.sounding.chainage !== null).sort((a, b) => a.sounding.chainage! - b.sounding.chainage!);
 	return {
@@ -248,7 +235,8 @@ export function sectionView(projectId: string, property: PropertyKey, db: DbOrTx
 					const v = values ? values[i] : NaN;
 					return Number.isFinite(v) ? Number(v.toPrecision(5)) : null;
 				}),
-				unit: Array.from(d.unit)
+				unit: Array.from(d.unit),
+				contactsInterpolated: following.get(d.sounding.id) ?? false
 			};
 		}),
 		unlocated: derived.filter((d) => d.sounding.chainage === null).map((d) => d.sounding.name),

@@ -4,7 +4,8 @@ import { domainMembers, domains, units, zonations, type Domain, type Zonation } 
 import { ServiceError } from '$lib/server/errors';
 import type { DomainCreate, DomainUpdate, MemberInput, ZonationCreate, ZonationUpdate } from '$lib/schemas/stratigraphy';
 import { inTransaction, type DbOrTx } from '$lib/server/db/transaction';
-import { membersOverlap, WHOLE_UNIT } from '$lib/site';
+import { domainDefaults, membersOverlap, WHOLE_UNIT } from '$lib/site';
+import { getSite } from './site';
 import { listUnits, type UnitView } from './stratigraphy';
 
 export interface MemberView {
@@ -46,7 +47,7 @@ export function getZonation(projectId: string, zonationId: string, db: DbOrTx = 
 	return views([z], listUnits(projectId, db), db)[0];
 }
 
-/** Creates a zonation, optionally with its domains, in one transaction. */
+/** Creates a zonation, optionally with its domains (settings left out take the defaults, as createDomain), in one transaction. */
 export function createZonation(projectId: string, input: ZonationCreate, db: DbOrTx = getDb()): ZonationView {
 	const unitList = listUnits(projectId, db);
 	checkUniqueName(db, projectId, input.name);
@@ -56,7 +57,8 @@ export function createZonation(projectId: string, input: ZonationCreate, db: DbO
 	checkMembers(all, unitList, []);
 	const id = inTransaction(db, (tx) => {
 		const z = tx.insert(zonations).values({ projectId, name: input.name, description: input.description }).returning().get();
-		input.domains.forEach((d, k) => insertDomain(tx, z.id, d, k));
+		const lengthUnit = getSite(projectId, tx).lengthUnit;
+		input.domains.forEach((d, k) => insertDomain(tx, z.id, d, k, lengthUnit));
 		return z.id;
 	});
 	return getZonation(projectId, id, db);
@@ -93,14 +95,17 @@ export function getDomain(projectId: string, domainId: string, db: DbOrTx = getD
 	return { domain: z.domains.find((d) => d.id === domainId)!, zonation: { id: z.id, name: z.name } };
 }
 
-/** Adds a domain at the end of a zonation. */
+/**
+ * Adds a domain at the end of a zonation. Settings left out take the defaults of domainDefaults ($lib/site):
+ * samples averaged to 0.2 m (0.5 ft) cells, 40 m (130 ft) plan cells for declustering.
+ */
 export function createDomain(projectId: string, zonationId: string, input: DomainCreate, db: DbOrTx = getDb()): DomainView {
 	const z = getZonation(projectId, zonationId, db);
 	if (z.domains.some((d) => d.name.toLowerCase() === input.name.toLowerCase())) {
 		throw new ServiceError(409, `The zonation already has a domain named ${input.name}.`);
 	}
 	checkMembers(input.members ?? [], listUnits(projectId, db), z.domains);
-	const id = inTransaction(db, (tx) => insertDomain(tx, zonationId, input, z.domains.length));
+	const id = inTransaction(db, (tx) => insertDomain(tx, zonationId, input, z.domains.length, getSite(projectId, tx).lengthUnit));
 	return getDomain(projectId, id, db).domain;
 }
 
@@ -173,7 +178,10 @@ function dedupe(members: MemberInput[]): MemberInput[] {
 	});
 }
 
-function insertDomain(tx: DbOrTx, zonationId: string, d: DomainCreate, position: number): string {
+function insertDomain(tx: DbOrTx, zonationId: string, d: DomainCreate, position: number, lengthUnit: 'm' | 'ft'): string {
+	// Left out (undefined) takes the default; null asks for every reading or equal weights.
+	const defaults = domainDefaults(lengthUnit);
+	const cellHeight = d.cellHeight === undefined ? defaults.cellHeight : d.cellHeight;
 	const row = tx
 		.insert(domains)
 		.values({
@@ -181,9 +189,9 @@ function insertDomain(tx: DbOrTx, zonationId: string, d: DomainCreate, position:
 			name: d.name,
 			position,
 			property: d.property,
-			cellHeight: d.cellHeight ?? null,
-			averaging: d.averaging ?? 'none',
-			declusterCell: storedCell(d.declusterCell ?? null)
+			cellHeight,
+			averaging: d.averaging ?? (cellHeight === null ? 'none' : defaults.averaging),
+			declusterCell: storedCell(d.declusterCell === undefined ? defaults.declusterCell : d.declusterCell)
 		})
 		.returning()
 		.get();

@@ -224,5 +224,11 @@ export function importSummary(result: ImportResult): { text: string; notes: stri
 		const created = result.geology.unitsCreated;
 		parts.push(`Wrote ${plural(result.geology.contacts, 'contact')} from the GEOL log${created.length ? `; new units: ${created.join(', ')}` : ''}.`);
 	}
+	if (result.interpolatedContacts > 0) {
+		const n = result.interpolatedContacts;
+		parts.push(
+			`${plural(n, 'sounding')} without contacts of ${n === 1 ? 'its' : 'their'} own took contacts interpolated from ${n === 1 ? 'its' : 'their'} neighbours along chainage; review them on the Stratigraphy page.`
+		);
+	}
 	return { text: parts.join(' '), notes: stored.flatMap((s) => s.notes.map((n) => `${s.name}: ${n}`)) };
 }

@@ -3,7 +3,5 @@ export function figure(v: number | null | undefined, digits = 3): string {
 	return v === null || v === undefined || !Number.isFinite(v) ? '–' : Number(v.toPrecision(digits)).toString();
 }
 
-/** A date and time as "Dec 2, 2026, 3:04 PM" in the reader's locale. */
-export function dateTime(iso: string): string {
-	return new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
-}
+/** A date and time as the whole app writes them ("2 Dec 2026, 15:04"; $lib/dates). */
+export { formatDateTime as dateTime } from '$lib/dates';

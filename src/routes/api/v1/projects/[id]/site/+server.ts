@@ -2,7 +2,8 @@ import { json } from '@sveltejs/kit';
 import { endpoint, parseJson } from '$lib/server/api';
 import { requireProjectRole } from '$lib/server/auth/guard';
 import { CAPABILITIES } from '$lib/server/auth/roles';
-import { getSite, updateSite } from '$lib/server/services/site';
+import { getSite } from '$lib/server/services/site';
+import { changeSite } from '$lib/server/services/stratigraphy';
 import { siteUpdateSchema } from '$lib/schemas/stratigraphy';
 
 export const GET = endpoint((event) => {
@@ -13,5 +14,5 @@ export const GET = endpoint((event) => {
 export const PATCH = endpoint(async (event) => {
 	const { project } = requireProjectRole(event, event.params.id, CAPABILITIES.editData);
 	const input = await parseJson(event.request, siteUpdateSchema);
-	return json({ site: updateSite(project.id, input) });
+	return json({ site: changeSite(project.id, input) });
 });
