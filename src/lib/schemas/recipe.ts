@@ -35,6 +35,8 @@ const searchSchema = z.object({
 	maxSimulated: count('Max simulated nodes', 0, 64).default(DEFAULT_SEARCH.maxSimulated),
 	/** Null: no limit per sounding. */
 	maxPerSounding: count('Max per sounding', 1, 64).nullable().default(DEFAULT_SEARCH.maxPerSounding),
+	/** The order nodes are visited in: random, or coarse grids first (multiple-grid path; long ranges with a small search). */
+	path: z.enum(['random', 'multigrid'], { error: 'Choose a random or a multiple-grid path.' }).default('random'),
 	/** Semi-axes of the search ellipsoid; null: the model's ranges. */
 	radius: z
 		.object({ major: positive('The major radius'), minor: positive('The minor radius'), vertical: positive('The vertical radius') })

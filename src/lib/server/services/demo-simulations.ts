@@ -77,7 +77,7 @@ export function seedDemoRecipes(db: DbOrTx, projectId: string, userId: string): 
 						simulate: true,
 						variogramId: null,
 						kriging: 'simple',
-						search: { maxData: 16, maxSimulated: 16, maxPerSounding: 8, radius: null },
+						search: { maxData: 16, maxSimulated: 16, maxPerSounding: 8, path: 'random', radius: null },
 						tails: { zmin: null, zmax: null }
 					}))
 				},

@@ -67,7 +67,8 @@ export function projectStratigraphy(projectId: string, db: DbOrTx = getDb()): Gr
  * The engine's input for one simulated domain: its conditioning data (original units, with their sounding) and
  * declustering weights as the domain-samples service gives them, the saved variogram's model and transform,
  * the kriging type with its mean (0 in normal-score space; the declustered data mean when the values are
- * simulated without a transform), the search, and the tail bounds (null: the data's own extremes, the engine's
+ * simulated without a transform), the search (its path only when not the default random one, so recipes that do
+ * not use it keep their hash), and the tail bounds (null: the data's own extremes, the engine's
  * default). The one place a domain's input is built.
  */
 export function domainInput(samples: DomainSamples, variogram: VariogramView, setup: SimulatedDomainSetup): DomainInput {
@@ -84,7 +85,8 @@ export function domainInput(samples: DomainSamples, variogram: VariogramView, se
 			maxData: setup.search.maxData,
 			maxSimulated: setup.search.maxSimulated,
 			...(setup.search.maxPerSounding !== null ? { maxPerSounding: setup.search.maxPerSounding } : {}),
-			...(setup.search.radius !== null ? { radius: setup.search.radius } : {})
+			...(setup.search.radius !== null ? { radius: setup.search.radius } : {}),
+			...(setup.search.path === 'multigrid' ? { path: 'multigrid' as const } : {})
 		}
 	};
 	if (setup.tails.zmin !== null) input.zmin = setup.tails.zmin;

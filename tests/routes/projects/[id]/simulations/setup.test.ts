@@ -91,7 +91,7 @@ describe('RecipeSetupForm', () => {
 		form.rows[0].zmax = '120';
 		await form.create();
 		const body = recipeSetupSchema.parse(sent[0]);
-		expect(body.domains[0]).toMatchObject({ simulate: true, variogramId: null, search: { maxData: 16, maxSimulated: 16, maxPerSounding: null, radius: null }, tails: { zmin: null, zmax: 120 } });
+		expect(body.domains[0]).toMatchObject({ simulate: true, variogramId: null, search: { maxData: 16, maxSimulated: 16, maxPerSounding: null, path: 'random', radius: null }, tails: { zmin: null, zmax: 120 } });
 		expect(body.domains[1]).toEqual({ domainId: 'clay', simulate: false });
 		expect(body.grid).toEqual({ geometry: '2d', chainage: { from: 0, to: 100, cell: 0.25 }, elevation: { from: -7, to: 3, cell: 0.5 } });
 		// The API answered with a recipe that was already there (the same hash).

@@ -14,6 +14,7 @@ export interface DomainRow {
 	maxData: string;
 	maxSimulated: string;
 	maxPerSounding: string;
+	path: 'random' | 'multigrid';
 	radiusMajor: string;
 	radiusMinor: string;
 	radiusVertical: string;
@@ -197,6 +198,7 @@ export class RecipeSetupForm {
 					maxData: String(DEFAULT_SEARCH.maxData),
 					maxSimulated: String(DEFAULT_SEARCH.maxSimulated),
 					maxPerSounding: String(DEFAULT_SEARCH.maxPerSounding),
+					path: 'random',
 					radiusMajor: '',
 					radiusMinor: '',
 					radiusVertical: '',
@@ -236,6 +238,7 @@ export class RecipeSetupForm {
 			row.maxData = String(d.search.maxData);
 			row.maxSimulated = String(d.search.maxSimulated);
 			row.maxPerSounding = d.search.maxPerSounding === null ? '' : String(d.search.maxPerSounding);
+			row.path = d.search.path;
 			row.radiusMajor = d.search.radius ? String(d.search.radius.major) : '';
 			row.radiusMinor = d.search.radius ? String(d.search.radius.minor) : '';
 			row.radiusVertical = d.search.radius ? String(d.search.radius.vertical) : '';
@@ -268,6 +271,7 @@ export class RecipeSetupForm {
 								maxData: n(r.maxData),
 								maxSimulated: n(r.maxSimulated),
 								maxPerSounding: num(r.maxPerSounding),
+								path: r.path,
 								radius: r.radiusMajor || r.radiusMinor || r.radiusVertical ? { major: n(r.radiusMajor), minor: n(r.radiusMinor || r.radiusMajor), vertical: n(r.radiusVertical) } : null
 							},
 							tails: { zmin: num(r.zmin), zmax: num(r.zmax) }
