@@ -3,7 +3,7 @@ import { eq } from 'drizzle-orm';
 import { openDatabase, type Db } from '../../../src/lib/server/db';
 import { users } from '../../../src/lib/server/db/schema';
 import { soundings } from '../../../src/lib/server/db/site-schema';
-import { recipeSummaries } from '../../../src/lib/server/db/recipe-schema';
+import { recipeSummaries, recipes as recipesTable } from '../../../src/lib/server/db/recipe-schema';
 import { InvalidInput, ServiceError } from '../../../src/lib/server/errors';
 import { seedDemo } from '../../../src/lib/server/services/demo';
 import { domainSamples } from '../../../src/lib/server/services/domains';
@@ -237,6 +237,15 @@ describe('recipeRealization and recipeSummary (the server’s worker pool)', () 
 		expectSameBits(again.values, mean.values);
 		expect(Buffer.compare(rows().find((r) => r.stat === 'mean')!.values, bytes)).toBe(0);
 	}, 120_000);
+
+	it('a recipe of another engine version is a 409 that says to create it again, for realizations and new summaries', async () => {
+		const { recipe } = createRecipe(projectId, userId, setup({ name: 'Old engine', seed: 'old-engine' }), db);
+		const old = JSON.stringify({ ...JSON.parse(recipeDocument(projectId, recipe.id, db).text), engineVersion: 'conefield-sgs/0' });
+		db.update(recipesTable).set({ document: old }).where(eq(recipesTable.id, recipe.id)).run();
+		for (const attempt of [() => recipeRealization(projectId, recipe.id, 0, db), () => recipeSummary(projectId, recipe.id, 'mean', null, db)]) {
+			await expect(attempt()).rejects.toMatchObject({ status: 409, message: expect.stringMatching(/^This recipe was made by engine conefield-sgs\/0; .*Create it again as a new recipe/) });
+		}
+	});
 
 	it('deleteRecipe removes the recipe and its cached summaries', async () => {
 		const { recipe } = createRecipe(projectId, userId, setup({ name: 'Gone', seed: 'gone' }), db);

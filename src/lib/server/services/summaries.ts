@@ -5,6 +5,7 @@
  */
 import { and, eq } from 'drizzle-orm';
 import type { EnsembleStat } from '$lib/ensemble';
+import { ENGINE_VERSION, isCurrentEngine, type Recipe } from '$lib/geostat';
 import { getDb } from '$lib/server/db';
 import { fromFloat64Blob, toFloat64Blob } from '$lib/server/db/float64';
 import { recipeSummaries } from '$lib/server/db/recipe-schema';
@@ -42,8 +43,22 @@ export async function recipeRealization(projectId: string, recipeId: string, rea
 	if (!Number.isSafeInteger(realization) || realization < 0 || realization >= n) {
 		throw new ServiceError(404, `Realization ${realization} does not exist: the recipe has ${n} (0 … ${n - 1}).`);
 	}
+	checkEngine(recipe);
 	const values = keptRealization(hash, realization) ?? (await runRealizations(recipe, [realization])).get(realization)!;
 	return { hash, engineVersion: recipe.engineVersion, realization, values };
+}
+
+/**
+ * A recipe written by another engine version cannot be regenerated here with the same bits (the engine refuses
+ * it): a 409 that says what to do, rather than a failure deep in the worker pool.
+ */
+function checkEngine(recipe: Recipe): void {
+	if (!isCurrentEngine(recipe)) {
+		throw new ServiceError(
+			409,
+			`This recipe was made by engine ${recipe.engineVersion}; this server runs ${ENGINE_VERSION}, which would not give the same bits. Create it again as a new recipe to regenerate it.`
+		);
+	}
 }
 
 /** The cache key of a threshold: its shortest round-trip form, '' when the stat takes none. */
@@ -69,6 +84,7 @@ export async function recipeSummary(projectId: string, recipeId: string, stat: E
 		.where(and(eq(recipeSummaries.recipeHash, key.hash), eq(recipeSummaries.stat, key.stat), eq(recipeSummaries.threshold, key.threshold)))
 		.get();
 	if (cached) return { hash, stat, threshold: t, realizations: n, values: fromFloat64Blob(cached.values) };
+	checkEngine(recipe);
 	const id = `${key.hash}|${key.stat}|${key.threshold}`;
 	let job = computing.get(id);
 	if (!job) {

@@ -1,11 +1,13 @@
+import { formatDateTime } from '$lib/dates';
+
 /** A number to `digits` significant figures for tables and readouts ("–" for none, NaN or ±Infinity). */
 export function figure(v: number | null | undefined, digits = 4): string {
 	return v === null || v === undefined || !Number.isFinite(v) ? '–' : Number(v.toPrecision(digits)).toString();
 }
 
-/** A date and time as "Dec 2, 2026, 3:04 PM" in the reader's locale. */
+/** A date and time as the app writes them ($lib/dates): "2 Dec 2026, 15:04". */
 export function dateTime(iso: string): string {
-	return new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+	return formatDateTime(iso);
 }
 
 /** A duration as "12 s" or "3 min 20 s". */
