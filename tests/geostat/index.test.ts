@@ -19,9 +19,11 @@ const TOPICS: Record<string, string[]> = {
 		'totalSill',
 		'validateVariogramModel',
 		'experimentalVariogram',
+		'experimentalVariogramMap',
 		'fitVariogram',
 		'variogramMisfit'
 	],
+	'trend of the mean': ['fitLinearTrend', 'trendValue', 'trendResiduals', 'validateTrend'],
 	'linear algebra and kriging': ['choleskyFactor', 'choleskySolve', 'krige'],
 	'neighbour search': ['searchEllipsoid', 'normalisedCoordinates', 'BucketGrid', 'selectNearest', 'offsetTemplate'],
 	simulation: ['detectLattice', 'prepareSimulation', 'COINCIDENCE_TOLERANCE', 'simulate', 'simulatePrepared', 'realizationStream'],
@@ -29,6 +31,7 @@ const TOPICS: Record<string, string[]> = {
 		'sampleSchema',
 		'structureSchema',
 		'variogramModelSchema',
+		'trendSchema',
 		'transformSchema',
 		'domainInputSchema',
 		'simulationInputSchema',
@@ -43,7 +46,9 @@ const TOPICS: Record<string, string[]> = {
 		'sha256',
 		'recipeHash',
 		'ENGINE_VERSION',
+		'ENGINE_VERSIONS',
 		'isCurrentEngine',
+		'engineVersionOf',
 		'regenerate'
 	],
 	validation: ['dataReproduction', 'histogramReproduction', 'variogramReproduction']
@@ -71,6 +76,7 @@ describe('src/lib/geostat/index.ts', () => {
 			'Weighted statistics',
 			'Declustering',
 			'Variograms: models, experimental variograms, fitting',
+			'Trend of the mean',
 			'Linear algebra and kriging',
 			'Neighbour search',
 			'Sequential Gaussian simulation',

@@ -7,9 +7,11 @@ import {
 	recipeSchema,
 	targetsFromDefinition,
 	isCurrentEngine,
+	engineVersionOf,
 	regenerate,
 	simulate,
-	ENGINE_VERSION
+	ENGINE_VERSION,
+	ENGINE_VERSIONS
 } from '../../../src/lib/geostat/index';
 import type { SimulationInput, TargetDefinition } from '../../../src/lib/geostat/index';
 import { expectSameBits } from '../../asserts';
@@ -123,5 +125,28 @@ describe('regenerate(recipe, r)', () => {
 	it('regenerate refuses a recipe of another engine version', () => {
 		const r = createRecipe(input, grid);
 		expect(() => regenerate({ ...r, engineVersion: 'conefield-sgs/0' }, 0)).toThrow('recipe is from engine version conefield-sgs/0');
+	});
+});
+
+describe('engine versions', () => {
+	// A recipe as engine version 1 wrote it (before trends): the literal JSON of createRecipe then.
+	const v1 = () => ({ ...JSON.parse(JSON.stringify(createRecipe(input, grid))), engineVersion: 'conefield-sgs/1' });
+
+	it('ENGINE_VERSION is conefield-sgs/2, the newest of ENGINE_VERSIONS', () => {
+		expect(ENGINE_VERSION).toBe('conefield-sgs/2');
+		expect(ENGINE_VERSIONS.map((v) => v.version)).toEqual(['conefield-sgs/1', 'conefield-sgs/2']);
+	});
+
+	it('a version-1 recipe still parses, keeps its hash, and is recognised as version 1, not current', () => {
+		const old = v1();
+		const before = recipeHash(old);
+		const parsed = recipeSchema.parse(old);
+		expect('trend' in parsed.input.domains[0]).toBe(false);
+		expect(recipeHash(parsed)).toBe(before);
+		expect(isCurrentEngine(parsed)).toBe(false);
+		expect(engineVersionOf(parsed)).toEqual({ version: 'conefield-sgs/1', change: 'first engine', current: false });
+		expect(engineVersionOf(createRecipe(input, grid))?.current).toBe(true);
+		expect(engineVersionOf({ engineVersion: 'someone-else/7' })).toBeNull();
+		expect(() => regenerate(parsed, 0)).toThrow('recipe is from engine version conefield-sgs/1');
 	});
 });
