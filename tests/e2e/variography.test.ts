@@ -105,9 +105,9 @@ describe('variography (Chromium)', () => {
 		await page.getByTestId('auto-fit').click();
 		const summary = page.getByTestId('model-summary');
 		await summary.waitFor();
-		const fit = autoFit(node, { type: 'exponential', nugget: 'fit', minPairs: settings.minPairs, azimuth: 0 });
+		const fit = autoFit(node, { type: 'exponential', nugget: 'fit', minPairs: settings.minPairs, azimuth: 0, variance: node.variance });
 		expect(Number(await summary.getAttribute('data-range-vertical'))).toBe(fit.parameters.rangeVertical);
-		expect(Number(await summary.getAttribute('data-range-horizontal'))).toBe(fit.parameters.rangeHorizontal);
+		expect(Number(await summary.getAttribute('data-range-horizontal'))).toBe(fit.parameters.rangeMajor);
 		expect(Number(await summary.getAttribute('data-sill'))).toBe(fit.parameters.sill);
 		expect(Number(await summary.getAttribute('data-nugget'))).toBe(fit.parameters.nugget);
 		const misfit = modelMisfit(fit.model, node, settings.minPairs).total!.perBin;
@@ -126,7 +126,7 @@ describe('variography (Chromium)', () => {
 		await row.waitFor();
 		expect(await row.getAttribute('data-version')).toBe('1');
 		// The newest saved model is loaded into the workspace on reload.
-		expect(Number(await page.getByTestId('model-summary').getAttribute('data-range-horizontal'))).toBe(fit.parameters.rangeHorizontal);
+		expect(Number(await page.getByTestId('model-summary').getAttribute('data-range-horizontal'))).toBe(fit.parameters.rangeMajor);
 		const saved = (await (await api.json('GET', `/api/v1/projects/${projectId}/domains/${domain.id}/variograms`)).json()).variograms.find(
 			(v: { name: string }) => v.name === name
 		);

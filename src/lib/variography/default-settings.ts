@@ -8,7 +8,8 @@ import type { DomainSamplesData, VariogramSettings } from './types';
  * - horizontal lag: the median distance from each sounding to its nearest neighbour, rounded likewise;
  *   lags to half the largest sounding separation, at most 30; a vertical band of half the vertical lag
  *   or one reading spacing, whichever is larger (wider bands mix vertical separation into horizontal pairs);
- * - lag tolerance half the lag; bins with fewer than 30 pairs left out of fits (common practice).
+ * - lag tolerance half the lag; bins with fewer than 30 pairs left out of fits (common practice);
+ * - normal scores with the declustering weights and no trend.
  */
 export function defaultSettings(data: Pick<DomainSamplesData, 'samples' | 'lengthUnit'>): VariogramSettings {
 	const ft = data.lengthUnit === 'ft';
@@ -47,6 +48,7 @@ export function defaultSettings(data: Pick<DomainSamplesData, 'samples' | 'lengt
 	return {
 		transform: 'normal-score',
 		declustered: true,
+		trend: 'none',
 		vertical: { lag: vLag, nLags: Math.min(40, Math.max(5, Math.ceil((ft ? 10 : 3) / vLag))), lagTolerance: vLag / 2 },
 		horizontal: {
 			lag: hLag,

@@ -97,6 +97,7 @@ function inProcess(): VariographyEngine & { jobs: number } {
 		},
 		fit: async (...a: Parameters<VariographyEngine['fit']>) => variographyApi.fit(...a),
 		evaluate: async (...a: Parameters<VariographyEngine['evaluate']>) => variographyApi.evaluate(...a),
+		anisotropy: async (...a: Parameters<VariographyEngine['anisotropy']>) => variographyApi.anisotropy(...a),
 		terminate() {}
 	};
 	return engine;
@@ -145,7 +146,7 @@ describe('VariographyWorkspace', () => {
 			transform: 'none',
 			fit: { type: 'spherical', nugget: 0.5 }
 		};
-		const params = { type: 'spherical' as const, nugget: 0.5, sill: 60, rangeVertical: 0.6, rangeHorizontal: 30, azimuth: 0 };
+		const params = { type: 'spherical' as const, nugget: 0.5, sill: 60, rangeVertical: 0.6, rangeMajor: 30, rangeMinor: 30, azimuth: 0 };
 		const saved: VariogramView = {
 			id: 'v0', domainId: 'sand', name: 'Sand raw', version: 2, model: modelFromParameters(params), settings, misfit: null,
 			note: '', createdBy: null, createdAt: new Date(0).toISOString(), comments: 0
@@ -179,7 +180,7 @@ describe('VariographyWorkspace', () => {
 	it('autoFit() gives autoFit\'s parameters on the shown bins, and the misfit follows', async () => {
 		const { ws } = await opened();
 		await ws.autoFit();
-		const direct = autoFit(ws.result!, { type: 'exponential', nugget: 'fit', minPairs: ws.minPairs, azimuth: 0 });
+		const direct = autoFit(ws.result!, { type: 'exponential', nugget: 'fit', minPairs: ws.minPairs, azimuth: 0, variance: ws.result!.variance });
 		expect(ws.model.params).toEqual(direct.parameters);
 		expect(ws.notices.status).toMatch(/^Automatic fit done/);
 		await until(() => ws.model.evaluation !== null, 'the evaluation');
@@ -252,12 +253,12 @@ describe('VariographyWorkspace', () => {
 		await ws.autoFit();
 		ws.history.saveName = 'Sand';
 		await ws.save();
-		ws.model.setValue('rangeHorizontal', 99);
+		ws.model.setValue('rangeMajor', 99);
 		await ws.save();
 		const v1 = ws.history.versions.find((v) => v.version === 1)!;
 		await ws.history.restore(v1);
 		expect(ws.history.versions.map((v) => v.version)).toEqual([3, 2, 1]);
-		expect(ws.model.params!.rangeHorizontal).toBe(v1.model.structures[1].rangeMajor);
+		expect(ws.model.params!.rangeMajor).toBe(v1.model.structures[1].rangeMajor);
 		expect(ws.notices.status).toBe('Restored v1 as Sand v3.');
 		ws.destroy();
 	});
