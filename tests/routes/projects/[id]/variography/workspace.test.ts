@@ -12,7 +12,7 @@ import {
 	type SavedVariogramSettings
 } from '../../../../../src/lib/variography/index';
 import type { VariographyEngine } from '../../../../../src/routes/projects/[id]/variography/engine';
-import { VariographyWorkspace } from '../../../../../src/routes/projects/[id]/variography/workspace.svelte';
+import { analysedSpace, VariographyWorkspace } from '../../../../../src/routes/projects/[id]/variography/workspace.svelte';
 import { variographyApi } from '../../../../../workers/variography';
 import { handDomain } from '../../../../variography/fixture';
 
@@ -260,6 +260,48 @@ describe('VariographyWorkspace', () => {
 		expect(ws.history.versions.map((v) => v.version)).toEqual([3, 2, 1]);
 		expect(ws.model.params!.rangeMajor).toBe(v1.model.structures[1].rangeMajor);
 		expect(ws.notices.status).toBe('Restored v1 as Sand v3.');
+		ws.destroy();
+	});
+
+	it('a new analysed space (transform, weights, trend) drops the old model and fits again; nothing is drawn or saved across spaces', async () => {
+		const { ws, sent } = await opened();
+		await ws.autoFit();
+		const normal = ws.model.params!;
+		expect(normal.sill).toBe(ws.result!.variance);
+		expect(ws.modelMatches).toBe(true);
+		// The transform changes: the result of raw values arrives, the normal-score model is dropped and refitted.
+		ws.settings!.transform = 'none';
+		await ws.compute();
+		await until(() => !ws.model.fitting && ws.modelMatches, 'the refit');
+		expect(ws.result!.variance).toBeGreaterThan(10);
+		expect(ws.model.params!.sill).toBe(ws.result!.variance);
+		expect(ws.model.space).toBe(analysedSpace('sand', { transform: 'none', declustered: true, trend: 'none' }));
+		expect(ws.notices.status).toBe(
+			'The analysed values changed (normal scores, declustered, no trend → raw values, declustered, no trend): the old model was dropped and the automatic fit run on the new bins.'
+		);
+		// The trend changes likewise.
+		ws.settings!.trend = 'elevation';
+		await ws.compute();
+		await until(() => !ws.model.fitting && ws.modelMatches, 'the refit with a trend');
+		expect(ws.result!.trend).not.toBeNull();
+		expect(ws.notices.status).toMatch(/→ raw values, declustered, trend with elevation removed\)/);
+		// A model of another space is neither drawn nor saved.
+		ws.model.set(normal, analysedSpace('sand', { transform: 'normal-score', declustered: true, trend: 'none' }));
+		expect(ws.modelMatches).toBe(false);
+		expect(ws.curves).toBeNull();
+		await ws.save();
+		expect(sent).toHaveLength(0);
+		ws.destroy();
+	});
+
+	it('save() sends the settings of the bins shown, not settings edited since', async () => {
+		const { ws, sent } = await opened();
+		await ws.autoFit();
+		const shown = JSON.parse(ws.resultSettings);
+		ws.settings!.horizontal.lag *= 3;
+		ws.history.saveName = 'Sand';
+		await ws.save();
+		expect((sent[0] as { settings: unknown }).settings).toMatchObject(shown);
 		ws.destroy();
 	});
 });
