@@ -3,6 +3,8 @@ import * as site from '../../src/lib/site/index';
 
 // The site model's runtime exports, pinned: adding or removing one means editing this list.
 const EXPORTS = [
+	'DEFAULT_RULES',
+	'RULE_ORDER',
 	'WHOLE_UNIT',
 	'averageInWindows',
 	'boundaryChainageAt',
@@ -10,12 +12,14 @@ const EXPORTS = [
 	'contactLines',
 	'declusterWeights',
 	'domainStatistics',
+	'emptyRuleCounts',
 	'extractDomainSamples',
 	'interpolateAlongChainage',
 	'locateSounding',
 	'membersOverlap',
 	'polylineLength',
 	'projectOntoPolyline',
+	'readingRule',
 	'triangulatedSurface',
 	'weightedCdf',
 	'zoneNamesOf',

@@ -15,6 +15,7 @@ import type { VariographyEngine } from '../../../../../src/routes/projects/[id]/
 import { analysedSpace, VariographyWorkspace } from '../../../../../src/routes/projects/[id]/variography/workspace.svelte';
 import { variographyApi } from '../../../../../workers/variography';
 import { handDomain } from '../../../../variography/fixture';
+import { DEFAULT_RULES, emptyRuleCounts } from '../../../../../src/lib/site/index';
 
 const wait = (ms: number) => new Promise((r) => setTimeout(r, ms));
 async function until(check: () => boolean, what: string, ms = 10_000) {
@@ -29,13 +30,15 @@ function samplesOf(id: string, name: string, seed: string): DomainSamples {
 	const d = handDomain({ soundings: 6, readings: 120, seed });
 	return {
 		...d,
-		domain: { id, name, zonationId: 'z1', zonationName: 'By unit', property: 'qc1Ncs', cellHeight: null, averaging: 'none', declusterCell: null },
+		domain: { id, name, zonationId: 'z1', zonationName: 'By unit', property: 'qc1Ncs', cellHeight: null, averaging: 'none', declusterCell: null, rules: DEFAULT_RULES },
 		property: { key: 'qc1Ncs', label: 'qc1Ncs', unit: '–' },
 		geometry: '2d',
 		stats: { n: d.samples.value.length, mean: 0, sd: 0, p10: 0, p50: 0, p90: 0 },
 		soundings: [],
 		cdf: { value: [], p: [] },
-		warnings: []
+		warnings: [],
+		leftOut: [],
+		counts: { ...emptyRuleCounts(), readings: d.samples.value.length, kept: d.samples.value.length }
 	};
 }
 
