@@ -4,6 +4,9 @@ import type { Plateau, PlateauCheck } from './types';
 /** A plateau further than this share from the variance of what is analysed draws the warning. */
 export const PLATEAU_TOLERANCE = 0.2;
 
+/** A plateau resting on fewer pairs than this is called a rough figure in the warning. */
+const FEW_PAIRS = 300;
+
 /**
  * Compares each direction's experimental plateau with the variance of what is analysed — the sill a model
  * for sequential Gaussian simulation must have (1 for normal scores; Deutsch & Journel 1998, ch. V):
@@ -25,8 +28,9 @@ export function plateauCheck(
 	const say = (name: string, p: Plateau | null) => {
 		if (!p || Math.abs(p.ratio - 1) <= PLATEAU_TOLERANCE) return;
 		const pct = Math.round(Math.abs(p.ratio - 1) * 100);
+		const rough = p.pairs < FEW_PAIRS ? ` Only ${p.pairs} pairs in ${p.bins} bin${p.bins === 1 ? '' : 's'} carry this: a rough figure.` : '';
 		departures.push(
-			`The ${name} variogram levels off at ${fmt(p.gamma)}, ${pct} % ${p.ratio > 1 ? 'above' : 'below'} the variance of what is analysed (${fmt(variance)}), over ${fmt(p.from)}–${fmt(p.to)}.`
+			`The ${name} variogram levels off at ${fmt(p.gamma)}, ${pct} % ${p.ratio > 1 ? 'above' : 'below'} the variance of what is analysed (${fmt(variance)}), over ${fmt(p.from)}–${fmt(p.to)}.${rough}`
 		);
 	};
 	say('vertical', vertical);
@@ -47,7 +51,7 @@ function plateauOf(bins: LagBin[], variance: number, minPairs: number): Plateau 
 		s += b.pairs * b.gamma;
 	}
 	const gamma = s / n;
-	return { gamma, ratio: gamma / variance, bins: outer.length, from: outer[0].h, to: outer[outer.length - 1].h };
+	return { gamma, ratio: gamma / variance, bins: outer.length, pairs: n, from: outer[0].h, to: outer[outer.length - 1].h };
 }
 
 function advise(vertical: Plateau | null, horizontal: Plateau | null, minor: Plateau | null): string {

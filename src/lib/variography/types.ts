@@ -96,8 +96,9 @@ export interface Plateau {
 	/** The plateau γ̂ and its ratio to the variance of what is analysed. */
 	gamma: number;
 	ratio: number;
-	/** Usable bins (at least minPairs pairs) it averages, and the separations they span. */
+	/** Usable bins (at least minPairs pairs) it averages, their pairs, and the separations they span. */
 	bins: number;
+	pairs: number;
 	from: number;
 	to: number;
 }
