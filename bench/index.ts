@@ -11,7 +11,8 @@ export interface BenchCase {
 const MODULES: (() => Promise<{ default: BenchCase[] }>)[] = [
 	() => import('./variogram'),
 	() => import('./simulation'),
-	() => import('./soundings-storage')
+	() => import('./soundings-storage'),
+	() => import('./import-latency')
 ];
 
 const only = process.argv[2];

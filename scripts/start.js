@@ -1,7 +1,7 @@
 #!/usr/bin/env node
 // `npm start`: build when build/ is missing or older than any source, then serve build/index.js.
 // PORT (3000), HOST and ORIGIN are honoured; ORIGIN defaults to http://localhost:PORT because
-// adapter-node needs it to accept form posts.
+// adapter-node needs it to accept form posts. SEED_DEMO defaults to 1 here (and only here).
 import { spawnSync, spawn } from 'node:child_process';
 import { existsSync, readdirSync, statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
@@ -37,6 +37,8 @@ const env = {
 	...process.env,
 	PORT: port,
 	ORIGIN: process.env.ORIGIN ?? `http://localhost:${port}`,
+	// The local quick start seeds the demo accounts into an empty database; `node build/index.js` alone does not.
+	SEED_DEMO: process.env.SEED_DEMO ?? '1',
 	// CPT uploads reach 50 MB a file; endpoints enforce their own, smaller limits.
 	BODY_SIZE_LIMIT: process.env.BODY_SIZE_LIMIT ?? '210M'
 };

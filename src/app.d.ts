@@ -11,6 +11,8 @@ declare global {
 			user: { id: string; email: string; name: string | null; siteRole: SiteRole } | null;
 			/** How the user was identified. */
 			authVia: 'session' | 'token' | null;
+			/** The server-side session of a cookie-authenticated request (null for tokens and anonymous requests). */
+			sessionId: string | null;
 		}
 	}
 }

@@ -28,11 +28,18 @@ async function signIn(email: string, password: string): Promise<{ context: Brows
 	return { context, page };
 }
 
-/** The first link in the newest outbox message whose subject contains `subject`, read as the site admin. */
-async function linkFromOutbox(subject: string, pathPart: string): Promise<string> {
+/**
+ * The first link in the newest outbox message whose subject contains `subject` (and sent `to`, when given),
+ * read as the site admin; reloads the outbox until it arrives, as sign-in links are mailed after the response.
+ */
+async function linkFromOutbox(subject: string, pathPart: string, to?: string): Promise<string> {
 	const { context, page } = await signIn(DEMO.admin.email, DEMO.admin.password);
 	await page.goto('/admin/outbox');
-	await page.getByTestId('outbox-list').getByRole('link', { name: subject }).first().click();
+	const item = page.getByTestId('outbox-list').getByRole('link', { name: subject }).filter(to ? { hasText: `to ${to}` } : {}).first();
+	await expect
+		.poll(async () => (await item.count()) > 0 || (await page.reload(), false), { timeout: 10_000 })
+		.toBe(true);
+	await item.click();
 	await expect.poll(() => page.getByTestId('outbox-message').locator('h2').textContent()).toContain(subject);
 	const href = await page.getByTestId('outbox-message').locator(`a[href*="${pathPart}"]`).first().getAttribute('href');
 	await context.close();
@@ -111,7 +118,7 @@ describe('invite a colleague (Chromium)', () => {
 		await page.getByRole('button', { name: 'Send me a link' }).click();
 		await page.waitForURL('**/signin/check-email**');
 
-		const link = await linkFromOutbox('Your Conefield sign-in link', '/auth/callback/nodemailer');
+		const link = await linkFromOutbox('Your Conefield sign-in link', '/auth/callback/nodemailer', DEMO.viewer.email);
 		await page.goto(link);
 		await page.waitForURL('**/projects');
 		expect(await page.getByTestId('account-menu').textContent()).toContain('Vera Viewer');

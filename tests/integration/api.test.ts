@@ -209,7 +209,7 @@ describe('sign-in', () => {
 		expect((await signedInSession(baseUrl, DEMO.analyst.email, DEMO.analyst.password)).signedIn).toBe(true);
 	});
 
-	it('a disabled user loses access at the next request', async () => {
+	it('a disabled user loses access at the next request, and their sessions stay ended when re-enabled', async () => {
 		const admin = await signedInSession(baseUrl, DEMO.admin.email, DEMO.admin.password);
 		const email = 'to-disable@example.test';
 		const password = 'to-disable-password';
@@ -227,7 +227,8 @@ describe('sign-in', () => {
 		expect(again.signedIn).toBe(false);
 
 		await admin.form('/admin/users?/disable', { userId, disabled: 'false' });
-		expect((await member.json('GET', '/api/v1/projects')).status).toBe(200);
+		expect((await member.json('GET', '/api/v1/projects')).status).toBe(401);
+		expect((await signedInSession(baseUrl, email, password)).signedIn).toBe(true);
 	});
 
 	it('only site admins reach the admin pages (403 for a member)', async () => {
@@ -269,6 +270,7 @@ describe('password reset by an administrator', () => {
 		expect(old.signedIn).toBe(false);
 
 		const reused = await anon.form(link.pathname, { password: 'another-password-1', confirm: 'another-password-1' }, 'text/html');
-		expect(reused.status).toBe(404);
+		expect(reused.status).toBe(409);
+		expect(await reused.text()).toContain('already used');
 	});
 });

@@ -68,7 +68,8 @@ export default async function setup(project: TestProject) {
 			DATA_DIR: dataDir,
 			BODY_SIZE_LIMIT: process.env.BODY_SIZE_LIMIT ?? '210M',
 			SMTP_URL: '',
-			AUTH_SECRET: ''
+			AUTH_SECRET: '',
+			SEED_DEMO: '1'
 		},
 		stdio: ['ignore', 'pipe', 'pipe']
 	});

@@ -17,6 +17,7 @@ const EXPORTS = [
 	'interpolateAlongChainage',
 	'locateSounding',
 	'membersOverlap',
+	'planDistance',
 	'polylineLength',
 	'projectOntoPolyline',
 	'readingRule',

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { checkPolyline, polylineLength, projectOntoPolyline } from '../../src/lib/site/index';
+import { checkPolyline, planDistance, polylineLength, projectOntoPolyline } from '../../src/lib/site/index';
 import { L } from './fixtures';
 import { SECTION_LINE, scenarioSoundings } from '../../src/lib/server/scenario/levee';
-import { expectAbsClose } from '../asserts';
+import { expectAbsClose, expectRelClose } from '../asserts';
 
 describe('projectOntoPolyline(line, x, y)', () => {
 	it('projectOntoPolyline(line, x, y) gives chainage and a right-positive offset on the first segment', () => {
@@ -91,5 +91,30 @@ describe('polylineLength(line) and checkPolyline(line)', () => {
 		expect(() => checkPolyline([[1, 1], [1, 1]])).toThrow('two distinct points');
 		expect(() => checkPolyline([[0, 0], [1, NaN]])).toThrow('finite coordinates');
 		expect(() => checkPolyline('0,0;1,1' as never)).toThrow('list of points');
+	});
+});
+
+describe('planDistance(dx, dy)', () => {
+	it('planDistance(dx, dy) is √(dx² + dy²): exact on Pythagorean triples, symmetric in sign and order', () => {
+		expect(planDistance(3, 4)).toBe(5);
+		expect(planDistance(-4, 3)).toBe(5);
+		expect(planDistance(0, 0)).toBe(0);
+		expect(planDistance(0, -7)).toBe(7);
+	});
+
+	it('planDistance(dx, dy) neither overflows nor underflows where dx² would', () => {
+		// dx² = 1e320 overflows to Infinity and 1e-320 underflows; scaling by the larger keeps both finite.
+		expectRelClose(planDistance(3e160, 4e160), 5e160, 1e-15);
+		expectRelClose(planDistance(3e-170, 4e-170), 5e-170, 1e-15);
+	});
+
+	it('planDistance(dx, dy) passes NaN and Infinity through', () => {
+		expect(planDistance(NaN, 1)).toBeNaN();
+		expect(planDistance(Infinity, 1)).toBe(Infinity);
+	});
+
+	it('projectOntoPolyline(line, x, y) is total for a point at 1e160: a finite chainage along the line', () => {
+		const p = projectOntoPolyline(L, 0, 1e160);
+		expect(Number.isFinite(p.offset)).toBe(true);
 	});
 });

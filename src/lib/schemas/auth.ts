@@ -1,11 +1,12 @@
 import { z } from 'zod';
-import { email, newPassword } from './common';
+import { safeRedirectPath } from '$lib/redirect';
+import { displayName, email, newPassword } from './common';
 
-/** Only same-site paths, so a sign-in link cannot send the user elsewhere. */
+/** Only same-site paths, so a sign-in link cannot send the user elsewhere (see safeRedirectPath). */
 const localPath = z
 	.string()
 	.optional()
-	.transform((v) => (v && v.startsWith('/') && !v.startsWith('//') ? v : '/projects'));
+	.transform((v) => safeRedirectPath(v));
 
 export const signInSchema = z.object({
 	email,
@@ -30,7 +31,7 @@ export const resetPasswordSchema = z
 
 export const acceptInvitationSchema = z
 	.object({
-		name: z.string().trim().min(1, { error: 'Enter your name.' }).max(100),
+		name: displayName(100, { required: 'Enter your name.', tooLong: 'Use at most 100 characters.' }),
 		password: newPassword,
 		confirm: z.string()
 	})

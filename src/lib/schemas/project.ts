@@ -1,10 +1,7 @@
 import { z } from 'zod';
+import { displayName } from './common';
 
-export const projectName = z
-	.string({ error: 'Enter a project name.' })
-	.trim()
-	.min(1, { error: 'Enter a project name.' })
-	.max(120, { error: 'Use at most 120 characters.' });
+export const projectName = displayName(120, { required: 'Enter a project name.', tooLong: 'Use at most 120 characters.' });
 
 const description = z.string().trim().max(2000, { error: 'Use at most 2000 characters.' });
 const lengthUnit = z.enum(['m', 'ft'], { error: 'Choose metres (m) or feet (ft).' });

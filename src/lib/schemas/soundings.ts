@@ -1,9 +1,10 @@
 import { z } from 'zod';
 import { simulatedProperty } from './stratigraphy';
+import { displayName } from './common';
+import { coordinate, elevation, SOUNDING_NAME_MAX } from './bounds';
 
 const header = z.string().min(1, { error: 'Choose a column.' }).max(200);
-const finite = z.number().refine(Number.isFinite, { error: 'Enter a number.' });
-const columnOrValue = z.union([z.strictObject({ column: header }), z.strictObject({ value: finite })]);
+const columnOr = (value: z.ZodType<number>) => z.union([z.strictObject({ column: header }), z.strictObject({ value })]);
 
 /** Units a delimited file's columns may be in (the column-mapping step offers exactly these). */
 export const LENGTH_UNIT_CHOICES = ['m', 'ft'] as const;
@@ -13,7 +14,7 @@ export const STRESS_UNIT_CHOICES = ['MPa', 'kPa', 'tsf'] as const;
 export const delimitedMappingSchema = z.strictObject({
 	delimiter: z.enum([',', ';', '\t']).optional(),
 	id: header.optional(),
-	defaultId: z.string().trim().min(1).max(100).optional(),
+	defaultId: displayName(SOUNDING_NAME_MAX, { required: 'Enter a sounding name.', tooLong: `Use at most ${SOUNDING_NAME_MAX} characters for a sounding name.` }).optional(),
 	depth: header,
 	qc: header,
 	fs: header,
@@ -26,10 +27,10 @@ export const delimitedMappingSchema = z.strictObject({
 		u2: z.enum(STRESS_UNIT_CHOICES, { error: 'u2 is in MPa, kPa or tsf.' }).optional(),
 		coordinates: z.enum(LENGTH_UNIT_CHOICES).optional()
 	}),
-	x: columnOrValue.optional(),
-	y: columnOrValue.optional(),
-	chainage: columnOrValue.optional(),
-	groundElevation: columnOrValue.optional(),
+	x: columnOr(coordinate('The easting')).optional(),
+	y: columnOr(coordinate('The northing')).optional(),
+	chainage: columnOr(coordinate('The chainage')).optional(),
+	groundElevation: columnOr(elevation('The ground elevation')).optional(),
 	areaRatio: z
 		.union([
 			z.strictObject({ column: header }),
@@ -74,7 +75,7 @@ export const uploadOptionsSchema = z.strictObject({
 	mappings: z.record(z.string().max(260), delimitedMappingSchema).optional(),
 	defaults: z
 		.strictObject({
-			groundElevation: finite.optional(),
+			groundElevation: elevation('The ground elevation').optional(),
 			areaRatio: z.number().min(0).max(1).optional()
 		})
 		.optional()

@@ -1,15 +1,12 @@
 /** Request bodies of the site, stratigraphy, zonation and domain endpoints. */
 import { z } from 'zod';
 import { PROPERTY_KEYS, SIMULATED_PROPERTIES } from '$lib/properties';
+import { displayName } from './common';
+import { coordinate, COORDINATE_LIMIT, elevation } from './bounds';
 
 const finite = (label: string) => z.number({ error: `${label} must be a number.` }).refine(Number.isFinite, { error: `${label} must be finite.` });
 const positive = (label: string) => finite(label).refine((v) => v > 0, { error: `${label} must be greater than 0.` });
-const name = (label: string) =>
-	z
-		.string({ error: `Enter a ${label}.` })
-		.trim()
-		.min(1, { error: `Enter a ${label}.` })
-		.max(80, { error: `Use at most 80 characters for the ${label}.` });
+const name = (label: string) => displayName(80, { required: `Enter a ${label}.`, tooLong: `Use at most 80 characters for the ${label}.` });
 
 export const simulatedProperty = z.enum(SIMULATED_PROPERTIES, {
 	error: `Choose a property: ${SIMULATED_PROPERTIES.join(', ')}.`
@@ -23,14 +20,14 @@ export const colour = z
 	.regex(/^#[0-9a-fA-F]{6}$/, { error: 'Use a colour like #a07c4f.' })
 	.transform((c) => c.toLowerCase());
 
-const point = z.tuple([finite('Easting'), finite('Northing')]);
+const point = z.tuple([coordinate('Easting'), coordinate('Northing')]);
 
 export const siteUpdateSchema = z
 	.object({
 		geometry: z.enum(['2d', '3d'], { error: 'Choose 2d or 3d.' }),
 		sectionLine: z.array(point).min(2, { error: 'The section line needs at least two points.' }).max(200).nullable(),
-		offLineTolerance: positive('The off-line tolerance'),
-		groundwaterElevation: finite('The groundwater elevation').nullable()
+		offLineTolerance: positive('The off-line tolerance').refine((v) => v <= COORDINATE_LIMIT, { error: 'The off-line tolerance must be at most 100,000,000.' }),
+		groundwaterElevation: elevation('The groundwater elevation').nullable()
 	})
 	.partial()
 	.strict();
@@ -58,7 +55,7 @@ export const contactPutSchema = z
 	.object({
 		soundingId: z.string().min(1, { error: 'Choose a sounding.' }),
 		unitId: z.string().min(1, { error: 'Choose a unit.' }),
-		topElevation: finite('The top elevation')
+		topElevation: elevation('The top elevation')
 	})
 	.strict();
 
@@ -69,10 +66,10 @@ export const contactDeleteSchema = z
 export const zoneBoundarySchema = z
 	.object({
 		unitId: z.string().min(1, { error: 'Choose a unit.' }),
-		chainageTop: finite('The top chainage'),
-		elevationTop: finite('The top elevation'),
-		chainageBottom: finite('The bottom chainage'),
-		elevationBottom: finite('The bottom elevation')
+		chainageTop: coordinate('The top chainage'),
+		elevationTop: elevation('The top elevation'),
+		chainageBottom: coordinate('The bottom chainage'),
+		elevationBottom: elevation('The bottom elevation')
 	})
 	.strict()
 	.refine((b) => b.elevationTop > b.elevationBottom, {

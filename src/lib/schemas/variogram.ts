@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { transformSchema, variogramModelSchema as engineModelSchema, type VariogramModel } from '$lib/geostat';
 import { SIMULATED_PROPERTIES } from '$lib/properties';
 import type { SavedVariogramSettings } from '$lib/variography';
+import { displayName } from './common';
 
 const finite = z.number().refine(Number.isFinite, { error: 'Must be a finite number.' });
 const positive = finite.refine((v) => v > 0, { error: 'Must be greater than 0.' });
@@ -74,11 +75,7 @@ export function readVariogramSettings(stored: unknown): SavedVariogramSettings {
 	return variogramSettingsSchema.parse(legacy ? { ...s, transform: legacy } : stored);
 }
 
-export const variogramName = z
-	.string({ error: 'Give the variogram a name.' })
-	.trim()
-	.min(1, { error: 'Give the variogram a name.' })
-	.max(80, { error: 'Use at most 80 characters.' });
+export const variogramName = displayName(80, { required: 'Give the variogram a name.', tooLong: 'Use at most 80 characters.' });
 
 export const variogramSaveSchema = z.object({
 	name: variogramName,

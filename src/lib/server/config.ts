@@ -22,3 +22,18 @@ export function throttleSettings() {
 export function mailFrom(): string {
 	return process.env.MAIL_FROM ?? 'Conefield <no-reply@conefield.test>';
 }
+
+/**
+ * Whether to seed the demo accounts and project into an empty database. Off unless SEED_DEMO is 1/true/yes/on:
+ * `npm start` (the local quick start) and the test server switch it on; a bare `node build/index.js` does not,
+ * because the demo passwords are public.
+ */
+export function seedDemoEnabled(env: Record<string, string | undefined> = process.env): boolean {
+	return /^(1|true|yes|on)$/i.test(env.SEED_DEMO?.trim() ?? '');
+}
+
+/** The address of the first site administrator of a deployment (ADMIN_EMAIL), or null. */
+export function initialAdminEmail(env: Record<string, string | undefined> = process.env): string | null {
+	const value = env.ADMIN_EMAIL?.trim().toLowerCase();
+	return value ? value : null;
+}

@@ -2,7 +2,7 @@
 // database. Every export is named here; tests/site/index.test.ts pins the list.
 
 // Section geometry: chainage and where a sounding lies.
-export { projectOntoPolyline, polylineLength, checkPolyline } from './project-onto-polyline';
+export { projectOntoPolyline, polylineLength, checkPolyline, planDistance } from './project-onto-polyline';
 export type { Polyline, Projection } from './project-onto-polyline';
 export { locateSounding } from './locate-sounding';
 export type { SoundingLocation } from './locate-sounding';

@@ -23,6 +23,8 @@ export function locateSounding(
 ): SoundingLocation {
 	if (site.sectionLine && site.sectionLine.length >= 2 && s.x != null && s.y != null) {
 		const p = projectOntoPolyline(site.sectionLine, s.x, s.y);
+		// Only coordinates beyond the entry points' bounds (stored before they were checked) get here.
+		if (!Number.isFinite(p.chainage) || !Number.isFinite(p.offset)) return { chainage: null, offset: null, farOffLine: true, source: 'none' };
 		return { chainage: p.chainage, offset: p.offset, farOffLine: Math.abs(p.offset) > site.offLineTolerance, source: 'projected' };
 	}
 	if (s.chainage != null) return { chainage: s.chainage, offset: null, farOffLine: false, source: 'given' };

@@ -16,7 +16,10 @@ export interface Projection {
  * chainage (distance along the line) and the signed offset. The first and last segments are extended
  * beyond the line's ends, so a point just before the start gets a negative chainage rather than being
  * pinned to 0 (common practice for stationing). On equal distances the earlier segment wins.
- * Zero-length segments are skipped.
+ * Zero-length segments are skipped. Total for finite input: lengths and distances are scaled before they
+ * are squared ({@link planDistance}), so a point at 1e160 does not overflow to Infinity, and the first
+ * segment stands in should every distance still be NaN; the result may then hold non-finite numbers, which
+ * `locateSounding` treats as not located.
  * @throws {RangeError} when the line has fewer than two distinct points or a coordinate is not finite
  */
 export function projectOntoPolyline(line: Polyline, x: number, y: number): Projection {
@@ -28,36 +31,35 @@ export function projectOntoPolyline(line: Polyline, x: number, y: number): Proje
 		const [ax, ay] = line[i];
 		const dx = line[i + 1][0] - ax;
 		const dy = line[i + 1][1] - ay;
-		const len = Math.sqrt(dx * dx + dy * dy);
+		const len = planDistance(dx, dy);
 		if (len > 0) segments.push({ ax, ay, dx, dy, len, start, index: i });
 		start += len;
 	}
 	let best: Projection | undefined;
 	let bestDistance = Infinity;
 	segments.forEach((s, k) => {
-		let t = ((x - s.ax) * s.dx + (y - s.ay) * s.dy) / (s.len * s.len);
+		// t from unit vectors, so no product of two large lengths is formed.
+		let t = ((x - s.ax) / s.len) * (s.dx / s.len) + ((y - s.ay) / s.len) * (s.dy / s.len);
 		if (k > 0 && t < 0) t = 0;
 		if (k < segments.length - 1 && t > 1) t = 1;
 		const fx = s.ax + t * s.dx;
 		const fy = s.ay + t * s.dy;
-		const distance = Math.sqrt((x - fx) * (x - fx) + (y - fy) * (y - fy));
-		if (distance < bestDistance) {
+		const distance = planDistance(x - fx, y - fy);
+		if (best === undefined || distance < bestDistance) {
 			bestDistance = distance;
 			// The cross product of the direction with the point's vector is negative on the right.
-			const cross = s.dx * (y - s.ay) - s.dy * (x - s.ax);
+			const cross = (s.dx / s.len) * (y - s.ay) - (s.dy / s.len) * (x - s.ax);
 			best = { chainage: s.start + t * s.len, offset: cross > 0 ? -distance : distance, segment: s.index };
 		}
 	});
-	return best!;
+	return best as Projection;
 }
 
 /** Length of a polyline: the sum of its segments' lengths. */
 export function polylineLength(line: Polyline): number {
 	let total = 0;
 	for (let i = 0; i + 1 < line.length; i++) {
-		const dx = line[i + 1][0] - line[i][0];
-		const dy = line[i + 1][1] - line[i][1];
-		total += Math.sqrt(dx * dx + dy * dy);
+		total += planDistance(line[i + 1][0] - line[i][0], line[i + 1][1] - line[i][1]);
 	}
 	return total;
 }
@@ -74,4 +76,19 @@ export function checkPolyline(line: Polyline): void {
 		}
 	}
 	if (!(polylineLength(line) > 0)) throw new RangeError('the section line needs two distinct points');
+}
+
+/**
+ * √(dx² + dy²) without overflow or underflow: both offsets are scaled by the larger before squaring. Plain
+ * arithmetic and Math.sqrt only (unlike Math.hypot, whose bits are left to each JavaScript engine), so browser
+ * and server agree.
+ */
+export function planDistance(dx: number, dy: number): number {
+	const ax = Math.abs(dx);
+	const ay = Math.abs(dy);
+	const m = ax > ay ? ax : ay;
+	if (m === 0 || !Number.isFinite(m)) return m;
+	const u = ax / m;
+	const v = ay / m;
+	return m * Math.sqrt(u * u + v * v);
 }

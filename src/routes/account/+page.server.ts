@@ -1,5 +1,7 @@
+import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
 import { requireUser } from '$lib/server/auth/guard';
+import { listSessions, revokeOwnSession, revokeUserSessions } from '$lib/server/auth/sessions';
 import { attempt, parseForm } from '$lib/server/forms';
 import { changePassword } from '$lib/server/services/users';
 import { createApiToken, listApiTokens, revokeApiToken } from '$lib/server/services/tokens';
@@ -7,7 +9,11 @@ import { apiTokenCreateSchema, apiTokenRevokeSchema, changePasswordSchema, TOKEN
 
 export const load: PageServerLoad = (event) => {
 	const user = requireUser(event);
-	return { tokens: listApiTokens(user.id), lifetimes: TOKEN_LIFETIMES_DAYS };
+	return {
+		tokens: listApiTokens(user.id),
+		lifetimes: TOKEN_LIFETIMES_DAYS,
+		sessions: listSessions(user.id, event.locals.sessionId)
+	};
 };
 
 export const actions: Actions = {
@@ -15,7 +21,7 @@ export const actions: Actions = {
 		const user = requireUser(event);
 		const parsed = await parseForm(event.request, changePasswordSchema);
 		if (!parsed.ok) return parsed.failure;
-		const result = await attempt(() => changePassword(user.id, parsed.data.current, parsed.data.password));
+		const result = await attempt(() => changePassword(user.id, parsed.data.current, parsed.data.password, event.locals.sessionId));
 		return result.ok ? { passwordChanged: true } : result.failure;
 	},
 	createToken: async (event) => {
@@ -32,5 +38,16 @@ export const actions: Actions = {
 		if (!parsed.ok) return parsed.failure;
 		const result = await attempt(() => revokeApiToken(user.id, parsed.data.id));
 		return result.ok ? { revoked: parsed.data.id } : result.failure;
+	},
+	endSession: async (event) => {
+		const user = requireUser(event);
+		const parsed = await parseForm(event.request, z.object({ id: z.string().min(1) }));
+		if (!parsed.ok) return parsed.failure;
+		const result = await attempt(() => revokeOwnSession(user.id, parsed.data.id));
+		return result.ok ? { sessionsEnded: 1 } : result.failure;
+	},
+	endOtherSessions: async (event) => {
+		const user = requireUser(event);
+		return { sessionsEnded: revokeUserSessions(user.id, { except: event.locals.sessionId }) };
 	}
 };

@@ -1,11 +1,12 @@
 import { isRedirect, redirect } from '@sveltejs/kit';
-import { AuthError, CredentialsSignin } from '@auth/sveltekit';
+import { CredentialsSignin } from '@auth/sveltekit';
 import type { Actions, PageServerLoad } from './$types';
-import { signInWith } from '$lib/server/auth';
+import { requestSignInLink, signInWith } from '$lib/server/auth';
 import { checkThrottle, throttleMessage } from '$lib/server/auth/throttle';
 import { getDb } from '$lib/server/db';
 import { formFailure, parseForm } from '$lib/server/forms';
 import { magicLinkSchema, signInFormSchema } from '$lib/schemas';
+import { safeRedirectPath } from '$lib/redirect';
 
 /** Messages for the `error`/`code` query parameters Auth.js redirects with. */
 const AUTH_MESSAGES: Record<string, string> = {
@@ -17,8 +18,8 @@ const AUTH_MESSAGES: Record<string, string> = {
 };
 
 export const load: PageServerLoad = ({ locals, url }) => {
-	const redirectTo = url.searchParams.get('redirectTo') ?? '/projects';
-	if (locals.user) redirect(303, redirectTo.startsWith('/') && !redirectTo.startsWith('//') ? redirectTo : '/projects');
+	const redirectTo = safeRedirectPath(url.searchParams.get('redirectTo'));
+	if (locals.user) redirect(303, redirectTo);
 	const key = url.searchParams.get('code') ?? url.searchParams.get('error');
 	return {
 		redirectTo,
@@ -44,17 +45,15 @@ export const actions: Actions = {
 			return formFailure(err.code === 'throttled' ? 429 : 400, message, { email });
 		}
 	},
+	/**
+	 * Mails a one-time sign-in link to an enabled account. Every address gets the same answer — 303 to the
+	 * check-your-mail page, no cookie — equally fast: the account is looked up and the link sent after the
+	 * response, so the form does not reveal who has an account.
+	 */
 	link: async (event) => {
 		const parsed = await parseForm(event.request, magicLinkSchema);
 		if (!parsed.ok) return parsed.failure;
-		const { email, redirectTo } = parsed.data;
-		try {
-			await signInWith(event, 'nodemailer', { email, redirectTo });
-		} catch (err) {
-			if (isRedirect(err)) throw err;
-			// Unknown or disabled addresses get the same answer, so the form does not reveal who has an account.
-			if (err instanceof AuthError && err.type === 'AccessDenied') redirect(303, '/signin/check-email');
-			throw err;
-		}
+		requestSignInLink(event, parsed.data.email, parsed.data.redirectTo);
+		redirect(303, '/signin/check-email');
 	}
 };

@@ -1,16 +1,19 @@
-import { SvelteKitAuth, CredentialsSignin, type SvelteKitAuthConfig } from '@auth/sveltekit';
+import { SvelteKitAuth, AuthError, CredentialsSignin, type SvelteKitAuthConfig } from '@auth/sveltekit';
 import Credentials from '@auth/sveltekit/providers/credentials';
 import Nodemailer from '@auth/sveltekit/providers/nodemailer';
 import { DrizzleAdapter } from '@auth/drizzle-adapter';
-import type { RequestEvent } from '@sveltejs/kit';
-import { eq } from 'drizzle-orm';
+import { isRedirect, type RequestEvent } from '@sveltejs/kit';
+import { and, eq } from 'drizzle-orm';
 import { getDb } from '$lib/server/db';
 import { accounts, sessions, users, verificationTokens, type SiteRole } from '$lib/server/db/schema';
 import { actionMail, sendMail } from '$lib/server/mail';
+import { inBackground } from '$lib/server/background';
+import { safeRedirectPath } from '$lib/redirect';
 import { signInSchema } from '$lib/schemas';
-import { clientAddress } from './context';
+import { clientAddress, clientUserAgent } from './context';
 import { dummyHash, verifyPassword } from './password';
 import { resolveAuthSecret } from './secret';
+import { checkSession, createSession, revokeSession, SESSION_IDLE_SECONDS } from './sessions';
 import { checkThrottle, recordAttempt } from './throttle';
 
 /** Raised by `authorize` so the sign-in page can say why; the code travels in the redirect URL. */
@@ -24,6 +27,8 @@ export class DisabledSignIn extends CredentialsSignin {
 declare module '@auth/sveltekit' {
 	interface Session {
 		user: { id: string; siteRole: SiteRole; email: string; name?: string | null };
+		/** The server-side session this JWT names (src/lib/server/auth/sessions.ts). */
+		sessionId: string;
 	}
 }
 
@@ -33,14 +38,25 @@ function config(): SvelteKitAuthConfig {
 		secret: resolveAuthSecret(),
 		trustHost: true,
 		basePath: '/auth',
-		// Credentials sign-in only works with JWT sessions.
-		session: { strategy: 'jwt', maxAge: 7 * 24 * 3600 },
-		adapter: DrizzleAdapter(db, {
-			usersTable: users,
-			accountsTable: accounts,
-			sessionsTable: sessions,
-			verificationTokensTable: verificationTokens
-		} as never), // our tables carry more columns than the adapter's declared defaults
+		// Credentials sign-in only works with JWT sessions; each JWT names a row of the sessions table.
+		session: { strategy: 'jwt', maxAge: SESSION_IDLE_SECONDS },
+		adapter: {
+			...DrizzleAdapter(db, {
+				usersTable: users,
+				accountsTable: accounts,
+				sessionsTable: sessions,
+				verificationTokensTable: verificationTokens
+			} as never), // our tables carry more columns than the adapter's declared defaults
+			// An e-mail sign-in link is claimed by one DELETE … RETURNING in a transaction: of concurrent uses, one wins.
+			useVerificationToken: async ({ identifier, token }) =>
+				db.transaction((tx) =>
+					tx
+						.delete(verificationTokens)
+						.where(and(eq(verificationTokens.identifier, identifier), eq(verificationTokens.token, token)))
+						.returning()
+						.get()
+				) ?? null
+		},
 		pages: { signIn: '/signin', error: '/signin', verifyRequest: '/signin/check-email' },
 		providers: [
 			Credentials({
@@ -75,23 +91,45 @@ function config(): SvelteKitAuthConfig {
 			})
 		],
 		callbacks: {
+			// Redirects after sign-in stay on this site, whatever `redirectTo` said.
+			redirect({ url, baseUrl }) {
+				const target = url.startsWith(baseUrl) ? url.slice(baseUrl.length) || '/' : url;
+				return `${baseUrl}${safeRedirectPath(target)}`;
+			},
 			// Only existing, enabled accounts may sign in by e-mail link; no self-registration.
 			async signIn({ user, account }) {
 				if (account?.type !== 'email') return true;
 				const row = user.email ? db.select().from(users).where(eq(users.email, user.email.toLowerCase())).get() : undefined;
 				return !!row && !row.disabled;
 			},
+			/**
+			 * At sign-in, opens a server-side session and writes its id into the JWT. On every later read
+			 * (each request, through `locals.auth()`), a JWT whose session was revoked or has expired — or
+			 * that names none, as JWTs from before sessions did — is refused: returning null clears the cookie.
+			 */
 			jwt({ token, user }) {
 				if (user) {
 					token.sub = user.id;
 					token.siteRole = (user as { siteRole?: SiteRole }).siteRole ?? 'member';
+					token.sid = createSession(user.id!, { userAgent: clientUserAgent(), address: clientAddress() });
+					return token;
 				}
+				const session = checkSession(token.sid as string | undefined);
+				if (!session || session.userId !== token.sub) return null;
 				return token;
 			},
 			session({ session, token }) {
 				session.user.id = token.sub ?? '';
 				session.user.siteRole = (token.siteRole as SiteRole | undefined) ?? 'member';
+				session.sessionId = (token.sid as string | undefined) ?? '';
 				return session;
+			}
+		},
+		events: {
+			// Sign-out ends the server-side session, so a copy of the cookie stops working too.
+			signOut(message) {
+				const sid = 'token' in message ? message.token?.sid : undefined;
+				if (typeof sid === 'string') revokeSession(sid);
 			}
 		},
 		logger: {
@@ -133,6 +171,26 @@ export async function signInWith(
 	headers.delete('content-length');
 	const request = new Request(event.request.url, { method: 'POST', headers, body });
 	await auth.signIn({ request, url: event.url, cookies: event.cookies } as unknown as RequestEvent);
+}
+
+/**
+ * Asks Auth.js for an e-mail sign-in link after the response has gone: it mails one to an enabled account and
+ * refuses any other address, and neither the answer nor its timing may tell which happened.
+ */
+export function requestSignInLink(event: RequestEvent, email: string, redirectTo: string): void {
+	const headers = new Headers(event.request.headers);
+	headers.delete('content-type');
+	headers.delete('content-length');
+	const detached = { request: new Request(event.request.url, { method: 'POST', headers }), url: new URL(event.url), cookies: { set() {}, delete() {} } };
+	inBackground('sign-in link', async () => {
+		try {
+			await signInWith(detached as unknown as RequestEvent, 'nodemailer', { email, redirectTo });
+		} catch (err) {
+			// Auth.js answers a known address with a redirect and refuses an unknown or disabled one (AccessDenied).
+			if (isRedirect(err) || (err instanceof AuthError && err.type === 'AccessDenied')) return;
+			throw err;
+		}
+	});
 }
 
 export async function signOutFrom(event: RequestEvent, redirectTo = '/signin'): Promise<void> {

@@ -52,14 +52,29 @@ export const accounts = sqliteTable(
 	(t) => [primaryKey({ columns: [t.provider, t.providerAccountId] })]
 );
 
-/** Required by the Auth.js adapter; sessions are JWTs, so this stays empty. */
-export const sessions = sqliteTable('sessions', {
-	sessionToken: text('session_token').primaryKey(),
-	userId: text('user_id')
-		.notNull()
-		.references(() => users.id, { onDelete: 'cascade' }),
-	expires: timestamp('expires').notNull()
-});
+/**
+ * Signed-in sessions. Auth.js keeps its JWT strategy (the Credentials provider needs it), and every JWT names
+ * one of these rows by `session_token`; a request is signed in only while its row is neither revoked nor
+ * expired, so signing out, a password change or reset, disabling and "end other sessions" take effect at the
+ * next request. The first three columns are the Auth.js adapter's (unused under JWT sessions).
+ */
+export const sessions = sqliteTable(
+	'sessions',
+	{
+		sessionToken: text('session_token').primaryKey(),
+		userId: text('user_id')
+			.notNull()
+			.references(() => users.id, { onDelete: 'cascade' }),
+		/** End of the session: the last activity plus the idle limit, never past the absolute limit. */
+		expires: timestamp('expires').notNull(),
+		createdAt: timestamp('created_at').notNull().default(now),
+		lastSeenAt: timestamp('last_seen_at').notNull().default(now),
+		userAgent: text('user_agent'),
+		address: text('address'),
+		revokedAt: timestamp('revoked_at')
+	},
+	(t) => [index('sessions_user_idx').on(t.userId)]
+);
 
 /** Magic-link tokens (Auth.js stores them hashed). */
 export const verificationTokens = sqliteTable(

@@ -239,12 +239,12 @@ export function jsonColumn(values: ArrayLike<number>): (number | null)[] {
 	return out;
 }
 
-/** The derived arrays of a result as plain JSON columns (NaN → null), keyed as in DerivedSounding. */
-export function derivedJson(result: DerivedSoundingResult): Record<string, (number | null)[]> {
+/** The derived arrays of a result as plain JSON columns (NaN → null), keyed as in DerivedSounding; readings start … end. */
+export function derivedJson(result: DerivedSoundingResult, start = 0, end = result.depth.length): Record<string, (number | null)[]> {
 	const out: Record<string, (number | null)[]> = {};
 	for (const [key, values] of Object.entries(result.derived)) {
 		if (key === 'unit' || key === 'flags') continue;
-		out[key] = jsonColumn(values as Float64Array);
+		out[key] = jsonColumn((values as Float64Array).subarray(start, end));
 	}
 	return out;
 }

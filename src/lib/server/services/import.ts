@@ -1,19 +1,5 @@
-import { createHash } from 'node:crypto';
 import { and, count, eq, inArray } from 'drizzle-orm';
-import {
-	CptParseError,
-	DEFAULT_AREA_RATIO,
-	decodeCptText,
-	detectFormat,
-	parseAgs4,
-	parseDelimited,
-	parseAgs4Geology,
-	parseGef,
-	previewDelimited,
-	type DelimitedMapping,
-	type DelimitedPreview,
-	type ParsedSounding
-} from '$lib/cpt';
+import { DEFAULT_AREA_RATIO, decodeCptText, previewDelimited, type DelimitedPreview, type ParsedSounding } from '$lib/cpt';
 import { getDb } from '$lib/server/db';
 import { toFloat64Blob } from '$lib/server/db/float64';
 import { soundings, sourceFiles, units, type SourceFormat } from '$lib/server/db/site-schema';
@@ -21,26 +7,12 @@ import { ServiceError, type ErrorStatus } from '$lib/server/errors';
 import type { DbOrTx } from '$lib/server/db/transaction';
 import { geologyOffer, writeGeologyContacts, type GeologyOffer, type GeologyRequest, type GeologySource, type WrittenSounding } from './import-geology';
 import { planSoundings, type ClashResolution, type PlannedSounding } from './import-plan';
+import { mappingFor, maxFinite, parseUpload, problemOf, type FileProblem, type ParsedUpload, type ParseRequest, type UploadedFile } from './import-parse';
 
-/** One uploaded file: its name as the user's computer gave it, and its bytes. */
-export interface UploadedFile {
-	name: string;
-	bytes: Uint8Array;
-}
+export { sha256Hex, type FileProblem, type SoundingDefaults, type UploadedFile } from './import-parse';
 
-/** Fallbacks for GEF and AGS4 files that do not state them (delimited text takes them from its mapping). */
-export interface SoundingDefaults {
-	groundElevation?: number;
-	areaRatio?: number;
-}
-
-export interface ImportRequest {
-	files: UploadedFile[];
-	/** Column mapping for every delimited-text file of the upload … */
-	mapping?: DelimitedMapping;
-	/** … or one per file name, which takes precedence. */
-	mappings?: Record<string, DelimitedMapping>;
-	defaults?: SoundingDefaults;
+/** An upload: the files with their mapping and defaults (see ParseRequest), and what to do about clashes and GEOL logs. */
+export interface ImportRequest extends ParseRequest {
 	/** What to do with each sounding whose name is taken (see planSoundings); without one a clash refuses the upload. */
 	clashes?: ClashResolution[];
 	/** Write contacts from the AGS4 GEOL groups of the upload, mapping each key to a unit. */
@@ -57,18 +29,9 @@ export interface UploadPlan {
 	geology: GeologyOffer | null;
 }
 
-/** Why one file was refused; `line` is 1-based, `column` as the file names it. */
-export interface FileProblem {
-	file: string;
-	code: string;
-	message: string;
-	line?: number;
-	column?: string;
-}
-
 /**
  * An upload refused as a whole: nothing from it is stored. The status is the most fundamental problem
- * among the files: 413 when a file is too large, else 422 for unreadable content, else 409 for files or
+ * among the files: 413 when a file or a sounding is too large, else 422 for unreadable content, else 409 for files or
  * soundings already in the project.
  */
 export class ImportRejected extends ServiceError {
@@ -100,10 +63,6 @@ export interface ImportResult {
 	geology?: { contacts: number; unitsCreated: string[] };
 }
 
-export function sha256Hex(bytes: Uint8Array): string {
-	return createHash('sha256').update(bytes).digest('hex');
-}
-
 /**
  * The column-mapping step's view of a delimited file: header, first rows and a guessed mapping.
  * @throws ImportRejected (413 or 422) naming the file, line and column when the text cannot be previewed.
@@ -125,6 +84,13 @@ interface Prepared {
 	geology: GeologySource;
 }
 
+/** Parses in the import worker (uploads); the demo seed and tests parse in their own thread. */
+const offThread = async (request: ParseRequest): Promise<ParsedUpload> => {
+	// Loaded on first use, so scripts that run this module under tsx (no Vite plugins) can import it.
+	const { parseUploadOffThread } = await import('./import-thread');
+	return parseUploadOffThread(request);
+};
+
 /**
  * Imports an upload of one or more files (CSV/TSV with a column mapping, GEF, AGS4) into a project,
  * all or nothing: every file is parsed and checked first, and only when all pass are the files (original
@@ -135,7 +101,20 @@ interface Prepared {
  * @throws ImportRejected listing every refused file with its line and column (with the plan for a 409).
  */
 export function importSoundings(projectId: string, userId: string | null, request: ImportRequest, db: DbOrTx = getDb()): ImportResult {
-	const prepared = prepareAll(request);
+	return commitImport(projectId, userId, request, preparedOf(request, parseUpload(checkFiles(request))), db);
+}
+
+/**
+ * {@link importSoundings} with the parsing (decoding, parsing, checking, hashing: nearly all of an import's
+ * time) in a worker thread, so the server keeps answering other requests during a large upload. Only the
+ * plan and the one transaction run on the request's thread.
+ */
+export async function importSoundingsOffThread(projectId: string, userId: string | null, request: ImportRequest, db: DbOrTx = getDb()): Promise<ImportResult> {
+	const parsed = await offThread(checkFiles(request));
+	return commitImport(projectId, userId, request, preparedOf(request, parsed), db);
+}
+
+function commitImport(projectId: string, userId: string | null, request: ImportRequest, prepared: Prepared[], db: DbOrTx): ImportResult {
 	return db.transaction((tx) => {
 		const plan = planOf(projectId, prepared, request, tx);
 		if (plan.problems.length > 0 || plan.unresolved > 0) throw rejection([...plan.problems, ...clashProblems(plan)], request.files.length, plan);
@@ -153,22 +132,24 @@ export function importSoundings(projectId: string, userId: string | null, reques
  * @throws ImportRejected (413 or 422) when a file cannot be read.
  */
 export function planImport(projectId: string, request: ImportRequest, db: DbOrTx = getDb()): UploadPlan {
-	return planOf(projectId, prepareAll(request, true), request, db);
+	return planOf(projectId, preparedOf(request, parseUpload(checkFiles(request)), true), request, db);
 }
 
-function prepareAll(request: ImportRequest, checking = false): Prepared[] {
+/** {@link planImport} with the parsing in the import worker, as uploads are checked. */
+export async function planImportOffThread(projectId: string, request: ImportRequest, db: DbOrTx = getDb()): Promise<UploadPlan> {
+	const parsed = await offThread(checkFiles(request));
+	return planOf(projectId, preparedOf(request, parsed, true), request, db);
+}
+
+function checkFiles<R extends ParseRequest>(request: R): R {
 	if (request.files.length === 0) throw new ImportRejected(422, 'Choose at least one file to import.', []);
-	const problems: FileProblem[] = [];
-	const prepared: Prepared[] = [];
-	for (const file of request.files) {
-		try {
-			prepared.push(prepare(file, request));
-		} catch (err) {
-			problems.push(problemOf(file.name, err));
-		}
-	}
+	return request;
+}
+
+/** The parsed files with their uploads; every problem refuses the upload as a whole. */
+function preparedOf(request: ImportRequest, { parsed, problems }: ParsedUpload, checking = false): Prepared[] {
 	if (problems.length > 0) throw rejection(problems, request.files.length, undefined, checking);
-	return prepared;
+	return parsed.map(({ index, geology, ...p }) => ({ file: request.files[index], ...p, geology: { file: request.files[index].name, ...geology } }));
 }
 
 function planOf(projectId: string, prepared: Prepared[], request: ImportRequest, db: DbOrTx): UploadPlan {
@@ -238,55 +219,7 @@ function writeImport(projectId: string, userId: string | null, prepared: Prepare
 	return result;
 }
 
-function prepare(file: UploadedFile, request: ImportRequest): Prepared {
-	const text = decodeCptText(file.bytes, file.name);
-	const format = detectFormat(text, file.name);
-	let parsed: ParsedSounding[];
-	if (format === 'gef') parsed = parseGef(text, { file: file.name });
-	else if (format === 'ags4') parsed = parseAgs4(text, { file: file.name });
-	else {
-		const mapping = mappingFor(file, request);
-		if (!mapping) {
-			throw new CptParseError({ code: 'missing-column', file: file.name, detail: 'delimited text needs a column mapping' });
-		}
-		parsed = parseDelimited(text, mapping, { file: file.name });
-	}
-	const defaults = request.defaults ?? {};
-	for (const s of parsed) {
-		if (s.groundElevation === undefined || !Number.isFinite(s.groundElevation)) {
-			if (defaults.groundElevation === undefined) {
-				throw new CptParseError({
-					code: 'missing-value',
-					file: file.name,
-					column: format === 'gef' ? 'ZID' : format === 'ags4' ? 'LOCA_GL' : 'ground elevation',
-					detail: `sounding ${s.id} has no ground elevation; enter one in the upload form`
-				});
-			}
-			s.groundElevation = defaults.groundElevation;
-		}
-		if (s.areaRatio === undefined && defaults.areaRatio !== undefined) s.areaRatio = defaults.areaRatio;
-		if (s.depth.length === 0) {
-			throw new CptParseError({ code: 'malformed', file: file.name, detail: `sounding ${s.id} has no readings` });
-		}
-		if (!Number.isFinite(maxFinite(s.qc))) {
-			throw new CptParseError({ code: 'missing-value', file: file.name, column: 'qc', detail: `sounding ${s.id} has no qc readings` });
-		}
-	}
-	const geology: GeologySource = { file: file.name, layers: [] };
-	if (format === 'ags4') {
-		try {
-			geology.layers = parseAgs4Geology(text, { file: file.name });
-		} catch (err) {
-			if (!(err instanceof CptParseError)) throw err;
-			geology.error = err.message;
-		}
-	}
-	return { file, format, sha256: sha256Hex(file.bytes), soundings: parsed, geology };
-}
 
-function mappingFor(file: UploadedFile, request: ImportRequest): DelimitedMapping | undefined {
-	return request.mappings?.[file.name] ?? request.mapping;
-}
 
 /** Files already imported into the project, and the same bytes twice in the upload. */
 function alreadyImported(projectId: string, prepared: Prepared[], db: DbOrTx): FileProblem[] {
@@ -320,7 +253,7 @@ function alreadyImported(projectId: string, prepared: Prepared[], db: DbOrTx): F
 
 function rejection(problems: FileProblem[], fileCount: number, plan?: UploadPlan, checking = false): ImportRejected {
 	const codes = new Set(problems.map((p) => p.code));
-	const status: ErrorStatus = codes.has('file-too-large')
+	const status: ErrorStatus = codes.has('file-too-large') || codes.has('too-many-readings')
 		? 413
 		: problems.some((p) => p.code !== 'already-imported' && p.code !== 'sounding-exists')
 			? 422
@@ -334,14 +267,6 @@ function rejection(problems: FileProblem[], fileCount: number, plan?: UploadPlan
 	return new ImportRejected(status, message, problems, plan);
 }
 
-function problemOf(file: string, err: unknown): FileProblem {
-	if (err instanceof CptParseError) {
-		return { file, code: err.code, message: err.message, ...(err.line !== undefined ? { line: err.line } : {}), ...(err.column !== undefined ? { column: err.column } : {}) };
-	}
-	// Parsers throw CptParseError for bad content; anything else is a bug, reported without internals.
-	console.error('[import]', file, err);
-	return { file, code: 'internal', message: `${file}: could not be read (an error on our side)` };
-}
 
 function soundingRow(projectId: string, sourceFileId: string, s: ParsedSounding, name: string): typeof soundings.$inferInsert {
 	const extras: Record<string, string> = {};
@@ -365,10 +290,4 @@ function soundingRow(projectId: string, sourceFileId: string, s: ParsedSounding,
 		u2: s.u2 ? toFloat64Blob(s.u2) : null,
 		extras: Object.keys(extras).length > 0 ? extras : null
 	};
-}
-
-function maxFinite(values: ArrayLike<number>): number {
-	let m = -Infinity;
-	for (let i = 0; i < values.length; i++) if (values[i] > m) m = values[i];
-	return m;
 }

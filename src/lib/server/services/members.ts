@@ -2,8 +2,10 @@ import { and, asc, count, eq, gt, isNull } from 'drizzle-orm';
 import { getDb } from '$lib/server/db';
 import { invitations, memberships, projects, users, type Project, type ProjectRole, type User } from '$lib/server/db/schema';
 import { generateToken, hashToken } from '$lib/server/auth/secrets';
+import { hashPassword } from '$lib/server/auth/password';
 import { actionMail, sendMail } from '$lib/server/mail';
 import { ServiceError } from '$lib/server/errors';
+import type { DbOrTx } from '$lib/server/db/transaction';
 
 const INVITATION_LIFETIME_MS = 7 * 24 * 3600 * 1000;
 
@@ -123,21 +125,85 @@ export function findInvitation(token: string): PendingInvitation | undefined {
 	return { id, email, role, project: { id: row.project.id, name: row.project.name } };
 }
 
-/** Makes the user a member with the invited role (keeping a higher role they already hold) and closes the invitation. */
+/**
+ * Claims an invitation for use: one conditional UPDATE (unused and unexpired) inside the caller's
+ * transaction, so of several concurrent requests exactly one gets it.
+ * @throws ServiceError 409 when the invitation was already used, 404 when it is unknown or expired.
+ */
+function claimInvitation(tx: DbOrTx, tokenHash: string, at: Date): typeof invitations.$inferSelect {
+	const claimed = tx
+		.update(invitations)
+		.set({ acceptedAt: at })
+		.where(and(eq(invitations.tokenHash, tokenHash), isNull(invitations.acceptedAt), gt(invitations.expiresAt, at)))
+		.returning()
+		.get();
+	if (claimed) return claimed;
+	const row = tx.select({ acceptedAt: invitations.acceptedAt }).from(invitations).where(eq(invitations.tokenHash, tokenHash)).get();
+	if (row?.acceptedAt) throw new ServiceError(409, 'This invitation was already used. Sign in to open the project.');
+	throw new ServiceError(404, 'This invitation has expired or was already used.');
+}
+
+/**
+ * Makes the signed-in user a member with the invited role (keeping a higher role they already hold) and
+ * closes the invitation, claiming it atomically first.
+ */
 export function acceptInvitation(token: string, user: { id: string; email: string }): PendingInvitation {
-	const invitation = findInvitation(token);
-	if (!invitation) throw new ServiceError(404, 'This invitation has expired or was already used.');
-	if (invitation.email !== user.email.toLowerCase()) {
-		throw new ServiceError(403, `This invitation is for ${invitation.email}. Sign in with that address to accept it.`);
+	const tokenHash = hashToken(token);
+	const row = getDb()
+		.select({ invitation: invitations, project: projects })
+		.from(invitations)
+		.innerJoin(projects, eq(projects.id, invitations.projectId))
+		.where(eq(invitations.tokenHash, tokenHash))
+		.get();
+	if (!row) throw new ServiceError(404, 'This invitation has expired or was already used.');
+	const { id, email, role } = row.invitation;
+	if (email !== user.email.toLowerCase()) {
+		throw new ServiceError(403, `This invitation is for ${email}. Sign in with that address to accept it.`);
 	}
 	getDb().transaction((tx) => {
-		tx.insert(memberships)
-			.values({ projectId: invitation.project.id, userId: user.id, role: invitation.role })
-			.onConflictDoNothing()
-			.run();
-		tx.update(invitations).set({ acceptedAt: new Date() }).where(eq(invitations.id, invitation.id)).run();
+		claimInvitation(tx, tokenHash, new Date());
+		tx.insert(memberships).values({ projectId: row.project.id, userId: user.id, role }).onConflictDoNothing().run();
 	});
-	return invitation;
+	return { id, email, role, project: { id: row.project.id, name: row.project.name } };
+}
+
+/**
+ * Someone new registers through an invitation: the invitation is claimed atomically before the password is
+ * hashed, so concurrent registrations from one link give one account and 409 for the others; then the
+ * account and the membership are written in one transaction. Should that fail, the claim is released.
+ * @throws ServiceError 404 unknown or expired, 409 already used or the address already has an account.
+ */
+export async function registerFromInvitation(token: string, input: { name: string; password: string }): Promise<{ user: User; invitation: PendingInvitation }> {
+	const db = getDb();
+	const claimedAt = new Date();
+	const claimed = db.transaction((tx) => {
+		const row = claimInvitation(tx, hashToken(token), claimedAt);
+		if (tx.select({ id: users.id }).from(users).where(eq(users.email, row.email)).get()) {
+			throw new ServiceError(409, 'An account with this e-mail address already exists. Sign in, then open the invitation again.');
+		}
+		return row;
+	});
+	const release = () =>
+		db.update(invitations).set({ acceptedAt: null }).where(and(eq(invitations.id, claimed.id), eq(invitations.acceptedAt, claimedAt))).run();
+	try {
+		const passwordHash = await hashPassword(input.password);
+		return db.transaction((tx) => {
+			const user = tx
+				.insert(users)
+				.values({ email: claimed.email, name: input.name, passwordHash, emailVerified: claimedAt })
+				.returning()
+				.get();
+			tx.insert(memberships).values({ projectId: claimed.projectId, userId: user.id, role: claimed.role }).run();
+			const project = tx.select({ id: projects.id, name: projects.name }).from(projects).where(eq(projects.id, claimed.projectId)).get()!;
+			return { user, invitation: { id: claimed.id, email: claimed.email, role: claimed.role, project } };
+		});
+	} catch (err) {
+		release();
+		if (err instanceof Error && /UNIQUE constraint failed: users\.email/.test(err.message)) {
+			throw new ServiceError(409, 'An account with this e-mail address already exists. Sign in, then open the invitation again.');
+		}
+		throw err;
+	}
 }
 
 function ownerCount(projectId: string): number {

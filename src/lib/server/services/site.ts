@@ -5,6 +5,7 @@ import { projects } from '$lib/server/db/schema';
 import { siteSettings } from '$lib/server/db/site-schema';
 import { ServiceError } from '$lib/server/errors';
 import { checkPolyline } from '$lib/site';
+import { COORDINATE_LIMIT } from '$lib/schemas/bounds';
 
 /** The site settings of a project as they leave the server (defaults filled in when none are stored). */
 export interface SiteView {
@@ -46,6 +47,9 @@ export function updateSite(projectId: string, input: SiteUpdate, db: DbOrTx = ge
 	if (input.sectionLine) {
 		try {
 			checkPolyline(input.sectionLine);
+			if (input.sectionLine.some((p) => Math.abs(p[0]) > COORDINATE_LIMIT || Math.abs(p[1]) > COORDINATE_LIMIT)) {
+				throw new RangeError('section line coordinates must lie within ±100,000,000');
+			}
 		} catch (err) {
 			throw new ServiceError(422, err instanceof Error ? `The section line is not valid: ${err.message}.` : 'The section line is not valid.');
 		}

@@ -3,7 +3,9 @@ import { getDb } from '$lib/server/db';
 import { fromFloat64Blob } from '$lib/server/db/float64';
 import { soundings, sourceFiles, type SourceFormat } from '$lib/server/db/site-schema';
 import { ServiceError } from '$lib/server/errors';
-import { derivedJson, deriveSounding, jsonColumn, type UnitAtSoundingView } from './derived';
+import { deriveSounding, jsonColumn, type UnitAtSoundingView } from './derived';
+import { READINGS_PER_SOUNDING_MAX } from '$lib/schemas/bounds';
+import { readingsPageJson, type ReadingsPage, type ReadingsPageView } from './sounding-readings';
 import type { DbOrTx } from '$lib/server/db/transaction';
 import { locateSounding } from '$lib/site';
 import { getSite, type SiteView } from './site';
@@ -140,6 +142,8 @@ export type JsonColumn = (number | null)[];
 export interface SoundingDetailView {
 	sounding: SoundingSummary;
 	groundwater: { elevation: number; source: 'sounding' | 'project' | 'assumed' };
+	/** Which readings the columns hold: `offset` … `offset + count` of `total`; `next` is the URL of the next page. */
+	readings: ReadingsPageView;
 	columns: { depth: JsonColumn; qc: JsonColumn; fs: JsonColumn; u2: JsonColumn | null; extras: Record<string, JsonColumn> };
 	/** The CPT pipeline's columns by name (qt, Ic, qc1Ncs, suRatio …; see DerivedSounding in $lib/cpt). */
 	derived: Record<string, JsonColumn>;
@@ -152,25 +156,24 @@ export interface SoundingDetailView {
 }
 
 /**
- * One sounding as the profile page reads it: getSounding's columns and deriveSounding's properties.
+ * One sounding as the profile page reads it: getSounding's columns and deriveSounding's properties, for the
+ * readings of one page (default: all, up to READINGS_PER_SOUNDING_MAX; see readingsPageSchema).
  * @throws ServiceError 404 when the sounding is not in the project.
  */
-export function soundingDetailView(projectId: string, soundingId: string, db: DbOrTx = getDb()): SoundingDetailView {
-	const { columns, ...sounding } = getSounding(projectId, soundingId, db);
-	const derived = deriveSounding(projectId, sounding.id, db);
+export function soundingDetailView(
+	projectId: string,
+	soundingId: string,
+	page: ReadingsPage = { offset: 0, limit: READINGS_PER_SOUNDING_MAX },
+	url?: URL,
+	db: DbOrTx = getDb()
+): SoundingDetailView {
+	const detail = getSounding(projectId, soundingId, db);
+	const derived = deriveSounding(projectId, detail.id, db);
+	const { columns: _columns, ...sounding } = detail;
 	return {
 		sounding,
 		groundwater: { elevation: derived.sounding.groundwaterElevation, source: derived.sounding.groundwaterSource },
-		columns: {
-			depth: jsonColumn(columns.depth),
-			qc: jsonColumn(columns.qc),
-			fs: jsonColumn(columns.fs),
-			u2: columns.u2 ? jsonColumn(columns.u2) : null,
-			extras: Object.fromEntries(Object.entries(columns.extras).map(([k, v]) => [k, jsonColumn(v)]))
-		},
-		derived: derivedJson(derived),
-		unit: Array.from(derived.unit),
-		flags: Array.from(derived.flags),
+		...readingsPageJson(detail, derived, page, url),
 		units: derived.units,
 		warnings: derived.warnings
 	};

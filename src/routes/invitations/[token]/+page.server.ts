@@ -2,9 +2,9 @@ import { redirect } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 import { signInWith } from '$lib/server/auth';
 import { requireUser } from '$lib/server/auth/guard';
-import { attempt, formFailure, parseForm } from '$lib/server/forms';
-import { acceptInvitation, findInvitation } from '$lib/server/services/members';
-import { createUser, findUserByEmail } from '$lib/server/services/users';
+import { attempt, parseForm } from '$lib/server/forms';
+import { acceptInvitation, findInvitation, registerFromInvitation } from '$lib/server/services/members';
+import { findUserByEmail } from '$lib/server/services/users';
 import { acceptInvitationSchema } from '$lib/schemas';
 
 export const load: PageServerLoad = ({ params, locals }) => {
@@ -27,17 +27,13 @@ export const actions: Actions = {
 	},
 	/** Someone new creates an account for the invited address (receiving the mail proves it), joins and is signed in. */
 	register: async (event) => {
-		const invitation = findInvitation(event.params.token);
-		if (!invitation) return formFailure(404, 'This invitation has expired or was already used.');
 		const parsed = await parseForm(event.request, acceptInvitationSchema);
 		if (!parsed.ok) return parsed.failure;
-		const created = await attempt(() =>
-			createUser({ email: invitation.email, name: parsed.data.name, password: parsed.data.password, emailVerified: true })
-		);
-		if (!created.ok) return created.failure;
-		acceptInvitation(event.params.token, created.value);
+		const result = await attempt(() => registerFromInvitation(event.params.token, parsed.data));
+		if (!result.ok) return result.failure;
+		const { user, invitation } = result.value;
 		await signInWith(event, 'credentials', {
-			email: invitation.email,
+			email: user.email,
 			password: parsed.data.password,
 			redirectTo: `/projects/${invitation.project.id}`
 		});

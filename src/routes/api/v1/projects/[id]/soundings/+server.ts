@@ -2,7 +2,7 @@ import { json } from '@sveltejs/kit';
 import { ApiError, endpoint } from '$lib/server/api';
 import { requireProjectRole } from '$lib/server/auth/guard';
 import { CAPABILITIES } from '$lib/server/auth/roles';
-import { ImportRejected, importSoundings, planImport } from '$lib/server/services/import';
+import { ImportRejected, importSoundingsOffThread, planImportOffThread } from '$lib/server/services/import';
 import { listSoundings } from '$lib/server/services/soundings';
 import { filesOf, jsonField, readMultipart, rejectedUploadResponse } from '$lib/server/upload';
 import { uploadOptionsSchema } from '$lib/schemas/soundings';
@@ -27,8 +27,8 @@ export const POST = endpoint(async (event) => {
 	const files = await filesOf(form, 'files');
 	const { dryRun, ...request } = parsed.data;
 	try {
-		if (dryRun) return json({ plan: planImport(project.id, { files, ...request }) });
-		return json(importSoundings(project.id, user.id, { files, ...request }), { status: 201 });
+		if (dryRun) return json({ plan: await planImportOffThread(project.id, { files, ...request }) });
+		return json(await importSoundingsOffThread(project.id, user.id, { files, ...request }), { status: 201 });
 	} catch (err) {
 		if (err instanceof ImportRejected) return rejectedUploadResponse(err);
 		throw err;

@@ -1,13 +1,19 @@
 import { json } from '@sveltejs/kit';
-import { endpoint } from '$lib/server/api';
+import { ApiError, endpoint } from '$lib/server/api';
 import { requireProjectRole } from '$lib/server/auth/guard';
 import { CAPABILITIES } from '$lib/server/auth/roles';
+import { readingsPageSchema } from '$lib/server/services/sounding-readings';
 import { deleteSounding, soundingDetailView } from '$lib/server/services/soundings';
 
-/** One sounding: its location and source, the measured columns (m, kPa) and the derived properties (null for NaN). */
+/**
+ * One sounding: its location and source, the measured columns (m, kPa) and the derived properties (null for
+ * NaN), for readings `offset` … `offset + limit` (default: all, up to 100 000; `readings.next` pages on).
+ */
 export const GET = endpoint((event) => {
 	const { project } = requireProjectRole(event, event.params.id, CAPABILITIES.read);
-	return json(soundingDetailView(project.id, event.params.sid ?? ''));
+	const page = readingsPageSchema.safeParse(Object.fromEntries(event.url.searchParams));
+	if (!page.success) throw new ApiError(422, 'The readings page is not valid.', page.error.issues.map((i) => ({ path: i.path.map(String), message: i.message })));
+	return json(soundingDetailView(project.id, event.params.sid ?? '', page.data, event.url));
 });
 
 export const DELETE = endpoint((event) => {
