@@ -180,14 +180,19 @@ describe('zonations, domains and samples', () => {
 		type Samples = { counts: Record<string, number>; samples: { z: number[] }; soundings: { name: string }[]; leftOut: { name: string; reason: string }[] };
 		const before = await ok<Samples>(await analyst.json('GET', api(ownId, `/domains/${west.id}/samples`)));
 		expect(before.counts.kept).toBe(before.samples.z.length);
-		const rules = { contactBuffer: 0.3, minDepth: 0, minSigmaVeff: 40, excludedSoundings: [], flagged: 'exclude' };
+		const rules = { contactBuffer: 0.3, minDepth: 0, minSigmaVeff: 0, excludedSoundings: [], flagged: 'exclude' };
 		const { domain } = await ok<{ domain: { rules: unknown } }>(await analyst.json('PATCH', api(ownId, `/domains/${west.id}`), { rules }));
 		expect(domain.rules).toEqual(rules);
 		const after = await ok<Samples>(await analyst.json('GET', api(ownId, `/domains/${west.id}/samples`)));
 		expect(after.counts.readings).toBe(before.counts.readings);
 		expect(after.counts.contactBuffer).toBeGreaterThan(0);
 		expect(after.counts.kept).toBe(after.samples.z.length);
-		expect(after.counts.kept + after.counts.noValue + after.counts.minSigmaVeff + after.counts.contactBuffer + after.counts.flagged).toBe(after.counts.readings);
+		expect(after.counts.kept + after.counts.noValue + after.counts.contactBuffer + after.counts.flagged).toBe(after.counts.readings);
+		const stressed = await ok<Samples>(
+			await analyst.json('PATCH', api(ownId, `/domains/${west.id}`), { rules: { ...rules, minSigmaVeff: 60 } }).then(() => analyst.json('GET', api(ownId, `/domains/${west.id}/samples`)))
+		);
+		expect(stressed.counts.minSigmaVeff).toBeGreaterThan(0);
+		expect(stressed.counts.kept).toBeLessThan(after.counts.kept);
 		const gone = await ok<Samples>(await analyst.json('PATCH', api(ownId, `/domains/${west.id}`), { rules: { ...rules, excludedSoundings: ['LV-01'] } }).then(() =>
 			analyst.json('GET', api(ownId, `/domains/${west.id}/samples`))
 		));
