@@ -242,11 +242,12 @@ describe('rangeSensitivity by direction, and the ranges the data admit', () => {
 describe('plateauCheck(bins, variance, minPairs)', () => {
 	const flat = (g: number, n = 6, step = 1) => Array.from({ length: n }, (_, k) => ({ h: (k + 1) * step, gamma: g, pairs: 100 }));
 
-	it('plateauCheck averages the outer half of the usable bins by pairs and says nothing within 20 %', () => {
-		// Outer half of h = 1..6 is h ≥ 3: bins 3–6 with γ 1.1 and pairs 100 each → 1.1.
-		const c = plateauCheck({ vertical: flat(1.1), horizontal: [...flat(0.2, 2), ...flat(0.9, 4).map((b) => ({ ...b, h: b.h + 2 }))] }, 1, 30);
+	it('plateauCheck averages the outer third of the usable bins by pairs and says nothing within 20 %', () => {
+		// The outer third of h = 1..6 is h ≥ 4: bins 4–6 with γ 1.1 and pairs 100 each → 1.1.
+		const c = plateauCheck({ vertical: flat(1.1), horizontal: [...flat(0.2, 3), ...flat(0.9, 3).map((b) => ({ ...b, h: b.h + 3 }))] }, 1, 30);
 		expectRelClose(c.vertical!.gamma, 1.1, 1e-12, 'vertical plateau');
-		expect(c.vertical!.bins).toBe(4);
+		expect(c.vertical!.bins).toBe(3);
+		expect(c.vertical!.pairs).toBe(300);
 		expect(c.horizontal!.gamma).toBe(0.9);
 		expect(c.departures).toEqual([]);
 		expect(c.advice).toBeNull();

@@ -4,14 +4,17 @@ import type { Plateau, PlateauCheck } from './types';
 /** A plateau further than this share from the variance of what is analysed draws the warning. */
 export const PLATEAU_TOLERANCE = 0.2;
 
+/** The plateau is read over the usable bins beyond this share of the largest usable separation. */
+const OUTER = 2 / 3;
+
 /** A plateau resting on fewer pairs than this is called a rough figure in the warning. */
 const FEW_PAIRS = 300;
 
 /**
  * Compares each direction's experimental plateau with the variance of what is analysed — the sill a model
  * for sequential Gaussian simulation must have (1 for normal scores; Deutsch & Journel 1998, ch. V):
- * the plateau is the pair-weighted mean γ̂ of the usable bins (at least minPairs pairs) in the outer half of
- * the direction's usable separations. A plateau more than PLATEAU_TOLERANCE (20 %) above or below the
+ * the plateau is the pair-weighted mean γ̂ of the usable bins (at least minPairs pairs) in the outer third of
+ * the direction's usable separations (where a stationary variogram has levelled off and a trend keeps rising). A plateau more than PLATEAU_TOLERANCE (20 %) above or below the
  * variance is a departure; the advice names the likely causes (a trend, zonal anisotropy, mixed
  * populations — Journel & Huijbregts 1978; Goovaerts 1997, ch. 4, from memory) and what to do.
  * A direction needs two usable bins to have a plateau.
@@ -43,7 +46,7 @@ function plateauOf(bins: LagBin[], variance: number, minPairs: number): Plateau 
 	const usable = bins.filter((b) => b.pairs >= minPairs && b.pairs > 0 && Number.isFinite(b.gamma) && b.h > 0);
 	if (usable.length < 2 || !(variance > 0)) return null;
 	const hMax = usable.reduce((m, b) => Math.max(m, b.h), 0);
-	const outer = usable.filter((b) => b.h >= hMax / 2);
+	const outer = usable.filter((b) => b.h >= (OUTER * hMax));
 	let n = 0;
 	let s = 0;
 	for (const b of outer) {

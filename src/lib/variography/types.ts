@@ -91,7 +91,7 @@ export interface ExperimentalResult {
 	plateau: PlateauCheck;
 }
 
-/** One direction's experimental plateau: the pair-weighted mean γ̂ of the outer half of its usable lags. */
+/** One direction's experimental plateau: the pair-weighted mean γ̂ of the outer third of its usable lags. */
 export interface Plateau {
 	/** The plateau γ̂ and its ratio to the variance of what is analysed. */
 	gamma: number;

@@ -8,7 +8,7 @@ import { listZonations } from './zonations';
 
 /** The note every demo variogram carries. */
 export const DEMO_VARIOGRAM_NOTE =
-	'Fitted by the automatic fit with the default settings (normal scores with the declustering weights, an exponential structure with a fitted nugget, the total sill held at the variance) when the demo was seeded. Check it before relying on it.';
+	'Automatic fit with the default settings when the demo was seeded (normal scores, declustered; exponential with a fitted nugget; total sill held at the variance). Check it before relying on it.';
 
 /**
  * Gives every domain of every zonation of the demo project a saved variogram, version 1 under the domain's
