@@ -188,6 +188,22 @@ export function isSimulatedProperty(key: string): key is SimulatedProperty {
 	return (SIMULATED_PROPERTIES as readonly string[]).includes(key);
 }
 
+/** Plain words for the CPT flags a property's correlation may raise. */
+const FLAG_WORDS: Partial<Record<CptFlagName, string>> = {
+	qc1NcsOutOfRange: `qc1Ncs outside ${QC1NCS_MIN}–${QC1NCS_MAX}`,
+	icOutOfChart: 'Ic off the chart',
+	notConverged: 'an iteration that did not converge',
+	negativeNetResistance: 'qt − σv ≤ 0',
+	nonPositiveStress: 'σ′v ≤ 0',
+	drOutOfRange: 'Dr outside 0–1',
+	measuredFinesContentInvalid: 'a measured FC outside 0–100 %'
+};
+
+/** The flags of a property's correlation in plain words, e.g. "qc1Ncs outside 21–254, Ic off the chart"; '' for none. */
+export function correlationFlagText(key: PropertyKey): string {
+	return (PROPERTY_INFO[key].flags ?? []).map((f) => FLAG_WORDS[f] ?? f).join(', ');
+}
+
 /** The CptFlag bitmask of the flags that mark a reading as outside a property's correlation (0: none). */
 export function correlationFlagMask(key: PropertyKey): number {
 	let mask = 0;

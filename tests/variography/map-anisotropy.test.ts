@@ -74,8 +74,13 @@ describe('mapAnisotropy(map, parameters, minPairs) and the anisotropic autoFit',
 		}
 	}, 60_000);
 
-	it('mapAnisotropy needs three map cells with enough pairs', async () => {
+	it('mapAnisotropy needs three map cells with enough pairs, and soundings that do not lie on one line in plan', async () => {
 		const res = await computeVariograms(prepareSamples(dataOf(fields[0]), settings), settings, { pause: async () => {}, map: true });
 		expect(() => mapAnisotropy(res.map!, { type: 'exponential', nugget: 0, sill: 1 }, 1e9)).toThrow('no map cells with enough pairs');
+		// The same values with every sounding moved onto the line y = 0.5·x (a section): no direction can be read.
+		const line = dataOf(fields[0]);
+		line.samples.y = line.samples.x.map((x) => 0.5 * x);
+		const onLine = await computeVariograms(prepareSamples(line, settings), settings, { pause: async () => {}, map: true });
+		expect(() => mapAnisotropy(onLine.map!, { type: 'exponential', nugget: 0, sill: 1 }, settings.minPairs)).toThrow('the soundings lie nearly on one line in plan');
 	});
 });

@@ -3,6 +3,13 @@ import ln from '@stdlib/math-base-special-ln';
 import { planRotation, unitGamma, type VariogramMap } from '../geostat';
 import type { ModelParameters } from './types';
 
+/**
+ * The map needs pairs in more than one direction: the weighted second moment of the pairs' offsets across
+ * their main direction must be at least this share of the moment along it (offsets within about ±13° of one
+ * line give less).
+ */
+const MIN_SPREAD = 0.05;
+
 /** The plan anisotropy read off a variogram map. */
 export interface MapAnisotropy {
 	/** Direction of greatest continuity, whole degrees clockwise from north in [0, 180). */
@@ -26,7 +33,8 @@ export interface MapAnisotropy {
  * 2° and 1° steps around the best, each with its two ranges searched on a log grid over [0.1·h_min, 10·h_max]
  * of the cells' separations and refined by zooming. The major range is the larger (the azimuth turned by
  * 90° if needed).
- * @throws {Error} 'no map cells with enough pairs' when fewer than three cells qualify
+ * @throws {Error} 'no map cells with enough pairs' when fewer than three cells qualify; 'the soundings lie nearly
+ *   on one line in plan …' when the pairs' offsets spread too little across their main direction (MIN_SPREAD)
  */
 export function mapAnisotropy(map: VariogramMap, params: Pick<ModelParameters, 'type' | 'nugget' | 'sill'>, minPairs: number): MapAnisotropy {
 	const idx: number[] = [];
@@ -53,23 +61,31 @@ export function mapAnisotropy(map: VariogramMap, params: Pick<ModelParameters, '
 		hmax = Math.max(hmax, h);
 	}
 
-	// First direction: the axis of inertia of the covariance map.
+	// First direction: the axis of inertia of the covariance map. Alongside, the spread of the pairs' offsets
+	// by direction: soundings on one line in plan give offsets along that line only.
 	let start = 0;
 	let most = -Infinity;
+	let spreadMin = Infinity;
+	let spreadMax = 0;
 	for (let az = 0; az < 180; az++) {
 		const rot = planRotation(az);
 		let s = 0;
+		let spread = 0;
 		for (let k = 0; k < n; k++) {
+			const u = dx[k] * rot.sin + dy[k] * rot.cos;
+			spread += map.pairs[idx[k]] * u * u;
 			const cov = params.sill - g[k];
 			if (cov <= 0) continue;
-			const u = dx[k] * rot.sin + dy[k] * rot.cos;
 			s += map.pairs[idx[k]] * cov * u * u;
 		}
+		spreadMin = Math.min(spreadMin, spread);
+		spreadMax = Math.max(spreadMax, spread);
 		if (s > most) {
 			most = s;
 			start = az;
 		}
 	}
+	if (spreadMin < MIN_SPREAD * spreadMax) throw new Error('the soundings lie nearly on one line in plan, so the map cannot show a direction of greatest continuity');
 
 	const lo = ln(0.1 * hmin);
 	const hi = ln(10 * hmax);
