@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { experimentalVariogram, experimentalVariogramMap, fitLinearTrend, normalScore, trendResiduals, weightedVariance, type LagBin } from '../../src/lib/geostat/index';
 import { CancelledError } from '../../src/lib/cancelled-error';
-import { computeVariograms, prepareSamples, type VariogramSettings } from '../../src/lib/variography/index';
+import { computeVariograms, domainTrend, prepareSamples, type VariogramSettings } from '../../src/lib/variography/index';
 import { expectRelClose } from '../asserts';
 import { handDomain } from './fixture';
 
@@ -157,6 +157,10 @@ describe('prepareSamples(data, settings)', () => {
 		expect(raw.trend!.used).toEqual({ x: true, y: false, z: true });
 		expect(raw.variance).toBe(weightedVariance(trendResiduals(samples, raw.trend!.trend)));
 		expect(prepareSamples(d, { transform: 'none', declustered: false }).trend).toBeNull();
+		// domainTrend gives the same trend a simulation must add back (the one removed here).
+		expect(domainTrend(d, { declustered: true, trend: 'elevation' })).toEqual(fit);
+		expect(domainTrend(d, { declustered: false, trend: 'elevation-plan' })).toEqual(raw.trend);
+		expect(domainTrend(d, { declustered: true, trend: 'none' })).toBeNull();
 	});
 
 	it('prepareSamples does not mutate its input', () => {

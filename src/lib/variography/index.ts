@@ -16,6 +16,7 @@ export type {
 	Progress
 } from './types';
 export { prepareSamples } from './prepare-samples';
+export { domainTrend } from './domain-trend';
 export type { PreparedSamples } from './prepare-samples';
 export { computeVariograms } from './compute-variograms';
 export type { ComputeOptions } from './compute-variograms';

@@ -1,4 +1,5 @@
-import { fitLinearTrend, normalScore, trendResiduals, weightedMean, weightedVariance, type LinearTrendFit, type Sample } from '../geostat';
+import { normalScore, trendResiduals, weightedMean, weightedVariance, type LinearTrendFit, type Sample } from '../geostat';
+import { domainTrend } from './domain-trend';
 import type { DomainSamplesData, VariogramSettings } from './types';
 
 /** The samples an experimental variogram is computed on, with the statistics of the analysed values. */
@@ -14,7 +15,7 @@ export interface PreparedSamples {
 /**
  * Turns a domain's sample columns into engine samples of the analysed variable: the property's values, or
  * their residuals from a linear trend of the mean (`settings.trend`, fitted by weighted least squares with
- * the declustering weights when `declustered`: fitLinearTrend), then as they are (transform 'none') or as
+ * the declustering weights when `declustered`: domainTrend), then as they are (transform 'none') or as
  * their normal scores ('normal-score'; Deutsch & Journel 1998, ch. V) computed with the same weights.
  * The variance returned is that of the analysed values, weighted by the declustering weights when
  * `declustered` (population variance, the sill reference of common practice). Inputs are not mutated.
@@ -42,8 +43,7 @@ export function prepareSamples(
 	}
 	const samples: Sample[] = new Array(n);
 	for (let i = 0; i < n; i++) samples[i] = { x: cols.x[i], y: cols.y[i], z: cols.z[i], value: cols.value[i], sounding: cols.sounding[i] };
-	const choice = settings.trend ?? 'none';
-	const trend = choice === 'none' ? null : fitLinearTrend(samples, weights, choice);
+	const trend = domainTrend(data, settings);
 	const raw = trend ? trendResiduals(samples, trend.trend) : cols.value;
 	const values = settings.transform === 'normal-score' ? normalScore(raw, weights).scores : Float64Array.from(raw);
 	for (let i = 0; i < n; i++) samples[i].value = values[i];
