@@ -14,27 +14,10 @@ import type { VariographyEngine } from './engine';
 import { VariogramHistory } from './history.svelte';
 import { ModelEditor } from './model-editor.svelte';
 import { Notices } from './notices.svelte';
+import { analysedSpace, describeSpace } from './analysed-space';
 
 /** Settings edits are computed this long after the last keystroke. */
 const DEBOUNCE_MS = 300;
-
-/** The settings that decide which values the variograms are computed on (not how they are binned). */
-type SpaceSettings = Pick<VariogramSettings, 'transform' | 'declustered' | 'trend'>;
-
-/**
- * The analysed space of a domain under settings: the domain (hence its property) and what is done to its
- * values before the variograms (transform, weights, trend). A model belongs to one space; bins of another
- * space are values of another variable.
- */
-export function analysedSpace(domainId: string, s: SpaceSettings): string {
-	return JSON.stringify([domainId, s.transform, s.declustered, s.trend ?? 'none']);
-}
-
-/** A space in words, e.g. "normal scores, declustered, trend with elevation removed". */
-export function describeSpace(s: SpaceSettings): string {
-	const trend = { none: 'no trend', elevation: 'trend with elevation removed', 'elevation-plan': 'trend with elevation and in plan removed' }[s.trend ?? 'none'];
-	return `${s.transform === 'normal-score' ? 'normal scores' : 'raw values'}, ${s.declustered ? 'declustered' : 'equal weights'}, ${trend}`;
-}
 
 /**
  * The variography workspace of a project: the chosen domain and its samples, the experimental settings and
@@ -70,6 +53,8 @@ export class VariographyWorkspace {
 	progress = $state<Progress | null>(null);
 	running = $state(false);
 	loading = $state(true);
+	/** Set when the loaded version was fitted to other samples than the domain has now; cleared by a new fit. */
+	dataChanged = $state('');
 	/** The direction of greatest continuity last read off the map (3D). */
 	mapFit = $state.raw<MapAnisotropy | null>(null);
 	findingDirection = $state(false);
@@ -153,6 +138,7 @@ export class VariographyWorkspace {
 		this.resultFor = '';
 		this.resultSettings = '';
 		this.mapFit = null;
+		this.dataChanged = '';
 		this.model.evaluation = null;
 		this.model.params = null;
 		this.model.space = '';
@@ -185,6 +171,13 @@ export class VariographyWorkspace {
 		this.model.set(params, analysedSpace(this.domainId, this.settings));
 		this.history.saveName = v.name;
 		this.notices.status = `Loaded ${v.name} v${v.version}.`;
+		const now = this.data?.samples.value.length;
+		const then = v.settings.samples;
+		// The domain's data may have changed since (its rules, contacts or soundings): say so rather than let an old fit pass.
+		this.dataChanged =
+			then !== undefined && now !== undefined && then !== now
+				? `${v.name} v${v.version} was fitted to ${then} samples; the domain now has ${now} (its rules, contacts or soundings changed). Fit again before relying on it.`
+				: '';
 		this.settingsEdited();
 	}
 
@@ -267,6 +260,7 @@ export class VariographyWorkspace {
 			);
 			if (space !== this.resultSpace) return false;
 			this.model.set(fit.parameters, space);
+			this.dataChanged = '';
 			this.notices.status =
 				request.sill === 'fit'
 					? 'Automatic fit done (weighted least squares, Cressie weights), sill fitted freely.'

@@ -12,7 +12,8 @@ import {
 	type SavedVariogramSettings
 } from '../../../../../src/lib/variography/index';
 import type { VariographyEngine } from '../../../../../src/routes/projects/[id]/variography/engine';
-import { analysedSpace, VariographyWorkspace } from '../../../../../src/routes/projects/[id]/variography/workspace.svelte';
+import { VariographyWorkspace } from '../../../../../src/routes/projects/[id]/variography/workspace.svelte';
+import { analysedSpace } from '../../../../../src/routes/projects/[id]/variography/analysed-space';
 import { variographyApi } from '../../../../../workers/variography';
 import { handDomain } from '../../../../variography/fixture';
 import { DEFAULT_RULES, emptyRuleCounts } from '../../../../../src/lib/site/index';
@@ -305,6 +306,20 @@ describe('VariographyWorkspace', () => {
 		ws.history.saveName = 'Sand';
 		await ws.save();
 		expect((sent[0] as { settings: unknown }).settings).toMatchObject(shown);
+		ws.destroy();
+	});
+
+	it('a saved version fitted to another number of samples says the domain\'s data changed since', async () => {
+		const first = await opened();
+		await first.ws.autoFit();
+		first.ws.history.saveName = 'Sand';
+		await first.ws.save();
+		const v = { ...first.versions[0], settings: { ...first.versions[0].settings, samples: 5 } };
+		first.ws.destroy();
+		const { ws } = await opened([v]);
+		expect(ws.dataChanged).toBe(`Sand v1 was fitted to 5 samples; the domain now has ${ws.data!.samples.value.length} (its rules, contacts or soundings changed). Fit again before relying on it.`);
+		await ws.autoFit();
+		expect(ws.dataChanged).toBe('');
 		ws.destroy();
 	});
 });
