@@ -1,13 +1,27 @@
-// Sequential Gaussian simulation benchmarks (issue 4): "section", "block" and "pool".
+// Sequential Gaussian simulation benchmarks (issues 4 and 16): "section", "section-offgrid", "block" (each also
+// on the multiple-grid path, ":multigrid") and "pool".
 // Each simulation case also times, in the same process, a floor: factoring and solving as many k×k systems
 // with the plain Float64Array Cholesky (k = the mean neighbour count the simulation actually used), so
-// `ratio` says what search, covariance build and bookkeeping cost on top of the unavoidable solves.
+// `ratio` says what search, covariance build and bookkeeping cost on top of the unavoidable solves — or, with
+// solved systems reused, how far below it the engine goes. Per case, each on a fresh prepared simulation after an
+// untimed warm-up realization (so the compiler's warm-up is not counted): `ratio` and `hitRate` (share of systems
+// whose solution was reused) with everything kept (the default); `ratioNoReuse` keeping the data parts but no
+// solved systems; `ratioFresh` keeping nothing (reuseBytes 0); each a mean over realizations 0…R−1, the first of
+// which fills what is kept.
 import seedrandom from 'seedrandom';
 import { availableParallelism } from 'node:os';
-import { choleskyFactor, choleskySolve, covariance, prepareSimulation, simulatePrepared } from '../src/lib/geostat/index';
-import type { SimulationInput, SimulationStats, TargetPoints, VariogramModel, Sample } from '../src/lib/geostat/index';
+import { choleskyFactor, choleskySolve, covariance, prepareSimulation, recipeInput, simulatePrepared, targetsFromDefinition } from '../src/lib/geostat/index';
+import type { PrepareOptions, SimulationInput, SimulationStats, TargetPoints, VariogramModel, Sample } from '../src/lib/geostat/index';
 import { createNodePool } from '../workers/node-pool';
+import { demoRecipe } from '../scripts/demo-recipe';
 import type { BenchCase } from './index';
+
+// CPU time of this process, not wall time: other work shares the box, and a realization that waits for a core
+// should not count as slower (both the simulation and its floor are timed this way).
+const cpuMs = () => {
+	const u = process.cpuUsage();
+	return (u.user + u.system) / 1000;
+};
 
 let peakRss = process.memoryUsage().rss;
 const sampleRss = () => {
@@ -59,6 +73,13 @@ function blockInput(): { input: SimulationInput; targets: TargetPoints } {
 	return { targets, input: { seed: 'bench-block', domains: [{ samples, model, transform: 'normal-score', kriging: 'simple', search: { maxData: 16, maxSimulated: 16 } }] } };
 }
 
+function offgridInput(): { input: SimulationInput; targets: TargetPoints } {
+	// The demo's own domain samples (five domains, 0.2 m windows at the soundings' chainages: off the lattice) on a
+	// 400 × 80 section at 1 m × 0.2 m (about 32,000 cells); exponential 40 m / 0.9 m; 16 data (≤ 8 a sounding), 16 nodes.
+	const recipe = demoRecipe({ seed: 'bench-section-offgrid' });
+	return { input: recipeInput(recipe), targets: targetsFromDefinition(recipe.targets) };
+}
+
 /** Covariance matrices of k points along a line: SPD with realistic conditioning, for the floor. */
 function floorMatrices(k: number): Float64Array[] {
 	const model: VariogramModel = { azimuth: 90, structures: [{ type: 'exponential', sill: 1, rangeMajor: 40, rangeMinor: 40, rangeVertical: 1 }] };
@@ -75,62 +96,94 @@ function floorMs(mats: Float64Array[], k: number, systems: number): number {
 	const b = new Float64Array(k).fill(0.5);
 	const x = new Float64Array(k);
 	let sink = 0;
-	const t0 = performance.now();
+	const t0 = cpuMs();
 	for (let s = 0; s < systems; s++) {
 		a.set(mats[s % mats.length]);
 		if (!choleskyFactor(a, k)) throw new Error('floor matrix not SPD');
 		choleskySolve(a, k, b, x);
 		sink += x[0];
 	}
-	const ms = performance.now() - t0;
+	const ms = cpuMs() - t0;
 	if (!Number.isFinite(sink)) throw new Error('floor diverged');
 	return ms;
 }
 
-function simulationCase(name: string, setup: () => { input: SimulationInput; targets: TargetPoints }, realizations: number): Record<string, number> {
-	const { input, targets } = setup();
+interface Run {
+	simMs: number;
+	floorMs: number;
+	floorSystems: number;
+	systems: number;
+	neighbours: number;
+	reused: number;
+	prepareMs: number;
+	cacheMB: number;
+}
+
+/** Realizations 0…R−1 of one prepared simulation, each timed next to its floor (the box is shared with other work). */
+function run(input: SimulationInput, targets: TargetPoints, realizations: number, options: PrepareOptions): Run {
+	const t0 = cpuMs();
+	const prep = prepareSimulation(input, targets, options);
+	const out: Run = { simMs: 0, floorMs: 0, floorSystems: 0, systems: 0, neighbours: 0, reused: 0, prepareMs: cpuMs() - t0, cacheMB: 0 };
 	sampleRss();
-	const t0 = performance.now();
-	const prep = prepareSimulation(input, targets);
-	const prepareMs = performance.now() - t0;
-	sampleRss();
-	// The box is shared with other work; timing each realization next to its floor keeps the ratio fair.
-	let simMs = 0;
-	let floorTotalMs = 0;
-	let floorSystems = 0;
-	let systems = 0;
-	let neighbours = 0;
 	let mats: Float64Array[] | null = null;
 	let k = 0;
 	for (let r = 0; r < realizations; r++) {
-		const stats: SimulationStats = { systems: 0, neighbours: 0 };
-		const t1 = performance.now();
+		const stats: SimulationStats = { systems: 0, neighbours: 0, reused: 0 };
+		const t1 = cpuMs();
 		simulatePrepared(prep, r, sampleRss, stats);
-		simMs += performance.now() - t1;
+		out.simMs += cpuMs() - t1;
 		sampleRss();
-		systems += stats.systems;
-		neighbours += stats.neighbours;
+		out.systems += stats.systems;
+		out.neighbours += stats.neighbours;
+		out.reused += stats.reused;
 		if (!mats) {
 			k = Math.round(stats.neighbours / stats.systems);
 			mats = floorMatrices(k);
 		}
 		const m = Math.min(stats.systems, 200_000);
-		floorTotalMs += floorMs(mats, k, m);
-		floorSystems += m;
+		out.floorMs += floorMs(mats, k, m);
+		out.floorSystems += m;
 	}
-	const nodes = systems / realizations;
-	const usPerNode = (simMs * 1000) / systems;
-	const floorUs = (floorTotalMs * 1000) / floorSystems;
+	out.cacheMB = prep.cache && prep.cache.stores > 0 ? prep.cache.bytes / 2 ** 20 : 0;
+	return out;
+}
+
+const round2 = (v: number) => Math.round(v * 100) / 100;
+
+/** One simulation case on one path (see the head of this file). */
+function simulationCase(
+	name: string,
+	setup: () => { input: SimulationInput; targets: TargetPoints },
+	realizations: number,
+	path: 'random' | 'multigrid'
+): Record<string, number> {
+	const base = setup();
+	const input: SimulationInput = { ...base.input, domains: base.input.domains.map((d) => ({ ...d, search: { ...d.search, path } })) };
+	const { targets } = base;
+	if (realizations > 1) simulatePrepared(prepareSimulation(input, targets, { reuseBytes: 0 }), 999);
+	sampleRss();
+	peakRss = process.memoryUsage().rss;
+	const on = run(input, targets, realizations, {});
+	const peak = peakRss;
+	const off = run(input, targets, realizations, { reuseSolutions: false });
+	const fresh = realizations > 1 ? run(input, targets, realizations, { reuseBytes: 0 }) : null;
+	const us = (r: Run) => (r.simMs * 1000) / r.systems;
+	const floorUs = (r: Run) => (r.floorMs * 1000) / r.floorSystems;
 	return {
-		nodes,
+		nodes: on.systems / realizations,
 		targets: targets.x.length,
-		k: Math.round((neighbours / systems) * 100) / 100,
-		prepareMs: Math.round(prepareMs),
-		msPerRealization: Math.round(simMs / realizations),
-		usPerNode: Math.round(usPerNode * 100) / 100,
-		floorUsPerNode: Math.round(floorUs * 100) / 100,
-		ratio: Math.round((usPerNode / floorUs) * 100) / 100,
-		...(name === 'block' ? { peakRssMB: Math.round(peakRss / 2 ** 20) } : {})
+		k: round2(on.neighbours / on.systems),
+		prepareMs: Math.round(on.prepareMs),
+		msPerRealization: Math.round(on.simMs / realizations),
+		usPerNode: round2(us(on)),
+		floorUsPerNode: round2(floorUs(on)),
+		ratio: round2(us(on) / floorUs(on)),
+		hitRate: round2(on.reused / on.systems),
+		msPerRealizationNoReuse: Math.round(off.simMs / realizations),
+		ratioNoReuse: round2(us(off) / floorUs(off)),
+		...(fresh ? { ratioFresh: round2(us(fresh) / floorUs(fresh)) } : {}),
+		cacheMB: Math.round(on.cacheMB),
+		...(name.startsWith('block') ? { peakRssMB: Math.round(peak / 2 ** 20) } : {})
 	};
 }
 
@@ -138,24 +191,39 @@ async function poolCase(): Promise<Record<string, number>> {
 	const { input, targets } = sectionInput();
 	const realizations = Array.from({ length: 8 }, (_, r) => r);
 	const cores = availableParallelism();
+	// Wall clock (what a user waits) and CPU time of this process, workers included (what the work costs, whatever
+	// else shares the box).
 	const time = async (size: number) => {
 		const pool = createNodePool({ size });
 		// Warm-up: workers start (and load the engine through tsx) outside the timing.
 		await pool.run(input, targets, Array.from({ length: size }, (_, r) => 100 + r));
+		const c0 = cpuMs();
 		const t0 = performance.now();
 		await pool.run(input, targets, realizations);
 		const ms = performance.now() - t0;
+		const cpu = cpuMs() - c0;
 		await pool.close();
-		return ms;
+		return { ms, cpu };
 	};
 	const one = await time(1);
 	const all = await time(cores);
-	return { realizations: 8, cores, msOneCore: Math.round(one), msAllCores: Math.round(all), speedup: Math.round((one / all) * 100) / 100 };
+	return {
+		realizations: 8,
+		cores,
+		msOneCore: Math.round(one.ms),
+		msAllCores: Math.round(all.ms),
+		speedup: Math.round((one.ms / all.ms) * 100) / 100,
+		cpuMsAllCores: Math.round(all.cpu)
+	};
 }
 
 const cases: BenchCase[] = [
-	{ name: 'section', run: () => simulationCase('section', sectionInput, 3) },
-	{ name: 'block', run: () => simulationCase('block', blockInput, 1) },
+	{ name: 'section', run: () => simulationCase('section', sectionInput, 3, 'random') },
+	{ name: 'section:multigrid', run: () => simulationCase('section', sectionInput, 3, 'multigrid') },
+	{ name: 'section-offgrid', run: () => simulationCase('section-offgrid', offgridInput, 5, 'random') },
+	{ name: 'section-offgrid:multigrid', run: () => simulationCase('section-offgrid', offgridInput, 5, 'multigrid') },
+	{ name: 'block', run: () => simulationCase('block', blockInput, 1, 'random') },
+	{ name: 'block:multigrid', run: () => simulationCase('block', blockInput, 1, 'multigrid') },
 	{ name: 'pool', run: poolCase }
 ];
 

@@ -8,7 +8,8 @@ import type { SimulationInput, TargetDefinition, TargetPoints } from '../../src/
 
 // Bit-identity of the engine between Node.js and headless Chromium (DESIGN.md: a realization is a recipe).
 // The engine is bundled as-is into an IIFE, run in the page on the same input, and the SHA-256 of the
-// output's Float64 bytes compared with Node's.
+// output's Float64 bytes compared with Node's. The input covers both search paths, exponential, Gaussian and
+// spherical structures with a nugget (the covariance table), data off the grid, and solution reuse on a grid.
 
 const root = fileURLToPath(new URL('../..', import.meta.url));
 
@@ -45,7 +46,8 @@ const input: SimulationInput = {
 			transform: 'none',
 			mean: 38,
 			kriging: 'ordinary',
-			search: { maxData: 4, maxSimulated: 10 }
+			// The multiple-grid path (issue 16) in the browser too; domain 0 keeps the random path.
+			search: { maxData: 4, maxSimulated: 10, path: 'multigrid' }
 		}
 	]
 };

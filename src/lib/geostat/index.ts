@@ -49,10 +49,13 @@ export type { OffsetTemplate } from './search/offset-template';
 export type { TargetPoints, DomainInput, SearchOptions, SimulationInput } from './simulation/types';
 export { detectLattice } from './simulation/lattice';
 export type { Lattice } from './simulation/lattice';
-export { prepareSimulation, COINCIDENCE_TOLERANCE } from './simulation/prepare-simulation';
-export type { PreparedSimulation, PreparedDomain } from './simulation/prepare-simulation';
+export { prepareSimulation, COINCIDENCE_TOLERANCE, DEFAULT_REUSE_BYTES } from './simulation/prepare-simulation';
+export type { PreparedSimulation, PreparedDomain, PrepareOptions } from './simulation/prepare-simulation';
 export { simulate, simulatePrepared, realizationStream } from './simulation/simulate';
 export type { SimulationStats } from './simulation/simulate';
+export { tabulatedCovariance, TabulatedCovariance, COVARIANCE_TABLE_STEP, COVARIANCE_TABLE_END } from './variogram/covariance-table';
+export { SolutionCache, signatureHash } from './simulation/solution-cache';
+export { multigridStrides, multigridLevel, multigridPath } from './simulation/multigrid-path';
 
 // --- Recipes: schema, identity, engine version, regeneration ---
 export {

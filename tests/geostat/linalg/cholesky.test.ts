@@ -58,3 +58,89 @@ describe('choleskyFactor / choleskySolve', () => {
 		expect(Array.from(y)).toEqual(Array.from(x));
 	});
 });
+
+describe('choleskyFactor(A, n, relTol, from)', () => {
+	// The row-by-row (Cholesky–Banachiewicz) order, written out here: the same formulas, so the same bits.
+	function byRows(a: Float64Array, n: number): boolean {
+		let dmax = 0;
+		for (let i = 0; i < n; i++) dmax = Math.max(dmax, a[i * n + i]);
+		const inv: number[] = [];
+		for (let i = 0; i < n; i++) {
+			for (let j = 0; j < i; j++) {
+				let s = a[i * n + j];
+				for (let k = 0; k < j; k++) s -= a[i * n + k] * a[j * n + k];
+				a[i * n + j] = s * inv[j];
+			}
+			let d = a[i * n + i];
+			for (let k = 0; k < i; k++) d -= a[i * n + k] * a[i * n + k];
+			if (!(d > 1e-13 * dmax)) return false;
+			a[i * n + i] = Math.sqrt(d);
+			inv[i] = 1 / a[i * n + i];
+		}
+		return true;
+	}
+
+	// The column-by-column algorithm (Golub & Van Loan 2013, alg. 4.2.1), written out here as the reference.
+	function byColumns(a: Float64Array, n: number): boolean {
+		let dmax = 0;
+		for (let i = 0; i < n; i++) dmax = Math.max(dmax, a[i * n + i]);
+		for (let j = 0; j < n; j++) {
+			let d = a[j * n + j];
+			for (let k = 0; k < j; k++) d -= a[j * n + k] * a[j * n + k];
+			if (!(d > 1e-13 * dmax)) return false;
+			const l = Math.sqrt(d);
+			a[j * n + j] = l;
+			const inv = 1 / l;
+			for (let i = j + 1; i < n; i++) {
+				let s = a[i * n + j];
+				for (let k = 0; k < j; k++) s -= a[i * n + k] * a[j * n + k];
+				a[i * n + j] = s * inv;
+			}
+		}
+		return true;
+	}
+
+	it('choleskyFactor gives the same bits as the column-by-column algorithm and as the row-by-row order', () => {
+		for (const n of [1, 3, 17, 32]) {
+			const a = spd(n, 11 + n);
+			const got = a.slice();
+			const cols = a.slice();
+			const rows = a.slice();
+			expect(choleskyFactor(got, n)).toBe(true);
+			expect(byColumns(cols, n)).toBe(true);
+			expect(byRows(rows, n)).toBe(true);
+			for (let i = 0; i < n; i++) {
+				for (let j = 0; j <= i; j++) {
+					expect(Object.is(got[i * n + j], cols[i * n + j])).toBe(true);
+					expect(Object.is(got[i * n + j], rows[i * n + j])).toBe(true);
+				}
+			}
+		}
+	});
+
+	it('choleskyFactor from m continues a kept factor of the leading m×m block to the same bits as a whole factorisation', () => {
+		const n = 20;
+		const a = spd(n, 5);
+		const whole = a.slice();
+		expect(choleskyFactor(whole, n)).toBe(true);
+		for (const m of [0, 1, 8, 19, 20]) {
+			// The leading block factored on its own (stride m), then its rows copied into the n×n matrix.
+			const lead = new Float64Array(m * m);
+			for (let i = 0; i < m; i++) for (let j = 0; j < m; j++) lead[i * m + j] = a[i * n + j];
+			expect(choleskyFactor(lead, m)).toBe(true);
+			const b = a.slice();
+			for (let i = 0; i < m; i++) for (let j = 0; j <= i; j++) b[i * n + j] = lead[i * m + j];
+			expect(choleskyFactor(b, n, 1e-13, m)).toBe(true);
+			for (let i = 0; i < n; i++) for (let j = 0; j <= i; j++) expect(Object.is(b[i * n + j], whole[i * n + j])).toBe(true);
+		}
+		expect(() => choleskyFactor(a.slice(), n, 1e-13, n + 1)).toThrow(RangeError);
+		expect(() => choleskyFactor(a.slice(), n, 1e-13, -1)).toThrow(RangeError);
+	});
+
+	it('choleskyFactor from m still returns false when a later row is singular', () => {
+		// [[4, 2, 2], [2, 1, 1], [2, 1, 5]]: the second row is the first halved, so its pivot is 0.
+		const a = new Float64Array([4, 2, 2, 2, 1, 1, 2, 1, 5]);
+		a[0] = 2; // L_00 of the leading 1×1 block
+		expect(choleskyFactor(a, 3, 1e-13, 1)).toBe(false);
+	});
+});

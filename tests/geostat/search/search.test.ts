@@ -98,6 +98,18 @@ describe('selectNearest', () => {
 		}
 	});
 
+	it('selectNearest handles large group numbers and leaves no count behind between calls', () => {
+		const idx = Int32Array.from([0, 1, 2, 3, 4, 5]);
+		const d2 = Float64Array.from([0.1, 0.2, 0.3, 0.4, 0.5, 0.6]);
+		const group = Int32Array.from([70_000, 70_000, 70_000, 9, 9, -1]);
+		const o = new Int32Array(4);
+		const d = new Float64Array(4);
+		expect(Array.from(o.subarray(0, selectNearest(idx, d2, 6, 4, o, d, group, 2)))).toEqual([0, 1, 3, 4]);
+		// The same call again: counts from the first call must not carry over.
+		expect(Array.from(o.subarray(0, selectNearest(idx, d2, 6, 4, o, d, group, 2)))).toEqual([0, 1, 3, 4]);
+		expect(Array.from(o.subarray(0, selectNearest(idx, d2, 6, 4, o, d, group, 1)))).toEqual([0, 3, 5]);
+	});
+
 	it('selectNearest with k = 0 or no candidates selects nothing', () => {
 		const o = new Int32Array(2);
 		const d = new Float64Array(2);

@@ -308,3 +308,68 @@ describe('simulate — edge cases', () => {
 		expect(() => simulate({ seed: 'x', domains: [gaussianDomain({ samples: [{ x: 0, y: 0, z: 0, value: NaN }] })] }, t, 0)).toThrow(RangeError);
 	});
 });
+
+describe('simulate — multiple-grid path (search.path "multigrid")', () => {
+	it('multigrid on a line reproduces mean 0, variance = sill and the model covariance at lags 1, 2, 5, 10 within 0.1, as the random path does', () => {
+		const n = 40;
+		const input: SimulationInput = { seed: 'unconditional-mg', domains: [gaussianDomain({ search: { maxData: 8, maxSimulated: 8, path: 'multigrid' } })] };
+		const prep = prepareSimulation(input, line(n));
+		expect(prep.domains[0].multigrid).not.toBeNull();
+		const st = lineStats(Array.from({ length: R }, (_, r) => simulatePrepared(prep, r)), n);
+		expectAbsClose(st.mean, 0, ERGODIC_TOL, 'mean');
+		expectAbsClose(st.variance, 1, ERGODIC_TOL, 'variance');
+		LAGS.forEach((h, l) => expectAbsClose(st.cov[l], covariance(expModel, h, 0, 0), ERGODIC_TOL, `C(${h})`));
+	});
+
+	it('multigrid on a section with a small search reproduces the horizontal covariance at lags 1–15 m within 0.07 (100 realizations)', () => {
+		// 80 m × 4 m at 1 × 0.25 m, exponential 20 m / 1 m, 8 simulated nodes: three levels along x (strides 1, 2, 4).
+		// Tolerance: the pooled covariance of 100 realizations rests on roughly 100·(80/13)·(4/0.7) ≈ 3,500 independent
+		// values, a standard error near √(2/3500) ≈ 0.024; 0.07 is three of them (the estimate is unbiased: known mean 0).
+		const nx = 80;
+		const nz = 16;
+		const targets = section(nx, nz, 1, 0.25);
+		const model: VariogramModel = { azimuth: 90, structures: [{ type: 'exponential', sill: 1, rangeMajor: 20, rangeMinor: 20, rangeVertical: 1 }] };
+		const input: SimulationInput = { seed: 'section-mg', domains: [gaussianDomain({ model, search: { maxData: 0, maxSimulated: 8, path: 'multigrid' } })] };
+		const prep = prepareSimulation(input, targets);
+		expect(Array.from(prep.domains[0].multigrid!.strides)).toEqual([1, 1, 1, 2, 1, 1, 4, 1, 1]);
+		const lags = [1, 3, 6, 10, 15];
+		const c = lags.map(() => 0);
+		const cnt = lags.map(() => 0);
+		for (let r = 0; r < 100; r++) {
+			const f = simulatePrepared(prep, r);
+			lags.forEach((h, l) => {
+				for (let k = 0; k < nz; k++) {
+					for (let i = 0; i + h < nx; i++) {
+						c[l] += f[k * nx + i] * f[k * nx + i + h];
+						cnt[l]++;
+					}
+				}
+			});
+		}
+		lags.forEach((h, l) => expectAbsClose(c[l] / cnt[l], covariance(model, h, 0, 0), 0.07, `C(${h} m)`));
+	});
+
+	it('multigrid honours the data exactly, repeats bit for bit, and differs from the random path', () => {
+		const targets = section(30, 10, 1, 0.5);
+		const samples: Sample[] = [];
+		for (const x of [2, 11, 23]) for (let k = 0; k < 10; k += 2) samples.push({ x, y: 0, z: -k * 0.5, value: 10 + x + k * 1.7, sounding: `S${x}` });
+		const model: VariogramModel = { azimuth: 90, structures: [{ type: 'spherical', sill: 1, rangeMajor: 24, rangeMinor: 24, rangeVertical: 2 }] };
+		const domain = (path: 'random' | 'multigrid'): DomainInput => ({ samples, model, transform: 'normal-score', kriging: 'ordinary', search: { maxData: 6, maxSimulated: 6, path } });
+		const mg = simulate({ seed: 's', domains: [domain('multigrid')] }, targets, 1);
+		expect(dataReproduction(mg, targets, samples)).toEqual({ maxError: 0, count: 15 });
+		expectSameBits(simulate({ seed: 's', domains: [domain('multigrid')] }, targets, 1), mg);
+		expect(Array.from(simulate({ seed: 's', domains: [domain('random')] }, targets, 1))).not.toEqual(Array.from(mg));
+	});
+
+	it('multigrid on scattered targets (no lattice) is the random path, bit for bit', () => {
+		const pts = line(40, 1e-3);
+		const mg = simulate({ seed: 'scatter', domains: [gaussianDomain({ search: { maxData: 8, maxSimulated: 8, path: 'multigrid' } })] }, pts, 3);
+		const rnd = simulate({ seed: 'scatter', domains: [gaussianDomain({ search: { maxData: 8, maxSimulated: 8 } })] }, pts, 3);
+		expectSameBits(mg, rnd);
+	});
+
+	it('simulate rejects an unknown path with TypeError', () => {
+		const bad = gaussianDomain({ search: { maxData: 1, maxSimulated: 1, path: 'spiral' as 'random' } });
+		expect(() => simulate({ seed: 'x', domains: [bad] }, line(3), 0)).toThrow(/path must be/);
+	});
+});

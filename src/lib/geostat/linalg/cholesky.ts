@@ -1,16 +1,23 @@
 /**
  * In-place Cholesky factorisation A = L·Lᵀ of a symmetric positive-definite n×n matrix stored row-major in
- * the first n² entries of `a` (Golub & Van Loan 2013, Matrix Computations, alg. 4.2.1). Only the lower
- * triangle is read; on success it holds L (the strict upper triangle is left untouched).
+ * the first n² entries of `a`, column by column (Golub & Van Loan 2013, Matrix Computations, alg. 4.2.1):
+ * L_jj = √(a_jj − Σ_{k<j} L_jk²), L_ij = (a_ij − Σ_{k<j} L_ik·L_jk)·(1/L_jj) for i > j. Row i of L depends on rows
+ * ≤ i of A only, so the factor of a leading block can be kept and the factorisation continued: with `from` = m,
+ * rows below m must already hold the factor of A's leading m×m block (as a previous call left them) and only rows
+ * m … n − 1 are computed, each entry by the same arithmetic in the same order as a whole factorisation, so the
+ * bits are the same. Only the lower triangle is read; on success it holds L (the strict upper triangle is left
+ * untouched).
  *
- * A pivot at or below `relTol` times the largest diagonal entry means the matrix is singular to working
- * precision; the function then returns false (no throw: callers of the hot loop decide what to do).
- * Mutates `a`. Inner-loop routine: it checks its sizes only.
- * @throws {RangeError} if n is not a non-negative integer or `a` holds fewer than n² entries
+ * A pivot at or below `relTol` times the largest diagonal entry of the rows still to factor means the matrix is
+ * singular to working precision; the function then returns false (no throw: callers of the hot loop decide what
+ * to do). Mutates `a`. Inner-loop routine: it checks its sizes only.
+ * @throws {RangeError} if n is not a non-negative integer, `from` not within 0…n, or `a` holds fewer than n² entries
  */
-export function choleskyFactor(a: Float64Array, n: number, relTol = 1e-13): boolean {
+export function choleskyFactor(a: Float64Array, n: number, relTol = 1e-13, from = 0): boolean {
 	if (!Number.isInteger(n) || n < 0) throw new RangeError('n must be a non-negative integer');
+	if (!Number.isInteger(from) || from < 0 || from > n) throw new RangeError('from must be an integer within 0…n');
 	if (a.length < n * n) throw new RangeError('matrix buffer too small');
+	if (from > 0) return continueFactor(a, n, relTol, from);
 	let dmax = 0;
 	for (let i = 0; i < n; i++) if (a[i * n + i] > dmax) dmax = a[i * n + i];
 	const tol = relTol * dmax;
@@ -24,6 +31,34 @@ export function choleskyFactor(a: Float64Array, n: number, relTol = 1e-13): bool
 		a[rj + j] = ljj;
 		const inv = 1 / ljj;
 		for (let i = j + 1; i < n; i++) {
+			const ri = i * n;
+			let s = a[ri + j];
+			for (let k = 0; k < j; k++) s -= a[ri + k] * a[rj + k];
+			a[ri + j] = s * inv;
+		}
+	}
+	return true;
+}
+
+// choleskyFactor from row m > 0: the same loop, with the first m columns' pivots already in place and only rows
+// m … n − 1 computed. (Kept apart so that the whole factorisation, the benchmarks' floor, stays as lean as it was.)
+function continueFactor(a: Float64Array, n: number, relTol: number, from: number): boolean {
+	let dmax = 0;
+	for (let i = from; i < n; i++) if (a[i * n + i] > dmax) dmax = a[i * n + i];
+	const tol = relTol * dmax;
+	for (let j = 0; j < n; j++) {
+		const rj = j * n;
+		let ljj: number;
+		if (j < from) ljj = a[rj + j];
+		else {
+			let d = a[rj + j];
+			for (let k = 0; k < j; k++) d -= a[rj + k] * a[rj + k];
+			if (!(d > tol)) return false;
+			ljj = Math.sqrt(d);
+			a[rj + j] = ljj;
+		}
+		const inv = 1 / ljj;
+		for (let i = j < from ? from : j + 1; i < n; i++) {
 			const ri = i * n;
 			let s = a[ri + j];
 			for (let k = 0; k < j; k++) s -= a[ri + k] * a[rj + k];

@@ -2,8 +2,10 @@
  * Version of the engine's realization arithmetic. It goes up with any change that would alter a single bit
  * of any realization (random stream, path, search, kriging, transforms, target expansion), so a recipe
  * written by another version is recognised as such instead of silently regenerating different fields.
+ *
+ * History: ENGINE_VERSIONS.
  */
-export const ENGINE_VERSION = 'conefield-sgs/2';
+export const ENGINE_VERSION = 'conefield-sgs/3';
 
 /**
  * Every engine version that ever wrote recipes, oldest first, with what changed: a stored recipe names one
@@ -11,7 +13,12 @@ export const ENGINE_VERSION = 'conefield-sgs/2';
  */
 export const ENGINE_VERSIONS = [
 	{ version: 'conefield-sgs/1', change: 'first engine' },
-	{ version: 'conefield-sgs/2', change: 'a domain may carry a linear trend of the mean (DomainInput.trend)' }
+	{
+		version: 'conefield-sgs/2',
+		change: 'covariances from a table of cubic pieces in reduced distance (TabulatedCovariance); the multiple-grid path as a recipe option (search.path)'
+	},
+	// An engine of version 2 would ignore a trend it does not know and simulate a different field, hence 3.
+	{ version: 'conefield-sgs/3', change: 'a domain may carry a linear trend of the mean (DomainInput.trend)' }
 ] as const;
 
 /** Whether a recipe was written by this engine version (and so regenerates bit for bit here). */

@@ -53,7 +53,8 @@ export const domainInputSchema = z
 			maxData: z.number().int().nonnegative(),
 			maxSimulated: z.number().int().nonnegative(),
 			maxPerSounding: z.number().int().positive().optional(),
-			radius: z.object({ major: z.number().positive(), minor: z.number().positive(), vertical: z.number().positive() }).optional()
+			radius: z.object({ major: z.number().positive(), minor: z.number().positive(), vertical: z.number().positive() }).optional(),
+			path: z.enum(['random', 'multigrid']).optional()
 		})
 	})
 	.refine((d) => d.weights === undefined || d.weights.length === d.samples.length, { message: 'weights must match samples', path: ['weights'] })

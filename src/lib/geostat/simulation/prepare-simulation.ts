@@ -1,5 +1,6 @@
-import { compileVariogram, validateVariogramModel } from '../variogram/model';
-import type { CompiledVariogram } from '../variogram/model';
+import { validateVariogramModel } from '../variogram/model';
+import { tabulatedCovariance } from '../variogram/covariance-table';
+import type { TabulatedCovariance } from '../variogram/covariance-table';
 import { normalScore } from '../distribution/normal-score';
 import type { NormalScoreTable } from '../types';
 import { searchEllipsoid, normalisedCoordinates } from '../search/search-ellipsoid';
@@ -9,6 +10,8 @@ import { offsetTemplate } from '../search/offset-template';
 import type { OffsetTemplate } from '../search/offset-template';
 import { detectLattice } from './lattice';
 import type { Lattice } from './lattice';
+import { multigridLevel, multigridStrides } from './multigrid-path';
+import { SolutionCache } from './solution-cache';
 import type { DomainInput, SimulationInput, TargetPoints } from './types';
 import { trendResiduals, validateTrend, type LinearTrend } from './trend';
 
@@ -21,10 +24,35 @@ export const COINCIDENCE_TOLERANCE = 1e-6;
 // Covariance tables beyond this many entries cost more to fill than they save.
 const MAX_TABLE = 8_000_000;
 
+/** Default memory a prepared simulation (so one worker) may keep for reuse: 64 MiB. */
+export const DEFAULT_REUSE_BYTES = 64 * 1024 * 1024;
+
+/**
+ * Options of prepareSimulation; none changes a single bit of any realization.
+ *
+ * What is kept, in this order while the memory lasts (each domain in turn): each target's data search
+ * (maxData + 1 16-bit integers a target); the covariances between a domain's data when some are off the lattice
+ * (nd² doubles, filled as used); for data off the lattice, the data part of each target's factor and right-hand
+ * side, the same in every realization (maxData(maxData + 3)/2 doubles a target); and, with the rest, solved kriging
+ * systems whose neighbourhood signature repeats (SolutionCache; lattice mode with covariance tables only,
+ * allocated on first use, at most two slots a target).
+ */
+export interface PrepareOptions {
+	/** Memory for everything kept, in bytes; default DEFAULT_REUSE_BYTES. 0: nothing is kept, all is computed afresh. */
+	reuseBytes?: number;
+	/** Keep solved kriging systems (default true); false keeps only the data parts (for measuring what reuse adds). */
+	reuseSolutions?: boolean;
+	/**
+	 * Keep each target's data search and data factor (default true). They pay off from the second realization
+	 * on; simulate(), which runs one, sets false.
+	 */
+	keepPerTarget?: boolean;
+}
+
 /** One domain, ready for any number of realizations (internal layout, not part of the recipe). */
 export interface PreparedDomain {
 	index: number;
-	cov: CompiledVariogram;
+	cov: TabulatedCovariance;
 	sill: number;
 	mean: number;
 	ordinary: boolean;
@@ -58,6 +86,29 @@ export interface PreparedDomain {
 	tableHalf: [number, number, number];
 	/** General mode: bucket grid over the domain's targets (local indices). */
 	nodeGrid: BucketGrid | null;
+	/**
+	 * Multiple-grid path (lattice mode with a template only): strides per level (see multigridStrides), the
+	 * level of each path node, and per level ≥ 1 the template entries whose offsets lie on that level's grid
+	 * (the only cells that can hold a simulated node while the level is visited). Null for the random path.
+	 */
+	multigrid: { strides: Int32Array; level: Uint8Array; entries: Int32Array[] } | null;
+	/**
+	 * Covariances between data i and j at i·nd + j, NaN until first needed (filled by the simulation; the same
+	 * bits as evaluating them each time), or null when the domain has too many data to keep them.
+	 */
+	dataCov: Float64Array | null;
+	/**
+	 * The data search of each path node (by position in pathNodes), which depends on the target alone: at
+	 * p·(maxData + 1) the count (0xffff until first searched), then the chosen data. Null when there is no room.
+	 */
+	dataSelection: Uint16Array | null;
+	/**
+	 * Data off the lattice (or no lattice): per path node, the first kd rows of its system's Cholesky factor
+	 * (packed lower triangle) and of its right-hand side, which do not change between realizations; kept once
+	 * `dataFactorReady` is 1. Null when there is no room or the data come from the covariance table.
+	 */
+	dataFactor: Float64Array | null;
+	dataFactorReady: Uint8Array | null;
 }
 
 /** A simulation prepared once and realized many times (see simulatePrepared). */
@@ -70,23 +121,26 @@ export interface PreparedSimulation {
 	domains: PreparedDomain[];
 	/** Number of targets with a domain. */
 	active: number;
+	/** Solved systems kept for reuse (lattice mode with covariance tables), or null. Never changes a result. */
+	cache: SolutionCache | null;
 }
 
 /**
  * Validates a simulation input against its targets and prepares everything that does not depend on the
  * realization: normal-score transforms (Deutsch & Journel 1998, ch. V), merged data, search structures,
- * the lattice with its offset template and covariance table. Does not mutate its inputs (targets are kept
- * by reference).
+ * the lattice with its offset template and covariance table, the multiple-grid levels, and a cache for reusing
+ * solved kriging systems (see PrepareOptions). Does not mutate its inputs (targets are kept by reference); the
+ * prepared simulation's caches fill as realizations run, without changing any result.
  * @throws {TypeError} on malformed input
  * @throws {RangeError} on bad sizes, non-finite numbers, domain indices out of range, or a normal-score
  *   domain without samples
  */
-export function prepareSimulation(input: SimulationInput, targets: TargetPoints): PreparedSimulation {
+export function prepareSimulation(input: SimulationInput, targets: TargetPoints, options: PrepareOptions = {}): PreparedSimulation {
+	const { reuseBytes = DEFAULT_REUSE_BYTES, reuseSolutions = true, keepPerTarget = true } = options;
+	if (!(reuseBytes >= 0)) throw new RangeError('reuseBytes must be >= 0');
 	if (input === null || typeof input !== 'object') throw new TypeError('input must be an object');
 	if (typeof input.seed !== 'string') throw new TypeError('seed must be a string');
 	if (!Array.isArray(input.domains)) throw new TypeError('domains must be an array');
-	// Simulated lattice cells are marked with 1 + their domain in a Uint16Array.
-	if (input.domains.length > 65534) throw new RangeError('at most 65534 domains');
 	checkTargets(targets, input.domains.length);
 	const n = targets.domain.length;
 	let active = 0;
@@ -94,7 +148,52 @@ export function prepareSimulation(input: SimulationInput, targets: TargetPoints)
 	const lattice = detectLattice(targets);
 	const datumAt = new Int32Array(n).fill(-1);
 	const domains = input.domains.map((d, index) => prepareDomain(d, index, targets, lattice, datumAt));
-	return { seed: input.seed, targets, lattice, datumAt, domains, active };
+	const left = keepDataParts(domains, reuseBytes, keepPerTarget);
+	return { seed: input.seed, targets, lattice, datumAt, domains, active, cache: reuseSolutions ? solutionCache(domains, left) : null };
+}
+
+/** Allocates the kept data parts (see PrepareOptions) within `bytes`; returns the bytes left. */
+function keepDataParts(domains: PreparedDomain[], bytes: number, perTarget: boolean): number {
+	const withData = domains.filter((d) => d.nd > 0 && d.maxData > 0 && !d.ellipsoid.empty);
+	// Off the lattice (or without a covariance table) data covariances are evaluated, not read from the table.
+	const offLattice = (d: PreparedDomain) => d.covTable === null || d.donlat.includes(0);
+	let left = bytes;
+	for (const d of withData) {
+		const size = d.pathNodes.length * (d.maxData + 1);
+		if (perTarget && d.nd < 0xffff && d.maxData < 0xffff && 2 * size <= left) {
+			d.dataSelection = new Uint16Array(size).fill(0xffff);
+			left -= 2 * size;
+		}
+	}
+	for (const d of withData) {
+		if (d.nd > 1 && offLattice(d) && 8 * d.nd * d.nd <= left) {
+			d.dataCov = new Float64Array(d.nd * d.nd).fill(NaN);
+			left -= 8 * d.nd * d.nd;
+		}
+	}
+	for (const d of withData) {
+		const size = ((d.maxData * (d.maxData + 3)) / 2) * d.pathNodes.length;
+		if (perTarget && offLattice(d) && 8 * size + d.pathNodes.length <= left) {
+			d.dataFactor = new Float64Array(size);
+			d.dataFactorReady = new Uint8Array(d.pathNodes.length);
+			left -= 8 * size + d.pathNodes.length;
+		}
+	}
+	return left;
+}
+
+/** The solution cache: for domains with a covariance table, sized to the budget and the number of path nodes. */
+function solutionCache(domains: PreparedDomain[], bytes: number): SolutionCache | null {
+	let kmax = 0;
+	let nodes = 0;
+	for (const d of domains) {
+		if (d.covTable === null) continue;
+		kmax = Math.max(kmax, d.maxData + d.maxSimulated);
+		nodes += d.pathNodes.length;
+	}
+	if (kmax === 0) return null;
+	const slots = Math.min(Math.floor(bytes / SolutionCache.bytesPerSlot(kmax)), 2 * nodes + 2);
+	return slots >= 2 ? new SolutionCache(kmax, slots) : null;
 }
 
 function checkTargets(t: TargetPoints, nDomains: number): void {
@@ -137,6 +236,7 @@ function checkDomain(d: DomainInput): void {
 	if (s.maxPerSounding !== undefined && (!Number.isInteger(s.maxPerSounding) || s.maxPerSounding < 1)) {
 		throw new RangeError('maxPerSounding must be an integer >= 1');
 	}
+	if (s.path !== undefined && s.path !== 'random' && s.path !== 'multigrid') throw new TypeError("path must be 'random' or 'multigrid'");
 	if (d.transform === 'normal-score' && d.samples.length === 0) throw new RangeError('a normal-score domain needs samples');
 	if (d.trend !== undefined) validateTrend(d.trend);
 }
@@ -149,7 +249,7 @@ function prepareDomain(
 	datumAt: Int32Array
 ): PreparedDomain {
 	checkDomain(d);
-	const cov = compileVariogram(d.model);
+	const cov = tabulatedCovariance(d.model);
 	const ellipsoid = searchEllipsoid(d.model, d.search.radius);
 	// With a trend the kriged space is that of the residuals (Goovaerts 1997, ch. 8: simulate residuals, add the trend back).
 	let kvals = d.trend ? trendResiduals(d.samples, d.trend) : d.samples.map((s) => s.value);
@@ -222,7 +322,10 @@ function prepareDomain(
 				}
 			}
 		}
-	} else {
+	}
+	let multigrid: PreparedDomain['multigrid'] = null;
+	if (template && lattice && d.search.path === 'multigrid') multigrid = multigridOf(template, lattice, path);
+	if (!template || !lattice) {
 		const tn = new Float64Array(3 * targets.length);
 		for (let i = 0; i < targets.length; i++) {
 			const g = targets[i];
@@ -254,8 +357,34 @@ function prepareDomain(
 		templateCells,
 		covTable,
 		tableHalf,
-		nodeGrid
+		nodeGrid,
+		multigrid,
+		dataCov: null,
+		dataSelection: null,
+		dataFactor: null,
+		dataFactorReady: null
 	};
+}
+
+/** The multiple-grid levels of a domain's path nodes and the template entries of each coarse level. */
+function multigridOf(template: OffsetTemplate, lattice: Lattice, path: number[]): PreparedDomain['multigrid'] {
+	const strides = multigridStrides(template.reach, lattice.counts);
+	const [cx, cy] = lattice.counts;
+	const level = new Uint8Array(path.length);
+	path.forEach((g, p) => {
+		const c = lattice.cellOf[g];
+		level[p] = multigridLevel(strides, c % cx, Math.floor(c / cx) % cy, Math.floor(c / (cx * cy)));
+	});
+	const entries: Int32Array[] = [new Int32Array(0)];
+	const o = template.offsets;
+	for (let l = 1; l < strides.length / 3; l++) {
+		const keep: number[] = [];
+		for (let e = 0; e < template.count; e++) {
+			if (o[3 * e] % strides[3 * l] === 0 && o[3 * e + 1] % strides[3 * l + 1] === 0 && o[3 * e + 2] % strides[3 * l + 2] === 0) keep.push(e);
+		}
+		entries.push(Int32Array.from(keep));
+	}
+	return { strides, level, entries };
 }
 
 interface MergedData {

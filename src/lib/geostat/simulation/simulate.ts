@@ -7,6 +7,8 @@ import { choleskyFactor, choleskySolve } from '../linalg/cholesky';
 import { prepareSimulation } from './prepare-simulation';
 import { trendValue } from './trend';
 import type { PreparedDomain, PreparedSimulation } from './prepare-simulation';
+import { multigridLevel, multigridPath } from './multigrid-path';
+import { signatureHash } from './solution-cache';
 import type { SimulationInput, TargetPoints } from './types';
 
 /**
@@ -22,10 +24,12 @@ export function realizationStream(seed: string, realization: number, domain: num
 /**
  * Sequential Gaussian simulation (Deutsch & Journel 1998, ch. V.2.3; Goovaerts 1997, ch. 8; Isaaks 1990):
  * one conditional realization of every domain's field at the target points, in original units (NaN where
- * the target's domain is −1). Domain by domain, a seeded random path visits the domain's targets; at each
+ * the target's domain is −1). Domain by domain, a seeded random path (or a multiple-grid path, see
+ * multigridPath) visits the domain's targets; at each
  * the nearest conditioning data (≤ maxData, ≤ maxPerSounding from one sounding) and previously simulated
  * nodes (≤ maxSimulated) inside the search ellipsoid, ranked by the ellipsoid's normalised (anisotropic)
- * distance, enter a simple or ordinary kriging system; the node gets estimate + √variance·N(0,1), drawn by
+ * distance, enter a simple or ordinary kriging system (covariances as TabulatedCovariance evaluates them);
+ * the node gets estimate + √variance·N(0,1), drawn by
  * Φ⁻¹ of a uniform (Wichura 1988), and is back-transformed from normal scores; a domain's trend of the mean
  * (DomainInput.trend) is added back after the back-transform. Targets within
  * COINCIDENCE_TOLERANCE of a datum take the datum's value exactly. With no neighbour at all a node is drawn
@@ -41,18 +45,22 @@ export function simulate(
 	realization: number,
 	onProgress?: (done: number, total: number) => void
 ): Float64Array {
-	return simulatePrepared(prepareSimulation(input, targets), realization, onProgress);
+	return simulatePrepared(prepareSimulation(input, targets, { keepPerTarget: false }), realization, onProgress);
 }
 
-/** Counters a caller may pass to simulatePrepared (benchmarks): kriging systems solved and their total size. */
+/**
+ * Counters a caller may pass to simulatePrepared (benchmarks): kriging systems (one per simulated node), their
+ * total size, and how many took a solution already solved for the same neighbourhood signature.
+ */
 export interface SimulationStats {
 	systems: number;
 	neighbours: number;
+	reused: number;
 }
 
 /**
  * simulate() for a prepared input: the same bits, without repeating the preparation for each realization.
- * Does not mutate the prepared simulation; adds to `stats` if given.
+ * Fills the prepared simulation's caches (never changing a result); adds to `stats` if given.
  * @throws {RangeError} if realization is not a non-negative safe integer
  */
 export function simulatePrepared(
@@ -67,15 +75,18 @@ export function simulatePrepared(
 	const y = new Float64Array(n);
 	// 0: not yet simulated, 1: simulated, 2: at a datum (its datum conditions instead, never counted twice).
 	const state = new Uint8Array(n);
-	// Lattice mode: per cell, 1 + the domain of a simulated node there (0: none yet). One compact array,
-	// read in the template walk instead of three scattered ones.
-	const ready = prep.lattice ? new Uint16Array(prep.lattice.cell.length) : null;
+	// Lattice mode: one bit per cell, set once the domain being simulated has a node there (cleared between
+	// domains). The template walk reads it at scattered cells: a bit a cell keeps it in the processor's caches.
+	const ready = prep.lattice ? new Uint8Array((prep.lattice.cell.length + 7) >> 3) : null;
 	// ...and the simulated value by cell, so a neighbour's value is one read near the others, not two.
 	const yCell = prep.lattice ? new Float64Array(prep.lattice.cell.length) : null;
 	const progress = { done: 0, total: prep.active, step: Math.max(1, Math.floor(prep.active / 100)), next: 0, cb: onProgress };
 	progress.next = progress.step;
-	const counters = stats ?? { systems: 0, neighbours: 0 };
-	for (const dom of prep.domains) simulateDomain(prep, dom, realization, out, y, state, ready, yCell, progress, counters);
+	const counters = stats ?? { systems: 0, neighbours: 0, reused: 0 };
+	for (const dom of prep.domains) {
+		if (ready) ready.fill(0);
+		simulateDomain(prep, dom, realization, out, y, state, ready, yCell, progress, counters);
+	}
 	if (onProgress) onProgress(prep.active, prep.active);
 	return out;
 }
@@ -95,7 +106,7 @@ function simulateDomain(
 	out: Float64Array,
 	y: Float64Array,
 	state: Uint8Array,
-	ready: Uint16Array | null,
+	ready: Uint8Array | null,
 	yCell: Float64Array | null,
 	progress: Progress,
 	stats: SimulationStats
@@ -118,13 +129,21 @@ function simulateDomain(
 		}
 	}
 
-	const path = dom.pathNodes.slice();
-	// Fisher–Yates shuffle (Knuth 1997, TAOCP vol. 2, alg. 3.4.2 P).
-	for (let i = path.length - 1; i > 0; i--) {
-		const j = Math.floor(rand() * (i + 1));
-		const tmp = path[i];
-		path[i] = path[j];
-		path[j] = tmp;
+	// The path as positions in dom.pathNodes (the same permutation as of the nodes themselves), so per-node
+	// kept results (the data search) are found by position.
+	const nodes = dom.pathNodes;
+	const mg = dom.multigrid;
+	let path: Int32Array;
+	if (mg) path = multigridPath(identity(nodes.length), mg.level, rand);
+	else {
+		path = identity(nodes.length);
+		// Fisher–Yates shuffle (Knuth 1997, TAOCP vol. 2, alg. 3.4.2 P).
+		for (let i = path.length - 1; i > 0; i--) {
+			const j = Math.floor(rand() * (i + 1));
+			const tmp = path[i];
+			path[i] = path[j];
+			path[j] = tmp;
+		}
 	}
 
 	const { cov, sill, mean, ordinary, maxData, maxSimulated } = dom;
@@ -134,9 +153,9 @@ function simulateDomain(
 	const candD2 = new Float64Array(ncand);
 	const selIdx = new Int32Array(Math.max(kmax, 1));
 	const selD2 = new Float64Array(Math.max(kmax, 1));
-	const px = new Float64Array(kmax);
-	const py = new Float64Array(kmax);
-	const pz = new Float64Array(kmax);
+	const px = new Float64Array(kmax + 1);
+	const py = new Float64Array(kmax + 1);
+	const pz = new Float64Array(kmax + 1);
 	const pv = new Float64Array(kmax);
 	const a = new Float64Array(kmax * kmax);
 	const rhs = new Float64Array(kmax);
@@ -159,32 +178,172 @@ function simulateDomain(
 	const [ldx, ldy, ldz] = lat ? lat.spacing : [1, 1, 1];
 	const useData = dom.nd > 0 && maxData > 0 && !dom.ellipsoid.empty;
 	const useNodes = maxSimulated > 0 && !dom.ellipsoid.empty;
-
+	// Reuse needs every entry's covariances from the table: then the signature fixes the system.
+	const cache = table !== null ? prep.cache : null;
+	const key = new Int32Array(kmax);
+	const nd = dom.nd;
+	const dataCov = dom.dataCov;
+	const dataSel = dom.dataSelection;
+	const selStride = maxData + 1;
+	const dataFactor = dom.dataFactor;
+	const factorReady = dom.dataFactorReady;
+	const factorStride = (maxData * (maxData + 1)) / 2 + maxData;
+	// Datum index of each system entry (−1 for a simulated node), for the kept data–data covariances.
+	const pid = new Int32Array(kmax);
+	const DX = dom.dx;
+	const DY = dom.dy;
+	const DZ = dom.dz;
 	// Table position of each system entry on the lattice (−1 off it): the covariance of two entries on the
 	// lattice is table[centre + tp[p] − tp[q]], always in range (see tableHalf in prepareSimulation).
 	const tp = new Int32Array(kmax);
-	const buildSystem = (k: number, tq: number, x0: number, y0: number, z0: number, ridge: number): void => {
-		for (let p = 0; p < k; p++) {
-			const tpp = tp[p];
-			const xp = px[p];
-			const yp = py[p];
-			const zp = pz[p];
-			rhs[p] = tpp >= 0 && tq >= 0 ? table![centre + tpp - tq] : cov.covariance(xp - x0, yp - y0, zp - z0);
-			const row = p * k;
-			if (tpp >= 0) {
-				const base = centre + tpp;
-				for (let r = 0; r < p; r++) {
-					const tr = tp[r];
-					a[row + r] = tr >= 0 ? table![base - tr] : cov.covariance(xp - px[r], yp - py[r], zp - pz[r]);
-				}
-			} else {
-				for (let r = 0; r < p; r++) a[row + r] = cov.covariance(xp - px[r], yp - py[r], zp - pz[r]);
+	// The system's covariances. Two entries both on the lattice take the table; two data the kept data–data
+	// covariances when there are some; anything else is evaluated, in rows (cov.row) where it can. Each is the
+	// same bits the covariance gives for that pair (C(h) = C(−h) too). The target sits at index kmax of px, py,
+	// pz, so the right-hand side is a row too. `off`: how many of the kd data are off the lattice.
+	/** rhs[p]: covariance of entry p and the target. */
+	const buildRhs = (k: number, kd: number, off: number, tq: number): void => {
+		buildRhsData(kd, off, tq);
+		buildRhsNodes(k, kd, tq);
+	};
+	const buildRhsData = (kd: number, off: number, tq: number): void => {
+		if (tq < 0 || off === kd) cov.row(rhs, 0, px, py, pz, kmax, 0, kd);
+		else {
+			for (let p = 0; p < kd; p++) {
+				if (tp[p] >= 0) rhs[p] = table![centre + tp[p] - tq];
+				else cov.pair(rhs, p, px, py, pz, kmax, px, py, pz, p);
 			}
-			a[row + p] = sill * ridge;
 		}
 	};
+	const buildRhsNodes = (k: number, kd: number, tq: number): void => {
+		if (tq < 0) cov.row(rhs, kd, px, py, pz, kmax, kd, k);
+		else for (let p = kd; p < k; p++) rhs[p] = table![centre + tp[p] - tq];
+	};
+	/** Rows p < kd (data) of the lower triangle. */
+	const buildDataRows = (k: number, kd: number, off: number): void => {
+		for (let p = 0; p < kd; p++) {
+			const row = p * k;
+			const tpp = tp[p];
+			if (dataCov === null) {
+				if (off === kd) cov.row(a, row, px, py, pz, p, 0, p);
+				else {
+					for (let r = 0; r < p; r++) {
+						if (tpp >= 0 && tp[r] >= 0) a[row + r] = table![centre + tpp - tp[r]];
+						else cov.pair(a, row + r, px, py, pz, p, px, py, pz, r);
+					}
+				}
+				continue;
+			}
+			const ip = pid[p];
+			for (let r = 0; r < p; r++) {
+				const tr = tp[r];
+				if (tpp >= 0 && tr >= 0) {
+					a[row + r] = table![centre + tpp - tr];
+					continue;
+				}
+				const at = ip * nd + pid[r];
+				if (dataCov[at] !== dataCov[at]) {
+					cov.pair(dataCov, at, DX, DY, DZ, ip, DX, DY, DZ, pid[r]);
+					// C(h) = C(−h) bit for bit, so one evaluation serves both orders.
+					dataCov[pid[r] * nd + ip] = dataCov[at];
+				}
+				a[row + r] = dataCov[at];
+			}
+		}
+	};
+	/** Rows p ≥ kd (simulated nodes) of the lower triangle. */
+	const buildNodeRows = (k: number, kd: number, off: number): void => {
+		for (let p = kd; p < k; p++) {
+			const row = p * k;
+			const tpp = tp[p];
+			if (tpp < 0) {
+				cov.row(a, row, px, py, pz, p, 0, p);
+				continue;
+			}
+			const base = centre + tpp;
+			if (off === kd) cov.row(a, row, px, py, pz, p, 0, kd);
+			else {
+				for (let r = 0; r < kd; r++) {
+					if (tp[r] >= 0) a[row + r] = table![base - tp[r]];
+					else cov.pair(a, row + r, px, py, pz, p, px, py, pz, r);
+				}
+			}
+			for (let r = kd; r < p; r++) a[row + r] = table![base - tp[r]];
+		}
+	};
+	/** The lower triangle of the system and its right-hand side; ridged: 1 + 1e-9 times the sill on the diagonal. */
+	const buildSystem = (k: number, kd: number, off: number, tq: number, ridged: boolean): void => {
+		buildRhs(k, kd, off, tq);
+		buildDataRows(k, kd, off);
+		buildNodeRows(k, kd, off);
+		const diag = ridged ? sill * (1 + 1e-9) : sill * 1;
+		for (let p = 0; p < k; p++) a[p * k + p] = diag;
+	};
+	/**
+	 * Builds, factors and solves the system of k entries: leaves the simple-kriging weights, or the ordinary-kriging
+	 * λ = w − μ·u (with K·w = k₀, K·u = 1, μ = (Σw − 1)/Σu), in `w` and returns the kriging variance (≥ 0).
+	 */
+	const solve = (k: number, kd: number, off: number, tq: number, g: number, pos: number): number => {
+		// The data part of a target's system (its first kd rows of the factor and of the right-hand side) is the
+		// same in every realization: kept after the first, and the factorisation continued from row kd.
+		const fo = pos * factorStride;
+		let ok: boolean;
+		if (factorReady !== null && factorReady[pos] === 1) {
+			let f = fo;
+			for (let i = 0; i < kd; i++) {
+				const row = i * k;
+				for (let j = 0; j <= i; j++) a[row + j] = dataFactor![f++];
+			}
+			for (let i = 0; i < kd; i++) rhs[i] = dataFactor![f++];
+			buildRhsNodes(k, kd, tq);
+			buildNodeRows(k, kd, off);
+			const diag = sill * 1;
+			for (let p = kd; p < k; p++) a[p * k + p] = diag;
+			ok = choleskyFactor(a, k, 1e-13, kd);
+		} else {
+			buildSystem(k, kd, off, tq, false);
+			ok = choleskyFactor(a, k);
+			if (ok && factorReady !== null && kd > 0) {
+				let f = fo;
+				for (let i = 0; i < kd; i++) {
+					const row = i * k;
+					for (let j = 0; j <= i; j++) dataFactor![f++] = a[row + j];
+				}
+				for (let i = 0; i < kd; i++) dataFactor![f++] = rhs[i];
+				factorReady[pos] = 1;
+			}
+		}
+		if (!ok) {
+			// A tiny ridge (1e-9 of the sill) rescues systems that are singular only to rounding, e.g. a
+			// Gaussian model without nugget at close points; common practice.
+			buildSystem(k, kd, off, tq, true);
+			if (!choleskyFactor(a, k)) throw new Error(`singular kriging system at target ${g}`);
+		}
+		choleskySolve(a, k, rhs, w);
+		let variance: number;
+		if (!ordinary) {
+			variance = sill;
+			for (let p = 0; p < k; p++) variance -= w[p] * rhs[p];
+		} else {
+			choleskySolve(a, k, ones, u1);
+			let sw = 0;
+			let su = 0;
+			for (let p = 0; p < k; p++) {
+				sw += w[p];
+				su += u1[p];
+			}
+			const mu = (sw - 1) / su;
+			variance = sill - mu;
+			for (let p = 0; p < k; p++) {
+				const lam = w[p] - mu * u1[p];
+				w[p] = lam;
+				variance -= lam * rhs[p];
+			}
+		}
+		return variance < 0 ? 0 : variance;
+	};
 	for (let step = 0; step < path.length; step++) {
-		const g = path[step];
+		const pos = path[step];
+		const g = nodes[pos];
 		let uu = rand();
 		// Φ⁻¹(0) is −∞; a zero from a 53-bit uniform (chance 2⁻⁵³) is nudged to the smallest step.
 		if (uu === 0) uu = 1.1102230246251565e-16;
@@ -211,17 +370,40 @@ function simulateDomain(
 			z0 = Z[g];
 		}
 		normalisedCoordinates(dom.ellipsoid, x0, y0, z0, q);
+		px[kmax] = x0;
+		py[kmax] = y0;
+		pz[kmax] = z0;
 		let k = 0;
+		let kd = 0;
+		let off = 0;
 		if (useData) {
-			const m = dom.dataGrid.query(q[0], q[1], q[2], candIdx, candD2);
-			const kd = selectNearest(candIdx, candD2, m, maxData, selIdx, selD2, dom.dgroup, dom.maxPerSounding);
+			// The data search depends on the target alone: kept from an earlier realization when there is room.
+			let sel: Int32Array | Uint16Array = selIdx;
+			let so = 0;
+			if (dataSel !== null) {
+				so = pos * selStride;
+				if (dataSel[so] === 0xffff) {
+					const m = dom.dataGrid.query(q[0], q[1], q[2], candIdx, candD2);
+					const n = selectNearest(candIdx, candD2, m, maxData, selIdx, selD2, dom.dgroup, dom.maxPerSounding);
+					for (let s = 0; s < n; s++) dataSel[so + 1 + s] = selIdx[s];
+					dataSel[so] = n;
+				}
+				kd = dataSel[so];
+				sel = dataSel;
+				so++;
+			} else {
+				const m = dom.dataGrid.query(q[0], q[1], q[2], candIdx, candD2);
+				kd = selectNearest(candIdx, candD2, m, maxData, selIdx, selD2, dom.dgroup, dom.maxPerSounding);
+			}
 			for (let s = 0; s < kd; s++) {
-				const i = selIdx[s];
+				const i = sel[so + s];
 				px[k] = dom.dx[i];
 				py[k] = dom.dy[i];
 				pz[k] = dom.dz[i];
 				pv[k] = dom.dval[i];
 				tp[k] = table !== null && dom.donlat[i] === 1 ? dom.dlat[3 * i] * sx + dom.dlat[3 * i + 1] * sy + dom.dlat[3 * i + 2] : -1;
+				pid[k] = i;
+				if (tp[k] < 0) off++;
 				k++;
 			}
 		}
@@ -230,11 +412,16 @@ function simulateDomain(
 				const offs = tmpl.offsets;
 				const cellOfs = dom.templateCells!;
 				const c0 = lat!.cellOf[g];
-				const mark = d + 1;
 				// Away from the lattice's faces every offset of the template lands inside it: no bounds checks.
 				const inside = gi >= ex && gi < cx - ex && gj >= ey && gj < cy - ey && gk >= ez && gk < cz - ez;
+				// On a coarse level of a multiple-grid path only that level's grid can hold simulated nodes: walk
+				// its entries alone (the same nodes in the same order as the whole template, found sooner).
+				const lv = mg ? multigridLevel(mg.strides, gi, gj, gk) : 0;
+				const list = lv > 0 ? mg!.entries[lv] : null;
+				const ne = list ? list.length : tmpl.count;
 				let found = 0;
-				for (let e = 0, ne = tmpl.count; e < ne && found < maxSimulated; e++) {
+				for (let n = 0; n < ne && found < maxSimulated; n++) {
+					const e = list ? list[n] : n;
 					let c: number;
 					if (inside) c = c0 + cellOfs[e];
 					else {
@@ -244,7 +431,7 @@ function simulateDomain(
 						if (ii < 0 || ii >= cx || jj < 0 || jj >= cy || kk < 0 || kk >= cz) continue;
 						c = (kk * cy + jj) * cx + ii;
 					}
-					if (ready![c] !== mark) continue;
+					if ((ready![c >> 3] & (1 << (c & 7))) === 0) continue;
 					const ii = gi + offs[3 * e];
 					const jj = gj + offs[3 * e + 1];
 					const kk = gk + offs[3 * e + 2];
@@ -254,6 +441,7 @@ function simulateDomain(
 					pz[k] = loz + kk * ldz;
 					pv[k] = yCell![c];
 					tp[k] = table !== null ? ii * sx + jj * sy + kk : -1;
+					pid[k] = -1;
 					k++;
 					found++;
 				}
@@ -276,6 +464,7 @@ function simulateDomain(
 					pz[k] = Z[h];
 					pv[k] = y[h];
 					tp[k] = -1;
+					pid[k] = -1;
 					k++;
 				}
 			}
@@ -287,42 +476,46 @@ function simulateDomain(
 		stats.neighbours += k;
 		if (k > 0) {
 			const tq = table !== null ? gi * sx + gj * sy + gk : -1;
-			buildSystem(k, tq, x0, y0, z0, 1);
-			if (!choleskyFactor(a, k)) {
-				// A tiny ridge (1e-9 of the sill) rescues systems that are singular only to rounding, e.g. a
-				// Gaussian model without nugget at close points; common practice.
-				buildSystem(k, tq, x0, y0, z0, 1 + 1e-9);
-				if (!choleskyFactor(a, k)) throw new Error(`singular kriging system at target ${g}`);
-			}
-			choleskySolve(a, k, rhs, w);
-			if (!ordinary) {
+			// The signature: every entry's lattice offset from the target, in system order.
+			let slot = -1;
+			let hash = 0;
+			let reusable = cache !== null;
+			if (reusable) {
 				for (let p = 0; p < k; p++) {
-					est += w[p] * (pv[p] - mean);
-					variance -= w[p] * rhs[p];
+					if (tp[p] < 0) {
+						reusable = false;
+						break;
+					}
+					key[p] = tp[p] - tq;
 				}
+				if (reusable) {
+					hash = signatureHash(d, k, key);
+					slot = cache!.find(d, k, key, hash);
+				}
+			}
+			// Weights (simple kriging) or λ (ordinary kriging), and where they are.
+			let wts: Float64Array = w;
+			let at = 0;
+			if (slot >= 0) {
+				wts = cache!.values();
+				at = cache!.valueOffset(slot);
+				variance = wts[at + cache!.kmax];
+				stats.reused++;
 			} else {
-				choleskySolve(a, k, ones, u1);
-				let sw = 0;
-				let su = 0;
-				for (let p = 0; p < k; p++) {
-					sw += w[p];
-					su += u1[p];
-				}
-				const mu = (sw - 1) / su;
-				est = 0;
-				variance = sill - mu;
-				for (let p = 0; p < k; p++) {
-					const lam = w[p] - mu * u1[p];
-					est += lam * pv[p];
-					variance -= lam * rhs[p];
-				}
+				variance = solve(k, kd, off, tq, g, pos);
+				if (reusable) cache!.store(d, k, key, hash, w, variance);
 			}
-			if (variance < 0) variance = 0;
+			if (!ordinary) {
+				for (let p = 0; p < k; p++) est += wts[at + p] * (pv[p] - mean);
+			} else {
+				est = 0;
+				for (let p = 0; p < k; p++) est += wts[at + p] * pv[p];
+			}
 		}
 		y[g] = est + Math.sqrt(variance) * zdev;
 		state[g] = 1;
 		if (ready) {
-			ready[gc] = d + 1;
+			ready[gc >> 3] |= 1 << (gc & 7);
 			yCell![gc] = y[g];
 		}
 		if (++progress.done >= progress.next) {
@@ -341,4 +534,11 @@ function simulateDomain(
 			out[g] = trend ? v + trendValue(trend, X[g], Y[g], Z[g]) : v;
 		}
 	}
+}
+
+
+function identity(n: number): Int32Array {
+	const out = new Int32Array(n);
+	for (let i = 0; i < n; i++) out[i] = i;
+	return out;
 }

@@ -19,6 +19,13 @@ export interface SearchOptions {
 	maxPerSounding?: number;
 	/** Semi-axes of the search ellipsoid (same orientation as the model); default the model's largest ranges. */
 	radius?: { major: number; minor: number; vertical: number };
+	/**
+	 * Order in which the domain's targets are visited: 'random' (default), or 'multigrid' — coarse grids first,
+	 * then finer ones, each in random order (see multigridPath), which reproduces long ranges with a small search.
+	 * 'multigrid' needs targets on a regular lattice (a grid) and a search small enough for a grid template
+	 * (at most 4 million cells); elsewhere the path is random.
+	 */
+	path?: 'random' | 'multigrid';
 }
 
 /** Everything one domain of a simulation needs. */

@@ -1,0 +1,171 @@
+import { describe, it, expect } from 'vitest';
+import { prepareSimulation, simulatePrepared, simulate, sha256, recipeInput, targetsFromDefinition, dataReproduction } from '../../../src/lib/geostat/index';
+import type { PrepareOptions, Sample, SimulationInput, SimulationStats, TargetPoints, VariogramModel } from '../../../src/lib/geostat/index';
+import { demoRecipe } from '../../../scripts/demo-recipe';
+
+// Reuse (issue 16) must not change a single bit: realizations with everything kept and reused (solved kriging
+// systems, data searches, data covariances) against the same realizations computed afresh, by the SHA-256 of
+// their Float64 bytes. Each case also checks that reuse really happened, so the comparison is not vacuous.
+
+function hash(v: Float64Array): string {
+	return sha256(new Uint8Array(v.buffer, v.byteOffset, v.byteLength));
+}
+
+function grid(nx: number, ny: number, nz: number, dx: number, dy: number, dz: number): TargetPoints {
+	const n = nx * ny * nz;
+	const t: TargetPoints = { x: new Float64Array(n), y: new Float64Array(n), z: new Float64Array(n), domain: new Int32Array(n) };
+	let p = 0;
+	for (let k = 0; k < nz; k++) {
+		for (let j = 0; j < ny; j++) {
+			for (let i = 0; i < nx; i++, p++) {
+				t.x[p] = i * dx;
+				t.y[p] = j * dy;
+				t.z[p] = -k * dz;
+			}
+		}
+	}
+	return t;
+}
+
+/** Soundings at plan positions, a reading every `step` m from the top (on the lattice when step is the cell height). */
+function soundings(plan: [number, number][], readings: number, step: number): Sample[] {
+	const out: Sample[] = [];
+	plan.forEach(([x, y], s) => {
+		for (let k = 0; k < readings; k++) out.push({ x, y, z: -k * step, value: 5 + ((s * 7 + k * 13) % 11) + 0.1 * k, sounding: `S${s}` });
+	});
+	return out;
+}
+
+function withPath(input: SimulationInput, path: 'random' | 'multigrid'): SimulationInput {
+	return { ...input, domains: input.domains.map((d) => ({ ...d, search: { ...d.search, path } })) };
+}
+
+/** Hashes of realizations 0…n−1 run one after another on one prepared simulation, and its counters. */
+function run(input: SimulationInput, targets: TargetPoints, n: number, options: PrepareOptions) {
+	const prep = prepareSimulation(input, targets, options);
+	const stats: SimulationStats = { systems: 0, neighbours: 0, reused: 0 };
+	const hashes = Array.from({ length: n }, (_, r) => hash(simulatePrepared(prep, r, undefined, stats)));
+	return { hashes, stats, prep };
+}
+
+const section = (): { input: SimulationInput; targets: TargetPoints } => {
+	// 100 m × 10 m at 1 × 0.25 m, 8 soundings with readings on the lattice: on-lattice data enter signatures.
+	const targets = grid(100, 1, 40, 1, 1, 0.25);
+	const model: VariogramModel = { azimuth: 90, structures: [{ type: 'exponential', sill: 1, rangeMajor: 40, rangeMinor: 40, rangeVertical: 1 }] };
+	const samples = soundings(Array.from({ length: 8 }, (_, b) => [6 + 12 * b, 0] as [number, number]), 40, 0.25);
+	return { targets, input: { seed: 'reuse-section', domains: [{ samples, model, transform: 'normal-score', kriging: 'simple', search: { maxData: 16, maxSimulated: 16 } }] } };
+};
+
+const block = (): { input: SimulationInput; targets: TargetPoints } => {
+	// 24 × 24 × 12 at 2 × 2 × 0.25 m, 4 soundings; a second domain (the bottom quarter) with ordinary kriging.
+	const targets = grid(24, 24, 12, 2, 2, 0.25);
+	for (let i = 0; i < targets.z.length; i++) targets.domain[i] = targets.z[i] < -2 ? 1 : 0;
+	const model: VariogramModel = { azimuth: 30, structures: [{ type: 'nugget', sill: 0.1, rangeMajor: 0, rangeMinor: 0, rangeVertical: 0 }, { type: 'exponential', sill: 0.9, rangeMajor: 24, rangeMinor: 16, rangeVertical: 1.5 }] };
+	const samples = soundings([[10, 10], [36, 12], [14, 34], [38, 40]], 12, 0.25);
+	return {
+		targets,
+		input: {
+			seed: 'reuse-block',
+			domains: [
+				{ samples: samples.filter((s) => s.z >= -2), model, transform: 'normal-score', kriging: 'simple', search: { maxData: 12, maxSimulated: 16, maxPerSounding: 4 } },
+				{ samples: samples.filter((s) => s.z < -2), model, transform: 'none', mean: 8, kriging: 'ordinary', search: { maxData: 8, maxSimulated: 12 } }
+			]
+		}
+	};
+};
+
+describe('simulate with reuse on and off (same bits)', () => {
+	for (const path of ['random', 'multigrid'] as const) {
+		it(`section, ${path} path: SHA-256 of realizations 0–2 are equal with reuse on and off, and systems were reused`, () => {
+			const { input, targets } = section();
+			const on = run(withPath(input, path), targets, 3, {});
+			const off = run(withPath(input, path), targets, 3, { reuseBytes: 0 });
+			expect(on.hashes).toEqual(off.hashes);
+			expect(new Set(on.hashes).size).toBe(3);
+			expect(off.stats.reused).toBe(0);
+			expect(on.stats.reused).toBeGreaterThan(0.05 * on.stats.systems);
+			expect(on.stats.neighbours).toBe(off.stats.neighbours);
+		});
+
+		it(`block-like grid with two domains (simple and ordinary kriging, nugget, rotated anisotropy), ${path} path: same SHA-256 with reuse on and off`, () => {
+			const { input, targets } = block();
+			const on = run(withPath(input, path), targets, 2, {});
+			const off = run(withPath(input, path), targets, 2, { reuseBytes: 0 });
+			expect(on.hashes).toEqual(off.hashes);
+			expect(on.stats.reused).toBeGreaterThan(0);
+		});
+
+		it(`a recipe built like the demo's (demo soundings, five domains, data off the lattice), ${path} path: same SHA-256 with reuse on and off`, () => {
+			const recipe = demoRecipe({ nx: 100, nz: 40, domainExtra: {} });
+			const input = withPath(recipeInput(recipe), path);
+			const targets = targetsFromDefinition(recipe.targets);
+			const on = run(input, targets, 2, {});
+			const off = run(input, targets, 2, { reuseBytes: 0 });
+			expect(on.hashes).toEqual(off.hashes);
+			// Data off the lattice: no signature is reusable, but the kept data searches and covariances were used.
+			expect(on.stats.reused).toBe(0);
+			const kept = on.prep.domains.filter((d) => d.dataCov !== null && d.dataCov.some((c) => !Number.isNaN(c)));
+			expect(kept.length).toBe(5);
+			expect(on.prep.domains.every((d) => d.dataSelection !== null && d.dataSelection[0] >= 0)).toBe(true);
+		});
+	}
+
+	it('a cache of a few slots (constant eviction) still gives the same bits, and realization 2 regenerated alone equals realization 2 after a warm cache', () => {
+		const { input, targets } = section();
+		const tiny = run(input, targets, 3, { reuseBytes: 20_000 });
+		expect(tiny.prep.cache!.slots).toBeLessThan(64);
+		const off = run(input, targets, 3, { reuseBytes: 0 });
+		expect(tiny.hashes).toEqual(off.hashes);
+		expect(tiny.stats.reused).toBeGreaterThan(0);
+		expect(hash(simulate(input, targets, 2))).toBe(off.hashes[2]);
+	});
+
+	it('a Gaussian model without nugget and data off the grid 2e-6 apart (systems rescued by the ridge): same SHA-256 with reuse on and off', () => {
+		const targets = grid(60, 1, 8, 1, 1, 0.5);
+		const samples: Sample[] = [
+			{ x: 5.3, y: 0, z: -1.1, value: 1, sounding: 'A' },
+			{ x: 5.300002, y: 0, z: -1.1, value: 1.1, sounding: 'A' },
+			{ x: 20.7, y: 0, z: -2.05, value: -0.4, sounding: 'B' },
+			{ x: 33.2, y: 0, z: -0.3, value: 0.6, sounding: 'C' }
+		];
+		const model: VariogramModel = { azimuth: 90, structures: [{ type: 'gaussian', sill: 1, rangeMajor: 30, rangeMinor: 30, rangeVertical: 3 }] };
+		const input: SimulationInput = { seed: 'ridge', domains: [{ samples, model, transform: 'none', kriging: 'ordinary', search: { maxData: 4, maxSimulated: 8 } }] };
+		const on = run(input, targets, 3, {});
+		const off = run(input, targets, 3, { reuseBytes: 0 });
+		expect(on.hashes).toEqual(off.hashes);
+		expect(on.prep.domains[0].dataFactorReady!.some((r) => r === 1)).toBe(true);
+	});
+
+	it('reuse keeps realizations honouring the data exactly', () => {
+		const { input, targets } = section();
+		const prep = prepareSimulation(withPath(input, 'multigrid'), targets);
+		for (let r = 0; r < 2; r++) {
+			const rep = dataReproduction(simulatePrepared(prep, r), targets, input.domains[0].samples);
+			expect(rep.count).toBe(320);
+			expect(rep.maxError).toBe(0);
+		}
+	});
+
+	it('prepareSimulation rejects a negative or NaN reuseBytes; reuseBytes 0 keeps nothing; reuseSolutions false keeps only the data parts', () => {
+		const { input, targets } = section();
+		expect(() => prepareSimulation(input, targets, { reuseBytes: -1 })).toThrow(RangeError);
+		expect(() => prepareSimulation(input, targets, { reuseBytes: NaN })).toThrow(RangeError);
+		const none = prepareSimulation(input, targets, { reuseBytes: 0 });
+		expect(none.cache).toBeNull();
+		expect(none.domains[0].dataSelection).toBeNull();
+		const data = prepareSimulation(input, targets, { reuseSolutions: false });
+		expect(data.cache).toBeNull();
+		expect(data.domains[0].dataSelection).not.toBeNull();
+		// Data on the lattice: their covariances come from the table, so neither data covariances nor factors are kept.
+		expect(data.domains[0].dataCov).toBeNull();
+		expect(data.domains[0].dataFactor).toBeNull();
+		// One realization (simulate()): nothing kept per target.
+		const recipe = demoRecipe({ nx: 40, nz: 20 });
+		const one = prepareSimulation(recipeInput(recipe), targetsFromDefinition(recipe.targets), { keepPerTarget: false });
+		expect(one.domains.every((d) => d.dataSelection === null && d.dataFactor === null)).toBe(true);
+		expect(one.domains.some((d) => d.dataCov !== null)).toBe(true);
+		// Scattered targets have no lattice, so no signature: no cache either.
+		const scattered = { ...targets, x: targets.x.map((x, i) => x + (i % 3) * 1e-3) };
+		expect(prepareSimulation(input, scattered).cache).toBeNull();
+	});
+});
