@@ -86,6 +86,16 @@ export function crustThickness(c: number): number {
 /** Undrained strength the crust adds at the ground surface (kPa), fading to nothing at its base. */
 export const CRUST_STRENGTH = 30;
 
+/**
+ * The demo's rule for its overbank clay domains: readings shallower than this (m) are left out, the thickest
+ * crust of the section plus 0.1 m rounded up to 0.05 m (1.25 m), so the domains stand for the soft clay below.
+ */
+export const OVERBANK_MIN_DEPTH = (() => {
+	let t = 0;
+	for (let c = 0; c <= 400; c++) t = Math.max(t, crustThickness(c));
+	return Math.ceil((t + 0.1) * 20) / 20;
+})();
+
 /** Ground elevation along the section: a gently undulating toe near +4 m. */
 export function groundElevation(c: number): number {
 	return 4.0 + 0.25 * wave(c / 90) - 0.0008 * (c - 200);

@@ -5,8 +5,8 @@ import {
 	BOTTOM_ELEVATION,
 	CHANNEL_AXIS,
 	GROUNDWATER_ELEVATION,
-	crustThickness,
 	LEVEE_UNITS,
+	OVERBANK_MIN_DEPTH,
 	SECTION_LINE,
 	scenarioSoundings,
 	unitTops,
@@ -29,15 +29,9 @@ const DEMO_CELL = { cellHeight: 0.2, averaging: 'mean' as const, declusterCell: 
 
 /**
  * The overbank clay's rules leave its desiccated crust out: readings shallower than the thickest crust of the
- * scenario plus 0.1 m (1.25 m), so the domain stands for the soft normally consolidated clay below.
+ * scenario plus 0.1 m (OVERBANK_MIN_DEPTH, 1.25 m), so the domain stands for the soft normally consolidated clay below.
  */
-export const OVERBANK_RULES = { ...DEFAULT_RULES, minDepth: Math.ceil((maxCrust() + 0.1) * 20) / 20 };
-
-function maxCrust(): number {
-	let t = 0;
-	for (let c = 0; c <= SECTION_LINE.length; c++) t = Math.max(t, crustThickness(c));
-	return t;
-}
+export const OVERBANK_RULES = { ...DEFAULT_RULES, minDepth: OVERBANK_MIN_DEPTH };
 
 /**
  * Seeds the demo project's stratigraphy from the invented levee scenario: site settings (section line,
