@@ -3,6 +3,8 @@ import * as site from '../../src/lib/site/index';
 
 // The site model's runtime exports, pinned: adding or removing one means editing this list.
 const EXPORTS = [
+	'DEFAULT_RULES',
+	'RULE_ORDER',
 	'WHOLE_UNIT',
 	'averageInWindows',
 	'boundaryChainageAt',
@@ -12,6 +14,7 @@ const EXPORTS = [
 	'domainDefaults',
 	'effectiveTops',
 	'domainStatistics',
+	'emptyRuleCounts',
 	'extractDomainSamples',
 	'interpolateAlongChainage',
 	'interpolateContacts',
@@ -20,6 +23,7 @@ const EXPORTS = [
 	'planDistance',
 	'polylineLength',
 	'projectOntoPolyline',
+	'readingRule',
 	'triangulatedSurface',
 	'weightedCdf',
 	'zoneNamesOf',
