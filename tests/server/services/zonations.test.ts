@@ -265,7 +265,7 @@ describe('zonations and domains', () => {
 		}
 		addSounding(t.db, t.projectId, 'S-4', { chainage: 40, maxDepth: 3 });
 		const rules = { contactBuffer: 0.25, minDepth: 1.15, minSigmaVeff: 0, excludedSoundings: ['S-2'], flagged: 'keep' as const };
-		const z = createZonation(t.projectId, { name: 'Z', description: '', domains: [{ name: 'Sand', property: 'qc1Ncs', members: [{ unitId: sand.id, zone: -1 }], rules }] }, t.db);
+		const z = createZonation(t.projectId, { name: 'Z', description: '', domains: [{ name: 'Sand', property: 'qc1Ncs', cellHeight: null, declusterCell: null, members: [{ unitId: sand.id, zone: -1 }], rules }] }, t.db);
 		expect(z.domains[0].rules).toEqual(rules);
 		const r = domainSamples(t.projectId, z.domains[0].id, t.db);
 		expect(r.domain.rules).toEqual(rules);

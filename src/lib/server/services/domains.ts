@@ -79,7 +79,7 @@ export function domainSamples(projectId: string, domainId: string, db: DbOrTx = 
 			value: d.derived[domain.property],
 			sigmaVeff: d.derived.sigmaVeff,
 			flagged: Array.from(d.flags, (f) => (f & mask) !== 0),
-			contacts: d.units.flatMap((u) => (u.topElevation === null ? [] : [u.topElevation]))
+			contacts: placedTops(d.units)
 		})),
 		{
 			geometry: site.geometry,
@@ -133,4 +133,15 @@ export function domainSamples(projectId: string, domainId: string, db: DbOrTx = 
 		leftOut,
 		counts
 	};
+}
+
+/**
+ * The unit tops that place a sounding's readings: none when no top was measured or interpolated there and the
+ * project has several units, since the ground-surface default of the top unit alone would put every reading of
+ * the sounding in the top unit (the sounding is then left out, with the reason 'no contacts').
+ */
+function placedTops(units: { topElevation: number | null; topSource: string | null }[]): number[] {
+	const tops = units.flatMap((u) => (u.topElevation === null ? [] : [u.topElevation]));
+	const placed = units.some((u) => u.topSource !== null && u.topSource !== 'ground');
+	return placed || units.length < 2 ? tops : [];
 }

@@ -31,7 +31,7 @@ function samplesOf(id: string, name: string, seed: string): DomainSamples {
 	const d = handDomain({ soundings: 6, readings: 120, seed });
 	return {
 		...d,
-		domain: { id, name, zonationId: 'z1', zonationName: 'By unit', property: 'qc1Ncs', cellHeight: null, averaging: 'none', declusterCell: null, rules: DEFAULT_RULES },
+		domain: { id, name, zonationId: 'z1', zonationName: 'By unit', property: 'qc1Ncs', cellHeight: null, averaging: 'none', declusterCell: { x: 40, y: 40, z: null }, rules: DEFAULT_RULES },
 		property: { key: 'qc1Ncs', label: 'qc1Ncs', unit: '–' },
 		geometry: '2d',
 		stats: { n: d.samples.value.length, mean: 0, sd: 0, p10: 0, p50: 0, p90: 0 },
