@@ -178,6 +178,8 @@ describe('zonations, domains and samples', () => {
 		const { zonations } = await ok<{ zonations: { id: string; domains: { id: string; name: string }[] }[] }>(await analyst.json('GET', api(ownId, '/zonations')));
 		const west = zonations[0].domains.find((d) => d.name === 'West sand')!;
 		type Samples = { counts: Record<string, number>; samples: { z: number[] }; soundings: { name: string }[]; leftOut: { name: string; reason: string }[] };
+		// Every reading a sample (no averaging), so the counts of readings and the samples can be compared one to one.
+		expect((await analyst.json('PATCH', api(ownId, `/domains/${west.id}`), { cellHeight: null })).status).toBe(200);
 		const before = await ok<Samples>(await analyst.json('GET', api(ownId, `/domains/${west.id}/samples`)));
 		expect(before.counts.kept).toBe(before.samples.z.length);
 		const rules = { contactBuffer: 0.3, minDepth: 0, minSigmaVeff: 0, excludedSoundings: [], flagged: 'exclude' };
