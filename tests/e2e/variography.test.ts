@@ -9,7 +9,7 @@
  */
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { DEMO, DEMO_PROJECT_NAME, HttpSession, launchChromium, signedInSession } from '../setup';
+import { DEMO, DEMO_PROJECT_NAME, HttpSession, launchChromium, signInPage, signedInSession } from '../setup';
 import { experimentalVariogram, type LagBin } from '../../src/lib/geostat/index';
 import {
 	autoFit,
@@ -37,15 +37,8 @@ afterAll(async () => {
 	await browser?.close();
 });
 
-async function signIn(): Promise<{ context: BrowserContext; page: Page }> {
-	const context = await browser.newContext({ baseURL: baseUrl, viewport: { width: 1600, height: 1100 } });
-	const page = await context.newPage();
-	await page.goto('/signin');
-	await page.locator('form[action="?/password"] input[name="email"]').fill(DEMO.analyst.email);
-	await page.locator('input[name="password"]').fill(DEMO.analyst.password);
-	await page.getByRole('button', { name: 'Sign in', exact: true }).click();
-	await page.waitForURL('**/projects');
-	return { context, page };
+function signIn(): Promise<{ context: BrowserContext; page: Page }> {
+	return signInPage(browser, baseUrl, DEMO.analyst, { width: 1600, height: 1100 });
 }
 
 /** Waits until the page shows both variograms of `domainId`. */
