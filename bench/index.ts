@@ -10,6 +10,7 @@ export interface BenchCase {
 
 const MODULES: (() => Promise<{ default: BenchCase[] }>)[] = [
 	() => import('./variogram'),
+	() => import('./variogram-fit'),
 	() => import('./simulation'),
 	() => import('./soundings-storage'),
 	() => import('./contacts'),

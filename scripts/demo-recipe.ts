@@ -3,7 +3,8 @@
  * parsed with the CPT library, placed on the section line, derived (Robertson 2009; Boulanger & Idriss 2014)
  * with the demo's units and contacts, split into the five domains of the demo zonation "Sand split at channel"
  * (overbank clay and channel plug clay in su/σ'v, point-bar sand west and east of the channel and dense sand in
- * qc1Ncs), averaged to 0.2 m windows as the demo domains are, declustered with 40 m plan cells, on a
+ * qc1Ncs), the overbank clay without its crust (the demo's rule: readings shallower than OVERBANK_MIN_DEPTH
+ * left out), averaged to 0.2 m windows as the demo domains are, declustered with 40 m plan cells, on a
  * 400 × 80 section grid at 1 m × 0.2 m. The conditioning data sit at the soundings' own chainages and at the
  * mean elevation of their windows, so off the grid's nodes — where users' data live.
  *
@@ -17,7 +18,17 @@ import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { derive, parseGef, type ParsedSounding } from '../src/lib/cpt/index';
 import { cellDeclusterWeights, createRecipe, type DomainInput, type Recipe, type Sample, type SearchOptions, type VariogramModel } from '../src/lib/geostat/index';
-import { BOTTOM_ELEVATION, CHANNEL_AXIS, GROUNDWATER_ELEVATION, LEVEE_UNITS, SECTION_LINE, unitAt, unitTops, type LeveeUnitKey } from '../src/lib/server/scenario/levee';
+import {
+	BOTTOM_ELEVATION,
+	CHANNEL_AXIS,
+	GROUNDWATER_ELEVATION,
+	LEVEE_UNITS,
+	OVERBANK_MIN_DEPTH,
+	SECTION_LINE,
+	unitAt,
+	unitTops,
+	type LeveeUnitKey
+} from '../src/lib/server/scenario/levee';
 
 const GEF_DIR = resolve(dirname(fileURLToPath(import.meta.url)), '..', 'static', 'demo', 'gef');
 
@@ -66,6 +77,7 @@ export function demoDomainSamples(): Sample[][] {
 			const dom = demoDomainAt(chainage, z);
 			const value = dom === 0 || dom === 3 ? d.suRatio[i] : d.qc1Ncs[i];
 			if (!Number.isFinite(value)) continue;
+			if (dom === 0 && s.depth[i] < OVERBANK_MIN_DEPTH) continue;
 			const k = Math.floor(z / CELL_HEIGHT + 1e-9);
 			const w = windows[dom].get(k) ?? { z: 0, v: 0, n: 0 };
 			w.z += z;

@@ -7,8 +7,11 @@ import {
 	SIMULATED_OPTIONS,
 	SIMULATED_PROPERTIES,
 	isSimulatedProperty,
-	labelWithUnit
+	labelWithUnit,
+	correlationFlagMask,
+	correlationFlagText
 } from '../src/lib/properties';
+import { CptFlag } from '../src/lib/cpt/flags';
 import { domains, units } from '../src/lib/server/db/site-schema';
 import { domainCreateSchema, sectionProperty, simulatedProperty, unitCreateSchema } from '../src/lib/schemas/stratigraphy';
 import { derive } from '../src/lib/cpt/index';
@@ -73,6 +76,22 @@ describe('the property catalogue', () => {
 		for (const key of PROPERTY_KEYS) {
 			const measured = key === 'qc' || key === 'fs' || key === 'u2';
 			expect(measured || (key in out && (out as unknown as Record<string, unknown>)[key] instanceof Float64Array), key).toBe(true);
+		}
+	});
+});
+
+describe('correlation flags of the catalogue', () => {
+	it('correlationFlagMask(key) ORs the property\'s flags; correlationFlagText words them; qt has none', () => {
+		expect(correlationFlagMask('qc1Ncs')).toBe(CptFlag.qc1NcsOutOfRange | CptFlag.icOutOfChart | CptFlag.notConverged);
+		expect(correlationFlagText('qc1Ncs')).toBe('qc1Ncs outside 21–254, Ic off the chart, an iteration that did not converge');
+		expect(correlationFlagMask('qt')).toBe(0);
+		expect(correlationFlagText('qt')).toBe('');
+		// Every simulated property names its flags, each a real CptFlag with plain words.
+		for (const key of SIMULATED_PROPERTIES) {
+			const flags = PROPERTY_INFO[key].flags;
+			expect(Array.isArray(flags), key).toBe(true);
+			for (const f of flags!) expect(CptFlag[f], `${key} ${f}`).toBeGreaterThan(0);
+			expect(correlationFlagText(key)).not.toMatch(/[a-z][A-Z]/);
 		}
 	});
 });

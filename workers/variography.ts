@@ -10,10 +10,12 @@ import * as Comlink from 'comlink';
 import {
 	autoFit,
 	computeVariograms,
+	mapAnisotropy,
 	modelFromParameters,
 	modelMisfit,
 	prepareSamples,
 	rangeSensitivity,
+	type AutoFitBins,
 	type AutoFitOptions,
 	type DomainSamplesData,
 	type ExperimentalResult,
@@ -21,21 +23,24 @@ import {
 	type Progress,
 	type VariogramSettings
 } from '../src/lib/variography';
-import type { FitInput, LagBin } from '../src/lib/geostat';
+import type { LagBin, VariogramMap } from '../src/lib/geostat';
 
 const cancelled = new Set<number>();
 
 export const variographyApi = {
-	/** Both experimental variograms of a domain's samples under the settings; progress after each chunk. */
+	/**
+	 * The experimental variograms of a domain's samples under the settings (and the map in plan for a 3D
+	 * domain); progress after each chunk.
+	 */
 	async variograms(
 		job: number,
-		data: Pick<DomainSamplesData, 'samples' | 'weights'>,
+		data: Pick<DomainSamplesData, 'samples' | 'weights' | 'geometry'>,
 		settings: VariogramSettings,
 		onProgress?: (p: Progress) => void
 	): Promise<ExperimentalResult> {
 		try {
 			const prepared = prepareSamples(data, settings);
-			return await computeVariograms(prepared, settings, { onProgress, isCancelled: () => cancelled.has(job) });
+			return await computeVariograms(prepared, settings, { onProgress, isCancelled: () => cancelled.has(job), map: data.geometry === '3d' });
 		} finally {
 			cancelled.delete(job);
 		}
@@ -44,17 +49,26 @@ export const variographyApi = {
 	cancel(job: number): void {
 		cancelled.add(job);
 	},
-	fit(bins: FitInput, opts: AutoFitOptions) {
+	fit(bins: AutoFitBins, opts: AutoFitOptions) {
 		return autoFit(bins, opts);
 	},
-	/** Misfit of edited parameters and the horizontal range sensitivity, in one round trip. */
-	evaluate(parameters: ModelParameters, bins: { vertical: LagBin[]; horizontal: LagBin[] }, minPairs: number) {
+	/** Misfit of edited parameters and each direction's range sensitivity, in one round trip. */
+	evaluate(parameters: ModelParameters, bins: { vertical: LagBin[]; horizontal: LagBin[]; horizontalMinor: LagBin[] | null }, minPairs: number) {
 		const model = modelFromParameters(parameters);
+		const minor = bins.horizontalMinor;
 		return {
 			model,
 			misfit: modelMisfit(model, bins, minPairs),
-			sensitivity: rangeSensitivity(model, bins.horizontal, { minPairs })
+			sensitivity: {
+				vertical: rangeSensitivity(model, bins.vertical, { direction: 'vertical', minPairs }),
+				horizontal: rangeSensitivity(model, bins.horizontal, { direction: minor ? 'major' : 'horizontal', minPairs }),
+				minor: minor ? rangeSensitivity(model, minor, { direction: 'minor', minPairs }) : null
+			}
 		};
+	},
+	/** The direction of greatest continuity read off the map, with the structure, nugget and sill held. */
+	anisotropy(map: VariogramMap, parameters: Pick<ModelParameters, 'type' | 'nugget' | 'sill'>, minPairs: number) {
+		return mapAnisotropy(map, parameters, minPairs);
 	}
 };
 

@@ -9,6 +9,7 @@
  * written from memory of the source or of common practice.
  */
 import { IC_CHART_MAX, IC_CHART_MIN, QC1NCS_MAX, QC1NCS_MIN } from './cpt/constants';
+import { CptFlag, type CptFlagName } from './cpt/flags';
 
 export interface PropertyInfo {
 	/** Key of the derived or measured column (DerivedSounding in $lib/cpt, or qc, fs, u2). */
@@ -26,6 +27,11 @@ export interface PropertyInfo {
 	/** The soils it is usually simulated in, shown beside its name where a unit's property is chosen. */
 	suits?: 'sands' | 'clays';
 	range: { min: number; max: number; source: string };
+	/**
+	 * The CPT flags that mark a reading as outside this property's correlation (e.g. qc1Ncs beyond 21–254 for
+	 * Boulanger & Idriss 2014): a domain's rules may leave such readings out.
+	 */
+	flags?: readonly CptFlagName[];
 }
 
 /** Every property, simulated ones first in the order select lists show them. */
@@ -38,6 +44,7 @@ export const PROPERTIES = [
 		description: 'Clean-sand equivalent normalised cone resistance (Boulanger & Idriss 2014)',
 		simulatable: true,
 		suits: 'sands',
+		flags: ['qc1NcsOutOfRange', 'icOutOfChart', 'notConverged'],
 		range: { min: QC1NCS_MIN, max: QC1NCS_MAX, source: 'the qc1Ncs limits of the stress exponent m (Boulanger & Idriss 2014)' }
 	},
 	{
@@ -48,6 +55,7 @@ export const PROPERTIES = [
 		description: 'Undrained strength ratio, su = (qt − σv)/Nkt over σ′v (Lunne et al. 1997)',
 		simulatable: true,
 		suits: 'clays',
+		flags: ['negativeNetResistance', 'nonPositiveStress'],
 		range: {
 			min: 0,
 			max: 1.5,
@@ -61,6 +69,7 @@ export const PROPERTIES = [
 		decimals: 2,
 		description: 'Soil behaviour type index (Robertson 2009)',
 		simulatable: true,
+		flags: ['icOutOfChart', 'notConverged'],
 		range: { min: IC_CHART_MIN, max: IC_CHART_MAX, source: 'the span of the SBTn chart (Robertson 2009; common practice)' }
 	},
 	{
@@ -70,6 +79,7 @@ export const PROPERTIES = [
 		decimals: 0,
 		description: 'Corrected cone resistance, qt = qc + u2(1 − a) (Lunne et al. 1997)',
 		simulatable: true,
+		flags: [],
 		range: { min: 0, max: 100_000, source: 'common practice (memory): cones are rated for 50–100 MPa' }
 	},
 	{
@@ -79,6 +89,7 @@ export const PROPERTIES = [
 		decimals: 1,
 		description: 'Fines content, from Ic (Boulanger & Idriss 2014) or measured',
 		simulatable: true,
+		flags: ['icOutOfChart', 'measuredFinesContentInvalid'],
 		range: { min: 0, max: 100, source: 'a percentage; the FC–Ic relation is limited to 0–100 % (Boulanger & Idriss 2014)' }
 	},
 	{
@@ -88,6 +99,7 @@ export const PROPERTIES = [
 		decimals: 2,
 		description: 'Relative density as a fraction (Idriss & Boulanger 2008)',
 		simulatable: true,
+		flags: ['drOutOfRange', 'qc1NcsOutOfRange'],
 		range: { min: 0, max: 1, source: 'a fraction; qc1Ncs 21–254 maps to Dr 0–1 with Cdq = 0.9 (Idriss & Boulanger 2008)' }
 	},
 	{
@@ -97,6 +109,7 @@ export const PROPERTIES = [
 		decimals: 1,
 		description: 'Undrained shear strength, su = (qt − σv)/Nkt (Lunne et al. 1997)',
 		simulatable: true,
+		flags: ['negativeNetResistance'],
 		range: { min: 0, max: 1000, source: 'common practice (memory): very soft clays below 12.5 kPa, hard clays a few hundred kPa' }
 	},
 	{
@@ -106,6 +119,7 @@ export const PROPERTIES = [
 		decimals: 1,
 		description: 'Normalised cone resistance (Robertson 2009)',
 		simulatable: true,
+		flags: ['notConverged', 'nonPositiveStress'],
 		range: { min: 1, max: 1000, source: 'the Qtn axis of the SBTn chart (Robertson 2009)' }
 	},
 	{
@@ -172,6 +186,29 @@ export const SIMULATED_PROPERTIES = keysOf(PROPERTIES.filter(isSimulated));
 /** Is `key` a simulated property. */
 export function isSimulatedProperty(key: string): key is SimulatedProperty {
 	return (SIMULATED_PROPERTIES as readonly string[]).includes(key);
+}
+
+/** Plain words for the CPT flags a property's correlation may raise. */
+const FLAG_WORDS: Partial<Record<CptFlagName, string>> = {
+	qc1NcsOutOfRange: `qc1Ncs outside ${QC1NCS_MIN}–${QC1NCS_MAX}`,
+	icOutOfChart: 'Ic off the chart',
+	notConverged: 'an iteration that did not converge',
+	negativeNetResistance: 'qt − σv ≤ 0',
+	nonPositiveStress: 'σ′v ≤ 0',
+	drOutOfRange: 'Dr outside 0–1',
+	measuredFinesContentInvalid: 'a measured FC outside 0–100 %'
+};
+
+/** The flags of a property's correlation in plain words, e.g. "qc1Ncs outside 21–254, Ic off the chart"; '' for none. */
+export function correlationFlagText(key: PropertyKey): string {
+	return (PROPERTY_INFO[key].flags ?? []).map((f) => FLAG_WORDS[f] ?? f).join(', ');
+}
+
+/** The CptFlag bitmask of the flags that mark a reading as outside a property's correlation (0: none). */
+export function correlationFlagMask(key: PropertyKey): number {
+	let mask = 0;
+	for (const name of PROPERTY_INFO[key].flags ?? []) mask |= CptFlag[name];
+	return mask;
 }
 
 /** "su (kPa)", "FC (%)", "Ic": the label with its unit unless dimensionless. */

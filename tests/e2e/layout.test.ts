@@ -6,7 +6,7 @@
  */
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { DEMO, DEMO_PROJECT_NAME, launchChromium } from '../setup';
+import { DEMO, DEMO_PROJECT_NAME, launchChromium, signInPage } from '../setup';
 
 const baseUrl = inject('baseUrl');
 let browser: Browser;
@@ -17,13 +17,7 @@ let soundingIds: string[];
 
 beforeAll(async () => {
 	browser = await launchChromium();
-	context = await browser.newContext({ baseURL: baseUrl, viewport: { width: 1280, height: 800 } });
-	page = await context.newPage();
-	await page.goto('/signin');
-	await page.locator('form[action="?/password"] input[name="email"]').fill(DEMO.analyst.email);
-	await page.locator('input[name="password"]').fill(DEMO.analyst.password);
-	await page.getByRole('button', { name: 'Sign in', exact: true }).click();
-	await page.waitForURL('**/projects');
+	({ context, page } = await signInPage(browser, baseUrl, DEMO.analyst, { width: 1280, height: 800 }));
 	const projects = ((await (await page.request.get('/api/v1/projects')).json()) as { projects: { id: string; name: string }[] }).projects;
 	demoId = projects.find((p) => p.name === DEMO_PROJECT_NAME)!.id;
 	const list = ((await (await page.request.get(`/api/v1/projects/${demoId}/soundings`)).json()) as { soundings: { id: string; name: string }[] }).soundings;

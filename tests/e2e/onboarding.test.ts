@@ -5,7 +5,7 @@
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { inject } from 'vitest';
-import { DEMO, launchChromium } from '../setup';
+import { DEMO, launchChromium, signInPage } from '../setup';
 
 const baseUrl = inject('baseUrl');
 let browser: Browser;
@@ -17,15 +17,8 @@ afterAll(async () => {
 	await browser?.close();
 });
 
-async function signIn(email: string, password: string): Promise<{ context: BrowserContext; page: Page }> {
-	const context = await browser.newContext({ baseURL: baseUrl });
-	const page = await context.newPage();
-	await page.goto('/signin');
-	await page.locator('form[action="?/password"] input[name="email"]').fill(email);
-	await page.locator('input[name="password"]').fill(password);
-	await page.getByRole('button', { name: 'Sign in', exact: true }).click();
-	await page.waitForURL('**/projects');
-	return { context, page };
+function signIn(email: string, password: string): Promise<{ context: BrowserContext; page: Page }> {
+	return signInPage(browser, baseUrl, { email, password });
 }
 
 /**

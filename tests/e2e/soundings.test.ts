@@ -8,7 +8,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { DEMO, DEMO_PROJECT_NAME, launchChromium } from '../setup';
+import { DEMO, DEMO_PROJECT_NAME, launchChromium, signInPage } from '../setup';
 
 const baseUrl = inject('baseUrl');
 const DEMO_DIR = join(import.meta.dirname, '..', '..', 'static', 'demo');
@@ -19,13 +19,7 @@ let page: Page;
 
 beforeAll(async () => {
 	browser = await launchChromium();
-	context = await browser.newContext({ baseURL: baseUrl, viewport: { width: 1440, height: 1000 } });
-	page = await context.newPage();
-	await page.goto('/signin');
-	await page.locator('form[action="?/password"] input[name="email"]').fill(DEMO.analyst.email);
-	await page.locator('input[name="password"]').fill(DEMO.analyst.password);
-	await page.getByRole('button', { name: 'Sign in', exact: true }).click();
-	await page.waitForURL('**/projects');
+	({ context, page } = await signInPage(browser, baseUrl, DEMO.analyst, { width: 1440, height: 1000 }));
 });
 afterAll(async () => {
 	await context?.close();

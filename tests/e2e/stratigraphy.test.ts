@@ -5,7 +5,7 @@
  */
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { DEMO, DEMO_PROJECT_NAME, launchChromium } from '../setup';
+import { DEMO, DEMO_PROJECT_NAME, launchChromium, signInPage } from '../setup';
 
 const baseUrl = inject('baseUrl');
 let browser: Browser;
@@ -22,13 +22,7 @@ interface ContactJson {
 
 beforeAll(async () => {
 	browser = await launchChromium();
-	context = await browser.newContext({ baseURL: baseUrl, viewport: { width: 1440, height: 1000 } });
-	page = await context.newPage();
-	await page.goto('/signin');
-	await page.locator('form[action="?/password"] input[name="email"]').fill(DEMO.analyst.email);
-	await page.locator('input[name="password"]').fill(DEMO.analyst.password);
-	await page.getByRole('button', { name: 'Sign in', exact: true }).click();
-	await page.waitForURL('**/projects');
+	({ context, page } = await signInPage(browser, baseUrl, DEMO.analyst, { width: 1440, height: 1000 }));
 	const res = await page.request.get('/api/v1/projects');
 	demoId = ((await res.json()) as { projects: { id: string; name: string }[] }).projects.find((p) => p.name === DEMO_PROJECT_NAME)!.id;
 });

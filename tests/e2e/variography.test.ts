@@ -9,7 +9,7 @@
  */
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { DEMO, DEMO_PROJECT_NAME, HttpSession, launchChromium, signedInSession } from '../setup';
+import { DEMO, DEMO_PROJECT_NAME, HttpSession, launchChromium, signInPage, signedInSession } from '../setup';
 import { experimentalVariogram, type LagBin } from '../../src/lib/geostat/index';
 import {
 	autoFit,
@@ -37,15 +37,8 @@ afterAll(async () => {
 	await browser?.close();
 });
 
-async function signIn(): Promise<{ context: BrowserContext; page: Page }> {
-	const context = await browser.newContext({ baseURL: baseUrl, viewport: { width: 1600, height: 1100 } });
-	const page = await context.newPage();
-	await page.goto('/signin');
-	await page.locator('form[action="?/password"] input[name="email"]').fill(DEMO.analyst.email);
-	await page.locator('input[name="password"]').fill(DEMO.analyst.password);
-	await page.getByRole('button', { name: 'Sign in', exact: true }).click();
-	await page.waitForURL('**/projects');
-	return { context, page };
+function signIn(): Promise<{ context: BrowserContext; page: Page }> {
+	return signInPage(browser, baseUrl, DEMO.analyst, { width: 1600, height: 1100 });
 }
 
 /** Waits until the page shows both variograms of `domainId`. */
@@ -105,9 +98,9 @@ describe('variography (Chromium)', () => {
 		await page.getByTestId('auto-fit').click();
 		const summary = page.getByTestId('model-summary');
 		await summary.waitFor();
-		const fit = autoFit(node, { type: 'exponential', nugget: 'fit', minPairs: settings.minPairs, azimuth: 0 });
+		const fit = autoFit(node, { type: 'exponential', nugget: 'fit', minPairs: settings.minPairs, azimuth: 0, variance: node.variance });
 		expect(Number(await summary.getAttribute('data-range-vertical'))).toBe(fit.parameters.rangeVertical);
-		expect(Number(await summary.getAttribute('data-range-horizontal'))).toBe(fit.parameters.rangeHorizontal);
+		expect(Number(await summary.getAttribute('data-range-horizontal'))).toBe(fit.parameters.rangeMajor);
 		expect(Number(await summary.getAttribute('data-sill'))).toBe(fit.parameters.sill);
 		expect(Number(await summary.getAttribute('data-nugget'))).toBe(fit.parameters.nugget);
 		const misfit = modelMisfit(fit.model, node, settings.minPairs).total!.perBin;
@@ -126,7 +119,7 @@ describe('variography (Chromium)', () => {
 		await row.waitFor();
 		expect(await row.getAttribute('data-version')).toBe('1');
 		// The newest saved model is loaded into the workspace on reload.
-		expect(Number(await page.getByTestId('model-summary').getAttribute('data-range-horizontal'))).toBe(fit.parameters.rangeHorizontal);
+		expect(Number(await page.getByTestId('model-summary').getAttribute('data-range-horizontal'))).toBe(fit.parameters.rangeMajor);
 		const saved = (await (await api.json('GET', `/api/v1/projects/${projectId}/domains/${domain.id}/variograms`)).json()).variograms.find(
 			(v: { name: string }) => v.name === name
 		);
@@ -161,6 +154,37 @@ describe('variography (Chromium)', () => {
 			const { variograms } = await (await api.json('GET', `/api/v1/projects/${projectId}/domains/${d.id}/variograms`)).json();
 			expect(variograms.some((v: { name: string }) => v.name === `${d.name} (all-domains check)`), d.name).toBe(true);
 		}
+		await context.close();
+	});
+
+	it('stale state: changing the property from normal scores to raw values and computing drops the old model; the new one is of the raw values', async () => {
+		const domain = zonations[0].domains.find((d) => /west/i.test(d.name))!;
+		const { context, page } = await signIn();
+		const errors: string[] = [];
+		page.on('pageerror', (e) => errors.push(String(e)));
+		await page.goto(`/projects/${projectId}/variography?domain=${domain.id}`);
+		await waitForVariograms(page, domain.id);
+		// The seeded version is of the normal scores: its sill is their variance, about 1.
+		const summary = page.getByTestId('model-summary');
+		await summary.waitFor();
+		const normalSill = Number(await summary.getAttribute('data-sill'));
+		expect(Math.abs(normalSill - 1)).toBeLessThan(0.02);
+
+		await page.getByTestId('transform').selectOption('none');
+		await page.getByRole('button', { name: 'Compute', exact: true }).click();
+		await page.locator('[data-testid=plots][data-settings*=\'"transform":"none"\']').waitFor({ timeout: 60_000 });
+		await expect.poll(() => page.getByTestId('status').textContent(), { timeout: 30_000 }).toContain('the old model was dropped');
+		const settings = JSON.parse((await page.getByTestId('plots').getAttribute('data-settings'))!) as VariogramSettings;
+		const data = (await (await api.json('GET', `/api/v1/projects/${projectId}/domains/${domain.id}/samples`)).json()) as DomainSamplesData;
+		const node = await computeVariograms(prepareSamples(data, settings), settings);
+		// The model now drawn is the automatic fit of the raw values: its sill is their declustered variance (qc1Ncs², hundreds).
+		await expect.poll(async () => Number(await page.getByTestId('model-summary').getAttribute('data-sill'))).toBe(node.variance);
+		expect(node.variance).toBeGreaterThan(50);
+		const fit = autoFit(node, { type: 'exponential', nugget: 'fit', minPairs: settings.minPairs, azimuth: 0, variance: node.variance });
+		expect(Number(await page.getByTestId('model-summary').getAttribute('data-range-vertical'))).toBe(fit.parameters.rangeVertical);
+		// The plot's curve is the new model's: its right end sits near the raw variance, not near 1.
+		expect(await page.locator('[data-testid=plot-vertical] [data-bin]').count()).toBeGreaterThan(0);
+		expect(errors).toEqual([]);
 		await context.close();
 	});
 });

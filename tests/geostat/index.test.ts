@@ -19,9 +19,11 @@ const TOPICS: Record<string, string[]> = {
 		'totalSill',
 		'validateVariogramModel',
 		'experimentalVariogram',
+		'experimentalVariogramMap',
 		'fitVariogram',
 		'variogramMisfit'
 	],
+	'trend of the mean': ['fitLinearTrend', 'trendValue', 'trendResiduals', 'validateTrend'],
 	'linear algebra and kriging': ['choleskyFactor', 'choleskySolve', 'krige'],
 	'neighbour search': ['searchEllipsoid', 'normalisedCoordinates', 'BucketGrid', 'selectNearest', 'offsetTemplate'],
 	simulation: [
@@ -46,6 +48,7 @@ const TOPICS: Record<string, string[]> = {
 		'sampleSchema',
 		'structureSchema',
 		'variogramModelSchema',
+		'trendSchema',
 		'transformSchema',
 		'domainInputSchema',
 		'simulationInputSchema',
@@ -61,7 +64,9 @@ const TOPICS: Record<string, string[]> = {
 		'sha256',
 		'recipeHash',
 		'ENGINE_VERSION',
+		'ENGINE_VERSIONS',
 		'isCurrentEngine',
+		'engineVersionOf',
 		'prepareRecipe',
 		'regenerate'
 	],
@@ -90,6 +95,7 @@ describe('src/lib/geostat/index.ts', () => {
 			'Weighted statistics',
 			'Declustering',
 			'Variograms: models, experimental variograms, fitting',
+			'Trend of the mean',
 			'Linear algebra and kriging',
 			'Neighbour search',
 			'Sequential Gaussian simulation',

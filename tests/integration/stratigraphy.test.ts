@@ -173,6 +173,51 @@ describe('zonations, domains and samples', () => {
 		const bad = await analyst.json('PATCH', api(ownId, `/domains/${z.domains[2].id}`), { members: [{ unitId: sandId, zone: 5 }] });
 		expect(bad.status).toBe(422);
 	});
+
+	it('PATCH /domains/[did] {rules} saves the conditioning rules; the samples keep only what they allow and count the rest', async () => {
+		const { zonations } = await ok<{ zonations: { id: string; domains: { id: string; name: string }[] }[] }>(await analyst.json('GET', api(ownId, '/zonations')));
+		const west = zonations[0].domains.find((d) => d.name === 'West sand')!;
+		type Samples = { counts: Record<string, number>; samples: { z: number[] }; soundings: { name: string }[]; leftOut: { name: string; reason: string }[] };
+		// Every reading a sample (no averaging), so the counts of readings and the samples can be compared one to one.
+		expect((await analyst.json('PATCH', api(ownId, `/domains/${west.id}`), { cellHeight: null })).status).toBe(200);
+		const before = await ok<Samples>(await analyst.json('GET', api(ownId, `/domains/${west.id}/samples`)));
+		expect(before.counts.kept).toBe(before.samples.z.length);
+		const rules = { contactBuffer: 0.3, minDepth: 0, minSigmaVeff: 0, excludedSoundings: [], flagged: 'exclude' };
+		const { domain } = await ok<{ domain: { rules: unknown } }>(await analyst.json('PATCH', api(ownId, `/domains/${west.id}`), { rules }));
+		expect(domain.rules).toEqual(rules);
+		const after = await ok<Samples>(await analyst.json('GET', api(ownId, `/domains/${west.id}/samples`)));
+		expect(after.counts.readings).toBe(before.counts.readings);
+		expect(after.counts.contactBuffer).toBeGreaterThan(0);
+		expect(after.counts.kept).toBe(after.samples.z.length);
+		expect(after.counts.kept + after.counts.noValue + after.counts.contactBuffer + after.counts.flagged).toBe(after.counts.readings);
+		const stressed = await ok<Samples>(
+			await analyst.json('PATCH', api(ownId, `/domains/${west.id}`), { rules: { ...rules, minSigmaVeff: 60 } }).then(() => analyst.json('GET', api(ownId, `/domains/${west.id}/samples`)))
+		);
+		expect(stressed.counts.minSigmaVeff).toBeGreaterThan(0);
+		expect(stressed.counts.kept).toBeLessThan(after.counts.kept);
+		const gone = await ok<Samples>(await analyst.json('PATCH', api(ownId, `/domains/${west.id}`), { rules: { ...rules, excludedSoundings: ['LV-01'] } }).then(() =>
+			analyst.json('GET', api(ownId, `/domains/${west.id}/samples`))
+		));
+		expect(gone.samples.z).toEqual([]);
+		expect(gone.leftOut).toEqual([{ name: 'LV-01', reason: 'excluded' }]);
+	});
+
+	it('PATCH {rules} refuses a viewer (403), bad rules (422), an unknown sounding (422) and another project (404)', async () => {
+		const { zonations } = await ok<{ zonations: { domains: { id: string }[] }[] }>(await analyst.json('GET', api(ownId, '/zonations')));
+		const id = zonations[0].domains[0].id;
+		const good = { contactBuffer: 0, minDepth: 1, minSigmaVeff: 0, excludedSoundings: [], flagged: 'keep' };
+		const { zonations: demo } = await ok<{ zonations: { domains: { id: string }[] }[] }>(await viewer.json('GET', api(demoId, '/zonations')));
+		expect((await viewer.json('PATCH', api(demoId, `/domains/${demo[0].domains[0].id}`), { rules: good })).status).toBe(403);
+		const negative = await analyst.json('PATCH', api(ownId, `/domains/${id}`), { rules: { ...good, contactBuffer: -1 } });
+		expect(negative.status).toBe(422);
+		expect((await errorOf(negative)).issues?.[0].path).toEqual(['rules', 'contactBuffer']);
+		expect((await analyst.json('PATCH', api(ownId, `/domains/${id}`), { rules: { ...good, flagged: 'maybe' } })).status).toBe(422);
+		expect((await analyst.json('PATCH', api(ownId, `/domains/${id}`), { rules: { ...good, extra: 1 } })).status).toBe(422);
+		const unknown = await analyst.json('PATCH', api(ownId, `/domains/${id}`), { rules: { ...good, excludedSoundings: ['LV-99'] } });
+		expect(unknown.status).toBe(422);
+		expect((await errorOf(unknown)).message).toBe('No sounding named LV-99 in this project.');
+		expect((await viewer.json('PATCH', api(ownId, `/domains/${id}`), { rules: good })).status).toBe(404);
+	});
 });
 
 describe('the seeded demo project', () => {
@@ -191,8 +236,9 @@ describe('the seeded demo project', () => {
 		const id = zonations[0].domains.find((d) => d.name === 'Point-bar sand east')!.id;
 		// eslint-disable-next-line @typescript-eslint/no-explicit-any -- the contract is checked key by key below
 		const s = await ok<Record<string, any>>(await viewer.json('GET', api(demoId, `/domains/${id}/samples`)));
-		expect(Object.keys(s).sort()).toEqual(['cdf', 'domain', 'geometry', 'lengthUnit', 'property', 'samples', 'soundings', 'stats', 'warnings', 'weights'].sort());
-		expect(Object.keys(s.domain).sort()).toEqual(['averaging', 'cellHeight', 'declusterCell', 'id', 'name', 'property', 'zonationId', 'zonationName'].sort());
+		expect(Object.keys(s).sort()).toEqual(['cdf', 'counts', 'domain', 'geometry', 'leftOut', 'lengthUnit', 'property', 'samples', 'soundings', 'stats', 'warnings', 'weights'].sort());
+		expect(Object.keys(s.domain).sort()).toEqual(['averaging', 'cellHeight', 'declusterCell', 'id', 'name', 'property', 'rules', 'zonationId', 'zonationName'].sort());
+		expect(Object.keys(s.counts).sort()).toEqual(['contactBuffer', 'flagged', 'kept', 'minDepth', 'minSigmaVeff', 'noValue', 'readings', 'sounding'].sort());
 		expect(s.property).toEqual({ key: 'qc1Ncs', label: 'qc1Ncs', unit: '–' });
 		expect(s.geometry).toBe('2d');
 		const n = s.samples.value.length;

@@ -3,6 +3,8 @@ import * as site from '../../src/lib/site/index';
 
 // The site model's runtime exports, pinned: adding or removing one means editing this list.
 const EXPORTS = [
+	'DEFAULT_RULES',
+	'RULE_ORDER',
 	'WHOLE_UNIT',
 	'averageInWindows',
 	'axisCount',
@@ -18,6 +20,7 @@ const EXPORTS = [
 	'domainDefaults',
 	'effectiveTops',
 	'domainStatistics',
+	'emptyRuleCounts',
 	'extractDomainSamples',
 	'interpolateAlongChainage',
 	'interpolateContacts',
@@ -26,6 +29,7 @@ const EXPORTS = [
 	'planDistance',
 	'polylineLength',
 	'projectOntoPolyline',
+	'readingRule',
 	'triangulatedSurface',
 	'weightedCdf',
 	'zoneNamesOf',

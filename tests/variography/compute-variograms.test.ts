@@ -1,13 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import { experimentalVariogram, normalScore, weightedVariance, type LagBin } from '../../src/lib/geostat/index';
+import { experimentalVariogram, experimentalVariogramMap, fitLinearTrend, normalScore, trendResiduals, weightedVariance, type LagBin } from '../../src/lib/geostat/index';
 import { CancelledError } from '../../src/lib/cancelled-error';
-import { computeVariograms, prepareSamples, type VariogramSettings } from '../../src/lib/variography/index';
+import { computeVariograms, domainTrend, prepareSamples, type VariogramSettings } from '../../src/lib/variography/index';
 import { expectRelClose } from '../asserts';
 import { handDomain } from './fixture';
 
 const settings: VariogramSettings = {
 	transform: 'none',
 	declustered: false,
+	trend: 'none',
 	vertical: { lag: 0.1, nLags: 20, lagTolerance: 0.05 },
 	horizontal: { lag: 7.5, nLags: 12, lagTolerance: 3.75, verticalBand: 0.1, azimuth: null, angleTolerance: 22.5 },
 	minPairs: 30
@@ -56,6 +57,29 @@ describe('computeVariograms(prepared, settings)', () => {
 		expect(direct.reduce((a, b) => a + b.pairs, 0)).toBeLessThan(omni.reduce((a, b) => a + b.pairs, 0));
 		const r = await computeVariograms(p, s, { chunkSize: 90, pause: async () => {} });
 		expectSameBins(r.horizontal, direct);
+		// Across the azimuth: the engine's bins at azimuth + 90°.
+		const across = experimentalVariogram(p.samples, {
+			direction: 'horizontal', lag: 7.5, nLags: 12, lagTolerance: 3.75, verticalBand: 0.1, azimuth: 160, angleTolerance: 15
+		});
+		expectSameBins(r.horizontalMinor!, across);
+		expect(r.map).toBeNull();
+	});
+
+	it('computeVariograms with map gives experimentalVariogramMap\'s cells in any chunk size (pairs exact, γ to 1e-12)', async () => {
+		const d3 = handDomain({ seed: 'map' });
+		d3.samples.y = d3.samples.x.map((x, i) => (d3.samples.sounding[i].charCodeAt(3) % 3) * 11 + x * 0.3);
+		const p = prepareSamples(d3, settings);
+		const direct = experimentalVariogramMap(p.samples, { lag: 7.5, nLags: 12, verticalBand: 0.1 });
+		for (const chunkSize of [90, 500, 100_000]) {
+			const r = await computeVariograms(p, settings, { chunkSize, pause: async () => {}, map: true });
+			const m = r.map!;
+			expect(m.size).toBe(direct.size);
+			expect(Array.from(m.pairs)).toEqual(Array.from(direct.pairs));
+			for (let c = 0; c < m.pairs.length; c++) {
+				if (m.pairs[c] === 0) expect(m.gamma[c]).toBeNaN();
+				else expectRelClose(m.gamma[c], direct.gamma[c], 1e-12, `cell ${c}`);
+			}
+		}
 	});
 
 	it('computeVariograms reports progress from 0 to total, once per chunk, in order', async () => {
@@ -119,6 +143,24 @@ describe('prepareSamples(data, settings)', () => {
 		expect(() => prepareSamples({ ...d, samples: { ...d.samples, z: [1] } }, settings)).toThrow(RangeError);
 		expect(() => prepareSamples({ ...d, weights: [1] }, { transform: 'none', declustered: true })).toThrow('weights must match the samples');
 		expect(() => prepareSamples({ weights: [] } as never, settings)).toThrow(TypeError);
+	});
+
+	it("prepareSamples with a trend analyses the residuals of fitLinearTrend (declustered weights), then their normal scores", () => {
+		const d = handDomain({ soundings: 4, readings: 30 });
+		const p = prepareSamples(d, { transform: 'normal-score', declustered: true, trend: 'elevation' });
+		const samples = d.samples.value.map((value, i) => ({ x: d.samples.x[i], y: d.samples.y[i], z: d.samples.z[i], value }));
+		const fit = fitLinearTrend(samples, d.weights, 'elevation');
+		expect(p.trend).toEqual(fit);
+		const scores = normalScore(trendResiduals(samples, fit.trend), d.weights).scores;
+		expect(p.samples.map((s) => s.value)).toEqual(Array.from(scores));
+		const raw = prepareSamples(d, { transform: 'none', declustered: false, trend: 'elevation-plan' });
+		expect(raw.trend!.used).toEqual({ x: true, y: false, z: true });
+		expect(raw.variance).toBe(weightedVariance(trendResiduals(samples, raw.trend!.trend)));
+		expect(prepareSamples(d, { transform: 'none', declustered: false }).trend).toBeNull();
+		// domainTrend gives the same trend a simulation must add back (the one removed here).
+		expect(domainTrend(d, { declustered: true, trend: 'elevation' })).toEqual(fit);
+		expect(domainTrend(d, { declustered: false, trend: 'elevation-plan' })).toEqual(raw.trend);
+		expect(domainTrend(d, { declustered: true, trend: 'none' })).toBeNull();
 	});
 
 	it('prepareSamples does not mutate its input', () => {

@@ -26,6 +26,8 @@ describe('modelCurves(model, azimuth)', () => {
 			expectAbsClose(major.horizontal(h), expected(h / 40), 1e-12, `major h = ${h}`);
 			expectAbsClose(minor.horizontal(h), expected(h / 10), 1e-12, `minor h = ${h}`);
 		}
+		// .minor runs across the azimuth: the same as .horizontal at azimuth + 90°.
+		for (const h of [2, 10, 40]) expectAbsClose(major.minor(h), expected(h / 10), 1e-12, `minor of major h = ${h}`);
 		// The exponential reaches 95 % of its sill at its practical range (common practice).
 		expectAbsClose((major.horizontal(40) - 0.2) / 0.8, 1 - Math.exp(-3), 1e-12, 'practical range');
 	});

@@ -20,6 +20,7 @@ afterAll(() => {
 const settings: VariogramSettings = {
 	transform: 'normal-score',
 	declustered: true,
+	trend: 'none',
 	vertical: { lag: 0.1, nLags: 20, lagTolerance: 0.05 },
 	horizontal: { lag: 7.5, nLags: 12, lagTolerance: 3.75, verticalBand: 0.1, azimuth: null, angleTolerance: 22.5 },
 	minPairs: 30
@@ -66,16 +67,19 @@ describe('workers/variography through comlink', () => {
 		await expect(api.variograms(2, data, settings)).resolves.toHaveProperty('n', 4800);
 	});
 
-	it('fit(bins) and evaluate(parameters, bins) answer with fitVariogram\'s model and the misfit', async () => {
+	it('fit(bins) and evaluate(parameters, bins) answer with fitVariogram\'s model (sill held at the variance) and the misfit', async () => {
 		const r = await api.variograms(3, data, settings);
-		const bins = { vertical: r.vertical, horizontal: r.horizontal };
-		const fit = await api.fit(bins, { type: 'spherical', nugget: 'fit', minPairs: 30, azimuth: 0 });
-		const direct = fitVariogram(bins, { type: 'spherical', nugget: 'fit', minPairs: 30 });
+		const bins = { vertical: r.vertical, horizontal: r.horizontal, horizontalMinor: r.horizontalMinor };
+		const fit = await api.fit(bins, { type: 'spherical', nugget: 'fit', minPairs: 30, azimuth: 0, variance: r.variance });
+		const direct = fitVariogram({ vertical: r.vertical, horizontal: r.horizontal }, { type: 'spherical', nugget: 'fit', sill: r.variance, minPairs: 30 });
 		expect(fit.parameters.rangeVertical).toBe(direct.structures[1].rangeVertical);
-		expect(fit.parameters.rangeHorizontal).toBe(direct.structures[1].rangeMajor);
+		expect(fit.parameters.rangeMajor).toBe(direct.structures[1].rangeMajor);
+		expect(fit.parameters.sill).toBe(r.variance);
 		const ev = await api.evaluate(fit.parameters, bins, 30);
 		expect(ev.misfit.total!.wss).toBe(fit.misfit.total!.wss);
-		expect(ev.sensitivity!.range).toBe(fit.parameters.rangeHorizontal);
+		expect(ev.sensitivity.horizontal!.range).toBe(fit.parameters.rangeMajor);
+		expect(ev.sensitivity.vertical!.range).toBe(fit.parameters.rangeVertical);
+		expect(ev.sensitivity.minor).toBeNull();
 	});
 
 	it('variograms rejects an invalid setting with the engine\'s message', async () => {

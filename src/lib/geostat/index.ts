@@ -22,7 +22,15 @@ export type { DeclusterScanRow } from './declustering/decluster-cell-scan';
 export { gamma, covariance, compileVariogram, planRotation, reducedDistance, unitGamma, totalSill, validateVariogramModel } from './variogram/model';
 export type { PlanRotation, CompiledVariogram } from './variogram/model';
 export { experimentalVariogram } from './variogram/experimental';
+export { experimentalVariogramMap } from './variogram/map';
+export type { VariogramMap, VariogramMapOptions } from './variogram/map';
 export { fitVariogram, variogramMisfit } from './variogram/fit';
+
+// --- Trend of the mean ---
+export { fitLinearTrend } from './trend/fit-linear-trend';
+export type { LinearTrendFit, TrendTerms } from './trend/fit-linear-trend';
+export { trendValue, trendResiduals, validateTrend } from './simulation/trend';
+export type { LinearTrend } from './simulation/trend';
 
 // --- Linear algebra and kriging ---
 export { choleskyFactor, choleskySolve } from './linalg/cholesky';
@@ -54,6 +62,7 @@ export {
 	sampleSchema,
 	structureSchema,
 	variogramModelSchema,
+	trendSchema,
 	transformSchema,
 	domainInputSchema,
 	simulationInputSchema,
@@ -70,7 +79,7 @@ export type { EnsembleOptions } from './recipe/create-recipe';
 export { canonicalJson } from './recipe/canonical-json';
 export { sha256 } from './recipe/sha256';
 export { recipeHash } from './recipe/recipe-hash';
-export { ENGINE_VERSION, isCurrentEngine } from './recipe/engine-version';
+export { ENGINE_VERSION, ENGINE_VERSIONS, isCurrentEngine, engineVersionOf } from './recipe/engine-version';
 export { prepareRecipe } from './recipe/prepare-recipe';
 export type { PreparedRecipe } from './recipe/prepare-recipe';
 export { regenerate } from './recipe/regenerate';

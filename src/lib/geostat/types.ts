@@ -91,10 +91,19 @@ export interface FitOptions {
 	sill?: number | 'fit';
 	/** Bins with fewer pairs are left out; default 30. */
 	minPairs?: number;
+	/**
+	 * Plan azimuth (degrees clockwise from +y) the `horizontal` bins were computed along: the fitted model's
+	 * major axis; `horizontalMinor` bins lie across it. Default 0.
+	 */
+	azimuth?: number;
 }
 
-/** Bins of a vertical and/or a horizontal experimental variogram, for fitting. */
+/**
+ * Bins of experimental variograms, for fitting: vertical, horizontal (omnidirectional, or along the model's
+ * major axis), and optionally horizontal across it (the minor axis, azimuth + 90°).
+ */
 export interface FitInput {
 	vertical?: LagBin[];
 	horizontal?: LagBin[];
+	horizontalMinor?: LagBin[];
 }

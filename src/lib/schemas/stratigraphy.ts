@@ -118,13 +118,30 @@ const declusterCell = z
 	.strict()
 	.nullable();
 
+const nonNegative = (label: string, max: number, unit: string) =>
+	finite(label)
+		.refine((v) => v >= 0, { error: `${label} must not be negative.` })
+		.refine((v) => v <= max, { error: `${label} above ${max} ${unit} leaves nothing.` });
+
+/** A domain's conditioning data rules (ConditioningRules in $lib/site); 0 switches a limit off. */
+export const conditioningRulesSchema = z
+	.object({
+		contactBuffer: nonNegative('The buffer at contacts', 5, 'm'),
+		minDepth: nonNegative('The minimum depth', 100, 'm'),
+		minSigmaVeff: nonNegative('The minimum σ′v', 2000, 'kPa'),
+		excludedSoundings: z.array(z.string().trim().min(1).max(80)).max(1000),
+		flagged: z.enum(['keep', 'exclude'], { error: 'Choose keep or exclude for flagged readings.' })
+	})
+	.strict();
+
 const domainFields = {
 	name: name('domain name'),
 	property: simulatedProperty,
 	cellHeight: positive('The cell height').nullable(),
 	averaging: z.enum(['none', 'mean', 'median'], { error: 'Choose none, mean or median.' }),
 	declusterCell,
-	members: z.array(memberSchema).max(100)
+	members: z.array(memberSchema).max(100),
+	rules: conditioningRulesSchema
 };
 
 export const domainCreateSchema = z
@@ -156,5 +173,6 @@ export type ZoneBoundaryInput = z.output<typeof zoneBoundarySchema>;
 export type MemberInput = z.output<typeof memberSchema>;
 export type DomainCreate = z.output<typeof domainCreateSchema>;
 export type DomainUpdate = z.output<typeof domainUpdateSchema>;
+export type ConditioningRulesInput = z.output<typeof conditioningRulesSchema>;
 export type ZonationCreate = z.output<typeof zonationCreateSchema>;
 export type ZonationUpdate = z.output<typeof zonationUpdateSchema>;

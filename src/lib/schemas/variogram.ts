@@ -38,6 +38,8 @@ const lagSchema = z.object({
 export const variogramSettingsSchema = z.object({
 	transform: transformSchema,
 	declustered: z.boolean(),
+	/** Versions saved before trends existed analysed the values themselves. */
+	trend: z.enum(['none', 'elevation', 'elevation-plan']).default('none'),
 	vertical: lagSchema,
 	horizontal: lagSchema.extend({
 		verticalBand: nonNegative,
@@ -49,7 +51,9 @@ export const variogramSettingsSchema = z.object({
 	fit: z
 		.object({
 			type: z.enum(['spherical', 'exponential', 'gaussian']),
-			nugget: z.union([z.literal('fit'), z.literal('none'), nonNegative])
+			nugget: z.union([z.literal('fit'), z.literal('none'), nonNegative]),
+			/** Absent in versions saved before the sill could be held: those were fitted freely. */
+			sill: z.enum(['variance', 'fit']).optional()
 		})
 		.optional(),
 	/** Context of the data the fit was made on. */

@@ -30,7 +30,9 @@ export type { DomainDefaults } from './domain-defaults';
 
 // Domain samples and their distribution.
 export { extractDomainSamples } from './extract-domain-samples';
-export type { ExtractSounding, ExtractOptions } from './extract-domain-samples';
+export type { ExtractSounding, ExtractOptions, ExtractResult, LeftOutSounding } from './extract-domain-samples';
+export { readingRule, emptyRuleCounts, DEFAULT_RULES, RULE_ORDER } from './conditioning-rules';
+export type { ConditioningRules, RuleCounts, RuleKey, RuleReading } from './conditioning-rules';
 export { averageInWindows } from './average-in-windows';
 export { declusterWeights } from './decluster-weights';
 export type { DeclusterCell } from './decluster-weights';

@@ -1,7 +1,8 @@
 import { CancelledError } from '../cancelled-error';
-import { experimentalVariogram, type LagBin, type Sample } from '../geostat';
+import { experimentalVariogram, experimentalVariogramMap, type LagBin, type Sample, type VariogramMap } from '../geostat';
 import type { ExperimentalResult, Progress, VariogramSettings } from './types';
 import type { PreparedSamples } from './prepare-samples';
+import { plateauCheck } from './plateau-check';
 
 export interface ComputeOptions {
 	/** Called after each chunk (and once at the start with done 0). */
@@ -14,6 +15,8 @@ export interface ComputeOptions {
 	 * Awaited between chunks so messages (a cancel request) can arrive; default a zero-delay timeout.
 	 */
 	pause?: () => Promise<void>;
+	/** Also compute the variogram map in plan (3D domains), with the horizontal lag, lags and band. */
+	map?: boolean;
 }
 
 /**
@@ -26,13 +29,15 @@ export interface ComputeOptions {
  * - horizontal pairs have |dz| ≤ verticalBand, so the samples sorted by z are cut into slabs Sᵢ; with Eᵢ the
  *   later samples within the band above Sᵢ, every pair is counted exactly once by
  *   Σᵢ [pairs(Sᵢ ∪ Eᵢ) − pairs(Eᵢ)] (inclusion–exclusion; the subtraction is exact for the counts).
- * The horizontal variogram is omnidirectional, or along `azimuth` ± `angleTolerance` when an azimuth is set.
+ * The horizontal variogram is omnidirectional, or along `azimuth` ± `angleTolerance` when an azimuth is set,
+ * with a second one across it (azimuth + 90°). The map (experimentalVariogramMap) is chunked the same way.
+ * The result also compares each direction's plateau with the variance (plateauCheck).
  * @throws {CancelledError} when isCancelled() turns true; the engine's errors on invalid settings
  */
 export async function computeVariograms(
 	prepared: PreparedSamples,
 	settings: VariogramSettings,
-	{ onProgress, isCancelled = () => false, chunkSize = 4000, pause = defaultPause }: ComputeOptions = {}
+	{ onProgress, isCancelled = () => false, chunkSize = 4000, pause = defaultPause, map = false }: ComputeOptions = {}
 ): Promise<ExperimentalResult> {
 	const { samples } = prepared;
 	const v = settings.vertical;
@@ -46,9 +51,12 @@ export async function computeVariograms(
 		verticalBand: h.verticalBand,
 		...(h.azimuth === null ? {} : { azimuth: h.azimuth, angleTolerance: h.angleTolerance })
 	};
-	// Validate both option sets up front so a bad setting fails before any chunk runs.
+	const mOpts = h.azimuth === null ? null : { ...hOpts, azimuth: h.azimuth + 90 };
+	const mapOpts = { lag: h.lag, nLags: h.nLags, verticalBand: h.verticalBand };
+	// Validate every option set up front so a bad setting fails before any chunk runs.
 	experimentalVariogram([], vOpts);
 	experimentalVariogram([], hOpts);
+	if (map) experimentalVariogramMap([], mapOpts);
 
 	const vChunks = soundingGroups(samples, chunkSize);
 	const hChunks = zSlabs(samples, chunkSize, h.verticalBand);
@@ -68,19 +76,33 @@ export async function computeVariograms(
 		await step('vertical');
 	}
 	const hSum = new BinSums(h.nLags);
+	const mSum = mOpts ? new BinSums(h.nLags) : null;
+	const mapSum = map ? new MapSums(h.nLags) : null;
 	for (const { union, extension } of hChunks) {
 		if (isCancelled()) throw new CancelledError();
+		const both = extension.length > 1;
 		hSum.add(experimentalVariogram(union, hOpts), 1);
-		if (extension.length > 1) hSum.add(experimentalVariogram(extension, hOpts), -1);
+		if (both) hSum.add(experimentalVariogram(extension, hOpts), -1);
+		if (mSum && mOpts) {
+			mSum.add(experimentalVariogram(union, mOpts), 1);
+			if (both) mSum.add(experimentalVariogram(extension, mOpts), -1);
+		}
+		if (mapSum) {
+			mapSum.add(experimentalVariogramMap(union, mapOpts), 1);
+			if (both) mapSum.add(experimentalVariogramMap(extension, mapOpts), -1);
+		}
 		await step('horizontal');
 	}
+	const bins = { vertical: vSum.bins(v.lag), horizontal: hSum.bins(h.lag), horizontalMinor: mSum ? mSum.bins(h.lag) : null };
 	return {
-		vertical: vSum.bins(v.lag),
-		horizontal: hSum.bins(h.lag),
+		...bins,
+		map: mapSum ? mapSum.map(h.lag) : null,
 		variance: prepared.variance,
 		mean: prepared.mean,
 		n: samples.length,
-		soundings: prepared.soundings
+		soundings: prepared.soundings,
+		trend: prepared.trend,
+		plateau: plateauCheck(bins, prepared.variance, settings.minPairs)
 	};
 }
 
@@ -109,6 +131,51 @@ class BinSums {
 		return Array.from(this.count, (n, k) =>
 			n > 0 ? { h: this.sumH[k] / n, gamma: this.sumSq[k] / (2 * n), pairs: n } : { h: (k + 1) * lag, gamma: NaN, pairs: 0 }
 		);
+	}
+}
+
+class MapSums {
+	readonly size: number;
+	readonly count: Float64Array;
+	readonly sumDx: Float64Array;
+	readonly sumDy: Float64Array;
+	readonly sumSq: Float64Array;
+	constructor(readonly nLags: number) {
+		this.size = 2 * nLags + 1;
+		const cells = this.size * this.size;
+		this.count = new Float64Array(cells);
+		this.sumDx = new Float64Array(cells);
+		this.sumDy = new Float64Array(cells);
+		this.sumSq = new Float64Array(cells);
+	}
+	add(m: VariogramMap, sign: 1 | -1): void {
+		for (let c = 0; c < m.pairs.length; c++) {
+			const n = m.pairs[c];
+			if (n === 0) continue;
+			this.count[c] += sign * n;
+			this.sumDx[c] += sign * m.dx[c] * n;
+			this.sumDy[c] += sign * m.dy[c] * n;
+			this.sumSq[c] += sign * 2 * m.gamma[c] * n;
+		}
+	}
+	map(lag: number): VariogramMap {
+		const { size, nLags } = this;
+		const cells = size * size;
+		const out: VariogramMap = { lag, nLags, size, dx: new Float64Array(cells), dy: new Float64Array(cells), gamma: new Float64Array(cells), pairs: new Float64Array(cells) };
+		for (let c = 0; c < cells; c++) {
+			const n = this.count[c];
+			out.pairs[c] = n;
+			if (n > 0) {
+				out.dx[c] = this.sumDx[c] / n;
+				out.dy[c] = this.sumDy[c] / n;
+				out.gamma[c] = this.sumSq[c] / (2 * n);
+			} else {
+				out.dx[c] = ((c % size) - nLags) * lag;
+				out.dy[c] = (Math.floor(c / size) - nLags) * lag;
+				out.gamma[c] = NaN;
+			}
+		}
+		return out;
 	}
 }
 

@@ -10,7 +10,7 @@ import type { DomainSamplesData, VariogramSettings } from './types';
  *   or one reading spacing, whichever is larger (wider bands mix vertical separation into horizontal pairs);
  * - lag tolerance half the lag; bins with fewer than 30 pairs left out of fits (common practice);
  * - declustering weights when the domain sets a declustering cell, else equal weights (which is what the
- *   weights are without one), so the settings and the domain's summary say the same.
+ *   weights are without one), so the settings and the domain's summary say the same; no trend.
  */
 export function defaultSettings(
 	data: Pick<DomainSamplesData, 'samples' | 'lengthUnit'> & { domain?: { declusterCell: object | null } }
@@ -51,6 +51,7 @@ export function defaultSettings(
 	return {
 		transform: 'normal-score',
 		declustered: data.domain ? data.domain.declusterCell !== null : true,
+		trend: 'none',
 		vertical: { lag: vLag, nLags: Math.min(40, Math.max(5, Math.ceil((ft ? 10 : 3) / vLag))), lagTolerance: vLag / 2 },
 		horizontal: {
 			lag: hLag,

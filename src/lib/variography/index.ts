@@ -1,6 +1,7 @@
 // The variography workspace's computations: what workers/variography.ts runs, callable directly in tests.
 export type {
 	DomainSamplesData,
+	TrendChoice,
 	LagSettings,
 	VariogramSettings,
 	FitRequest,
@@ -10,9 +11,12 @@ export type {
 	Misfit,
 	ModelMisfit,
 	RangeSensitivity,
+	Plateau,
+	PlateauCheck,
 	Progress
 } from './types';
 export { prepareSamples } from './prepare-samples';
+export { domainTrend } from './domain-trend';
 export type { PreparedSamples } from './prepare-samples';
 export { computeVariograms } from './compute-variograms';
 export type { ComputeOptions } from './compute-variograms';
@@ -21,8 +25,11 @@ export { modelMisfit, misfitOrNull } from './model-misfit';
 export { modelCurves } from './model-curves';
 export type { ModelCurves } from './model-curves';
 export { autoFit } from './auto-fit';
-export type { AutoFitOptions } from './auto-fit';
-export { rangeSensitivity } from './range-sensitivity';
+export type { AutoFitOptions, AutoFitBins } from './auto-fit';
+export { plateauCheck, PLATEAU_TOLERANCE } from './plateau-check';
+export { mapAnisotropy } from './map-anisotropy';
+export type { MapAnisotropy } from './map-anisotropy';
+export { rangeSensitivity, ADMITTED_TOLERANCE } from './range-sensitivity';
 export type { SensitivityOptions } from './range-sensitivity';
 export { lagTableCsv } from './lag-table-csv';
 export { defaultSettings } from './default-settings';

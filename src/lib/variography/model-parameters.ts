@@ -3,21 +3,19 @@ import type { ModelParameters } from './types';
 
 /**
  * The engine model of editable parameters: a nugget structure (listed first, even when 0, so a saved model
- * always has the same shape) plus one structure with sill − nugget, rangeMajor = rangeMinor = the
- * horizontal range (isotropic in plan) and the vertical range.
+ * always has the same shape) plus one structure with sill − nugget, the two plan ranges along and across the
+ * azimuth and the vertical range.
  * @throws {RangeError} on a negative nugget, a sill below the nugget, or a range that is not > 0
  */
 export function modelFromParameters(p: ModelParameters): VariogramModel {
 	if (!(p.nugget >= 0) || !Number.isFinite(p.nugget)) throw new RangeError('nugget must be >= 0');
 	if (!(p.sill >= p.nugget) || !Number.isFinite(p.sill)) throw new RangeError('sill must be >= nugget');
-	if (!(p.rangeVertical > 0) || !(p.rangeHorizontal > 0) || !Number.isFinite(p.rangeVertical) || !Number.isFinite(p.rangeHorizontal)) {
-		throw new RangeError('ranges must be > 0');
-	}
+	if (![p.rangeVertical, p.rangeMajor, p.rangeMinor].every((r) => r > 0 && Number.isFinite(r))) throw new RangeError('ranges must be > 0');
 	return {
 		azimuth: Number.isFinite(p.azimuth) ? p.azimuth : 0,
 		structures: [
 			{ type: 'nugget', sill: p.nugget, rangeMajor: 0, rangeMinor: 0, rangeVertical: 0 },
-			{ type: p.type, sill: p.sill - p.nugget, rangeMajor: p.rangeHorizontal, rangeMinor: p.rangeHorizontal, rangeVertical: p.rangeVertical }
+			{ type: p.type, sill: p.sill - p.nugget, rangeMajor: p.rangeMajor, rangeMinor: p.rangeMinor, rangeVertical: p.rangeVertical }
 		]
 	};
 }
@@ -38,7 +36,8 @@ export function parametersFromModel(model: VariogramModel): ModelParameters {
 		nugget,
 		sill: nugget + s.sill,
 		rangeVertical: s.rangeVertical,
-		rangeHorizontal: s.rangeMajor,
+		rangeMajor: s.rangeMajor,
+		rangeMinor: s.rangeMinor,
 		azimuth: model.azimuth
 	};
 }

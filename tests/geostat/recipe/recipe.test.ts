@@ -8,9 +8,11 @@ import {
 	targetsFromDefinition,
 	isCurrentEngine,
 	prepareRecipe,
+	engineVersionOf,
 	regenerate,
 	simulate,
-	ENGINE_VERSION
+	ENGINE_VERSION,
+	ENGINE_VERSIONS
 } from '../../../src/lib/geostat/index';
 import type { SimulationInput, TargetDefinition } from '../../../src/lib/geostat/index';
 import { expectSameBits } from '../../asserts';
@@ -68,9 +70,10 @@ describe('createRecipe / recipeHash', () => {
 		expect(recipeInput(r).domains[0].model.structures[0].rangeMinor).toBe(Infinity);
 		expect(isCurrentEngine(r)).toBe(true);
 		expect(isCurrentEngine({ ...r, engineVersion: 'conefield-sgs/0' })).toBe(false);
-		// Version 1 computed covariances exactly rather than from the table (issue 16): its recipes are old now.
-		expect(ENGINE_VERSION).toBe('conefield-sgs/2');
+		// Version 1 computed covariances exactly rather than from the table (issue 16); version 2 knew no trends.
+		expect(ENGINE_VERSION).toBe('conefield-sgs/3');
 		expect(isCurrentEngine({ ...r, engineVersion: 'conefield-sgs/1' })).toBe(false);
+		expect(isCurrentEngine({ ...r, engineVersion: 'conefield-sgs/2' })).toBe(false);
 	});
 
 	it('recipeHash is 64 hex digits, unchanged by key order, changed by any value', () => {
@@ -190,5 +193,30 @@ describe('ensemble recipes: kind and realizations', () => {
 		const r = createRecipe(input, grid, { realizations: 4 });
 		expect(() => prepareRecipe({ ...r, realizations: -2 })).toThrow(/invalid recipe: realizations/);
 		expect(() => prepareRecipe({ ...r, engineVersion: 'conefield-sgs/0' })).toThrow('recipe is from engine version conefield-sgs/0');
+	});
+});
+
+describe('engine versions', () => {
+	// A recipe as engine version 1 wrote it (before trends): the literal JSON of createRecipe then.
+	const v1 = () => ({ ...JSON.parse(JSON.stringify(createRecipe(input, grid))), engineVersion: 'conefield-sgs/1' });
+
+	it('ENGINE_VERSION is conefield-sgs/3 (trends), the newest of ENGINE_VERSIONS', () => {
+		expect(ENGINE_VERSION).toBe('conefield-sgs/3');
+		expect(ENGINE_VERSIONS.map((v) => v.version)).toEqual(['conefield-sgs/1', 'conefield-sgs/2', 'conefield-sgs/3']);
+		expect(ENGINE_VERSIONS.at(-1)!.change).toMatch(/trend/);
+	});
+
+	it('a version-1 recipe still parses, keeps its hash, and is recognised as version 1, not current', () => {
+		const old = v1();
+		const before = recipeHash(old);
+		const parsed = recipeSchema.parse(old);
+		expect('trend' in parsed.input.domains[0]).toBe(false);
+		expect(recipeHash(parsed)).toBe(before);
+		expect(isCurrentEngine(parsed)).toBe(false);
+		expect(engineVersionOf(parsed)).toEqual({ version: 'conefield-sgs/1', change: 'first engine', current: false });
+		expect(engineVersionOf(createRecipe(input, grid))?.current).toBe(true);
+		expect(engineVersionOf({ engineVersion: 'conefield-sgs/2' })).toMatchObject({ version: 'conefield-sgs/2', current: false });
+		expect(engineVersionOf({ engineVersion: 'someone-else/7' })).toBeNull();
+		expect(() => regenerate(parsed, 0)).toThrow('recipe is from engine version conefield-sgs/1');
 	});
 });

@@ -66,6 +66,10 @@ describe('fitVariogram(bins, opts) on exact model bins', () => {
 		expect(b.structures[0].sill).toBe(0.2);
 		expectRelClose(b.structures[1].sill, 0.8, 1e-4);
 		expectRelClose(b.structures[1].rangeMajor, 10, 1e-4);
+		// A fixed total sill with the nugget fitted: c0 = Σw(1 − f)(γ̂ − S·f) / Σw(1 − f)² recovers the truth.
+		const d = fitVariogram(input, { type: 'spherical', nugget: 'fit', sill: 1 });
+		expectRelClose(d.structures[0].sill, 0.2, 1e-4, 'fitted nugget under a fixed sill');
+		expectRelClose(d.structures[1].rangeMajor, 10, 1e-4);
 		const c = fitVariogram(input, { type: 'spherical', nugget: 0.2, sill: 1 });
 		expectAbsClose(c.structures[1].sill, 0.8, 1e-15);
 		expectRelClose(c.structures[1].rangeMajor, 10, 1e-4);
@@ -178,5 +182,38 @@ describe('fitVariogram edge cases', () => {
 		const b = fitVariogram({ vertical: v }, { type: 'gaussian', nugget: 'fit' });
 		expect(a).toEqual(b);
 		expect(JSON.stringify(v)).toBe(copy);
+	});
+});
+
+describe('fitVariogram with plan anisotropy (horizontalMinor bins, azimuth)', () => {
+	it('fitVariogram recovers rangeMajor, rangeMinor and rangeVertical to 1e-4 from exact bins along and across the azimuth', () => {
+		const truth: VariogramModel = {
+			structures: [
+				{ type: 'nugget', sill: 0.05, rangeMajor: 0, rangeMinor: 0, rangeVertical: 0 },
+				{ type: 'exponential', sill: 0.95, rangeMajor: 60, rangeMinor: 18, rangeVertical: 1.1 }
+			],
+			azimuth: 35
+		};
+		const rad = (35 * Math.PI) / 180;
+		const along = lags(5, 20).map((h) => ({ h, gamma: gamma(truth, h * Math.sin(rad), h * Math.cos(rad), 0), pairs: 100 }));
+		const across = lags(3, 20).map((h) => ({ h, gamma: gamma(truth, h * Math.cos(rad), -h * Math.sin(rad), 0), pairs: 100 }));
+		const m = fitVariogram({ vertical: bins(truth, lags(0.1, 30), 'v'), horizontal: along, horizontalMinor: across }, { type: 'exponential', nugget: 'fit', sill: 1, azimuth: 35 });
+		expect(m.azimuth).toBe(35);
+		const s = m.structures[1];
+		expectRelClose(s.rangeMajor, 60, 1e-4, 'rangeMajor');
+		expectRelClose(s.rangeMinor, 18, 1e-4, 'rangeMinor');
+		expectRelClose(s.rangeVertical, 1.1, 1e-4, 'rangeVertical');
+		expectRelClose(m.structures[0].sill, 0.05, 1e-4, 'nugget');
+		// The misfit compares the minor bins across the model's major axis: 0 for the truth.
+		expect(variogramMisfit(truth, { horizontal: along, horizontalMinor: across }).wss).toBeLessThan(1e-20);
+	});
+
+	it('fitVariogram with minor bins only takes rangeMajor from them; a non-finite azimuth is refused', () => {
+		const truth: VariogramModel = { structures: [{ type: 'spherical', sill: 1, rangeMajor: 9, rangeMinor: 9, rangeVertical: 9 }], azimuth: 0 };
+		const m = fitVariogram({ horizontalMinor: bins(truth, lags(1, 15), 'h') }, { type: 'spherical', sill: 1 });
+		expectRelClose(m.structures[0].rangeMinor, 9, 1e-4);
+		expect(m.structures[0].rangeMajor).toBe(m.structures[0].rangeMinor);
+		expect(m.structures[0].rangeVertical).toBe(m.structures[0].rangeMajor);
+		expect(() => fitVariogram({ horizontal: bins(truth, lags(1, 5), 'h') }, { type: 'spherical', azimuth: NaN })).toThrow('azimuth must be a finite number');
 	});
 });

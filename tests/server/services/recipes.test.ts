@@ -146,12 +146,29 @@ describe('createRecipe(projectId, userId, setup) — identity', () => {
 		expect(p.grid.counts).toEqual({ x: 40, y: 1, z: 17 });
 		expect(p.domains.map((d) => d.name)).toEqual(split.domains.map((d) => d.name));
 		for (const d of p.domains) {
-			expect(d.variogram?.name).toBe('Demo automatic fit');
+			expect(d.variogram).toMatchObject({ name: d.name, version: expect.any(Number), transform: 'normal-score' });
 			expect(d.data?.rules).toMatchObject({ cellHeight: 0.2, averaging: 'mean' });
 			expect(d.cells).toBeGreaterThan(0);
 		}
 		expect(p.domains.reduce((a, d) => a + d.cells, 0)).toBe(p.grid.simulated);
 		expect(getRecipe(projectId, recipe.id, db).createdBy?.name).toBe('Ana Analyst');
+	});
+
+	it('a variogram that removes a linear trend of the mean puts the trend in the recipe (residuals simulated, trend added back)', () => {
+		const dense = split.domains.find((d) => d.name === 'Dense sand')!;
+		const old = listVariograms(projectId, dense.id, db)[0];
+		const v = saveVariogram(projectId, dense.id, userId, { ...old, name: 'With a trend', settings: { ...old.settings, trend: 'elevation' }, note: '' }, db);
+		const domains = split.domains.map((d) => ({ domainId: d.id, simulate: true, variogramId: d.id === dense.id ? v.id : null }));
+		const { recipe } = createRecipe(projectId, userId, setup({ name: 'Trend', domains }), db);
+		const p = recipe.provenance.domains.find((d) => d.domainId === dense.id)!;
+		expect(p.trend).not.toBeNull();
+		expect(p.trend!.gradient.z).not.toBe(0);
+		const doc = loadRecipe(projectId, recipe.id, db).recipe;
+		expect(doc.input.domains[p.index!].trend).toEqual(p.trend);
+		expect(doc.input.domains.filter((d) => d.trend).length).toBe(1);
+		// The tails default to the residuals' extremes, which straddle 0.
+		expect(p.tails!.zmin).toBeLessThan(0);
+		expect(p.tails!.zmax).toBeGreaterThan(0);
 	});
 
 	it('a domain left out of the simulation gets no cells and no index', () => {

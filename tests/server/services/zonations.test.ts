@@ -24,6 +24,7 @@ import { getSite, updateSite } from '../../../src/lib/server/services/site';
 import { ServiceError } from '../../../src/lib/server/errors';
 import { projects } from '../../../src/lib/server/db/schema';
 import { eq } from 'drizzle-orm';
+import { createRecipe } from '../../../src/lib/geostat/index';
 import { addSounding, siteTestProject, type SiteTestProject } from './site-db';
 
 let t: SiteTestProject;
@@ -242,5 +243,74 @@ describe('zonations and domains', () => {
 		expect(r.weights.reduce((a, b) => a + b, 0)).toBeCloseTo(1, 14); // weights sum to 1 within 1e-14
 		expect(r.stats.n).toBe(42);
 		expect(r.cdf.p[r.cdf.p.length - 1]).toBeLessThan(1);
+	});
+
+	/**
+	 * Rules on stored soundings: readings every 0.1 m from 0.1 to 3.0 m, ground 0, clay on top, sand from −1 m
+	 * (the reading at −1.0 m lies on the contact and counts in the sand). The sand domain keeps depths ≥ 1.15 m
+	 * and leaves out 0.25 m either side of the contact: of 21 sand readings per sounding (1.0 … 3.0 m), 1.0 and
+	 * 1.1 m are too shallow (the first rule that applies counts), 1.2 m lies 0.2 m from the contact: 18 kept.
+	 * S-2 is left out by name (its 21 readings), S-4 has no contacts.
+	 */
+	it('domainSamples(p, d) applies the domain\'s rules, counts what each removed, and names the soundings left out', () => {
+		const { clay, sand } = sandSplit();
+		for (const [name, c] of [
+			['S-1', 10],
+			['S-2', 20],
+			['S-3', 80]
+		] as const) {
+			const s = addSounding(t.db, t.projectId, name, { chainage: c, maxDepth: 3 });
+			putContact(t.projectId, { soundingId: s, unitId: clay.id, topElevation: 0 }, t.db);
+			putContact(t.projectId, { soundingId: s, unitId: sand.id, topElevation: -1 }, t.db);
+		}
+		addSounding(t.db, t.projectId, 'S-4', { chainage: 40, maxDepth: 3 });
+		const rules = { contactBuffer: 0.25, minDepth: 1.15, minSigmaVeff: 0, excludedSoundings: ['S-2'], flagged: 'keep' as const };
+		const z = createZonation(t.projectId, { name: 'Z', description: '', domains: [{ name: 'Sand', property: 'qc1Ncs', cellHeight: null, declusterCell: null, members: [{ unitId: sand.id, zone: -1 }], rules }] }, t.db);
+		expect(z.domains[0].rules).toEqual(rules);
+		const r = domainSamples(t.projectId, z.domains[0].id, t.db);
+		expect(r.domain.rules).toEqual(rules);
+		expect(r.counts).toEqual({ readings: 63, sounding: 21, noValue: 0, minDepth: 4, minSigmaVeff: 0, contactBuffer: 2, flagged: 0, kept: 36 });
+		expect(r.soundings.map((s) => [s.name, s.n])).toEqual([
+			['S-1', 18],
+			['S-3', 18]
+		]);
+		expect(Math.max(...r.samples.z)).toBeCloseTo(-1.3, 9);
+		expect(r.leftOut).toEqual([
+			{ name: 'S-2', reason: 'excluded' },
+			{ name: 'S-4', reason: 'no contacts' }
+		]);
+		// A recipe built from these samples (the engine's createRecipe, as a recipe service resolves a domain
+		// through domainSamples) holds exactly the kept readings.
+		const recipe = createRecipe(
+			{
+				seed: 'rules',
+				domains: [
+					{
+						samples: r.samples.value.map((value, i) => ({ x: r.samples.x[i], y: r.samples.y[i], z: r.samples.z[i], value, sounding: r.samples.sounding[i] })),
+						weights: r.weights,
+						model: { azimuth: 90, structures: [{ type: 'exponential', sill: 1, rangeMajor: 20, rangeMinor: 20, rangeVertical: 1 }] },
+						transform: 'normal-score',
+						kriging: 'simple',
+						search: { maxData: 8, maxSimulated: 8 }
+					}
+				]
+			},
+			{ kind: 'points', x: [15], y: [0], z: [-2], domain: [0] }
+		);
+		const held = recipe.input.domains[0].samples;
+		expect(held).toHaveLength(36);
+		expect(new Set(held.map((s) => s.sounding))).toEqual(new Set(['S-1', 'S-3']));
+		expect(held.every((s) => s.z <= -1.3 + 1e-9)).toBe(true);
+	});
+
+	it('updateDomain(p, d, {rules}) replaces the rules; a sounding that is not in the project is refused', () => {
+		const { sand } = sandSplit();
+		addSounding(t.db, t.projectId, 'S-1', { chainage: 10 });
+		const z = createZonation(t.projectId, { name: 'Z', description: '', domains: [{ name: 'Sand', property: 'qc1Ncs', members: [{ unitId: sand.id, zone: -1 }] }] }, t.db);
+		expect(z.domains[0].rules).toEqual({ contactBuffer: 0, minDepth: 0, minSigmaVeff: 0, excludedSoundings: [], flagged: 'keep' });
+		const rules = { contactBuffer: 0.1, minDepth: 0, minSigmaVeff: 20, excludedSoundings: ['S-1'], flagged: 'exclude' as const };
+		expect(updateDomain(t.projectId, z.domains[0].id, { rules }, t.db).rules).toEqual(rules);
+		expectServiceError(() => updateDomain(t.projectId, z.domains[0].id, { rules: { ...rules, excludedSoundings: ['Nope'] } }, t.db), 422, /No sounding named Nope/);
+		expect(getDomain(t.projectId, z.domains[0].id, t.db).domain.rules).toEqual(rules);
 	});
 });

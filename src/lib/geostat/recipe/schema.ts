@@ -29,6 +29,11 @@ export const variogramModelSchema = z.object({
 	azimuth: z.number()
 });
 
+const point3 = z.object({ x: z.number(), y: z.number(), z: z.number() });
+
+/** A linear trend of the mean (LinearTrend): the domain is simulated on residuals and the trend added back. */
+export const trendSchema = z.object({ origin: point3, constant: z.number(), gradient: point3 });
+
 /** The transform a domain is simulated under: normal scores (sequential Gaussian simulation) or the values themselves. */
 export const transformSchema = z.enum(['normal-score', 'none']);
 
@@ -37,6 +42,8 @@ export const domainInputSchema = z
 		samples: z.array(sampleSchema),
 		weights: z.array(z.number().positive()).optional(),
 		model: variogramModelSchema,
+		// Optional, so recipes written without a trend parse (and hash) exactly as before.
+		trend: trendSchema.optional(),
 		transform: transformSchema,
 		mean: z.number().optional(),
 		kriging: z.enum(['simple', 'ordinary']),

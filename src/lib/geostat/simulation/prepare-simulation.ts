@@ -13,6 +13,7 @@ import type { Lattice } from './lattice';
 import { multigridLevel, multigridStrides } from './multigrid-path';
 import { SolutionCache } from './solution-cache';
 import type { DomainInput, SimulationInput, TargetPoints } from './types';
+import { trendResiduals, validateTrend, type LinearTrend } from './trend';
 
 /**
  * Distance (in the project's length unit) within which a target and a datum, or two data, count as one
@@ -56,6 +57,8 @@ export interface PreparedDomain {
 	mean: number;
 	ordinary: boolean;
 	table: NormalScoreTable | null;
+	/** The domain's trend of the mean, added back to every simulated value; null without one. */
+	trend: LinearTrend | null;
 	ellipsoid: SearchEllipsoid;
 	maxData: number;
 	maxSimulated: number;
@@ -235,6 +238,7 @@ function checkDomain(d: DomainInput): void {
 	}
 	if (s.path !== undefined && s.path !== 'random' && s.path !== 'multigrid') throw new TypeError("path must be 'random' or 'multigrid'");
 	if (d.transform === 'normal-score' && d.samples.length === 0) throw new RangeError('a normal-score domain needs samples');
+	if (d.trend !== undefined) validateTrend(d.trend);
 }
 
 function prepareDomain(
@@ -247,7 +251,8 @@ function prepareDomain(
 	checkDomain(d);
 	const cov = tabulatedCovariance(d.model);
 	const ellipsoid = searchEllipsoid(d.model, d.search.radius);
-	let kvals = d.samples.map((s) => s.value);
+	// With a trend the kriged space is that of the residuals (Goovaerts 1997, ch. 8: simulate residuals, add the trend back).
+	let kvals = d.trend ? trendResiduals(d.samples, d.trend) : d.samples.map((s) => s.value);
 	let table: NormalScoreTable | null = null;
 	if (d.transform === 'normal-score') {
 		const ns = normalScore(kvals, d.weights, { zmin: d.zmin, zmax: d.zmax });
@@ -336,6 +341,7 @@ function prepareDomain(
 		mean: d.mean ?? 0,
 		ordinary: d.kriging === 'ordinary',
 		table,
+		trend: d.trend ?? null,
 		ellipsoid,
 		maxData: d.search.maxData,
 		maxSimulated: d.search.maxSimulated,

@@ -5,6 +5,7 @@ import { normalisedCoordinates } from '../search/search-ellipsoid';
 import { selectNearest } from '../search/select-nearest';
 import { choleskyFactor, choleskySolve } from '../linalg/cholesky';
 import { prepareSimulation } from './prepare-simulation';
+import { trendValue } from './trend';
 import type { PreparedDomain, PreparedSimulation } from './prepare-simulation';
 import { multigridLevel, multigridPath } from './multigrid-path';
 import { signatureHash } from './solution-cache';
@@ -29,7 +30,8 @@ export function realizationStream(seed: string, realization: number, domain: num
  * nodes (≤ maxSimulated) inside the search ellipsoid, ranked by the ellipsoid's normalised (anisotropic)
  * distance, enter a simple or ordinary kriging system (covariances as TabulatedCovariance evaluates them);
  * the node gets estimate + √variance·N(0,1), drawn by
- * Φ⁻¹ of a uniform (Wichura 1988), and is back-transformed from normal scores. Targets within
+ * Φ⁻¹ of a uniform (Wichura 1988), and is back-transformed from normal scores; a domain's trend of the mean
+ * (DomainInput.trend) is added back after the back-transform. Targets within
  * COINCIDENCE_TOLERANCE of a datum take the datum's value exactly. With no neighbour at all a node is drawn
  * from the simple-kriging mean and the sill (ordinary kriging too).
  *
@@ -523,10 +525,14 @@ function simulateDomain(
 	}
 
 	const tbl = dom.table;
+	const trend = dom.trend;
 	for (const g of dom.targets) {
 		const i = datumAt[g];
 		if (i >= 0) out[g] = dom.dorig[i];
-		else out[g] = tbl ? backTransform(tbl, y[g]) : y[g];
+		else {
+			const v = tbl ? backTransform(tbl, y[g]) : y[g];
+			out[g] = trend ? v + trendValue(trend, X[g], Y[g], Z[g]) : v;
+		}
 	}
 }
 

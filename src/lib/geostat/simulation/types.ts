@@ -1,4 +1,5 @@
 import type { Sample, VariogramModel } from '../types';
+import type { LinearTrend } from './trend';
 
 /** Target points of a simulation, as columns. `domain[i]` is the index of the domain of point i; −1: not simulated. */
 export interface TargetPoints {
@@ -33,8 +34,17 @@ export interface DomainInput {
 	samples: Sample[];
 	/** Declustering weights for the normal-score transform, one per sample. */
 	weights?: number[];
-	/** Variogram of the normal scores, or of the values when transform is 'none'. */
+	/**
+	 * Variogram of the normal scores, or of the values when transform is 'none' (of the residuals from the
+	 * trend, when there is one).
+	 */
 	model: VariogramModel;
+	/**
+	 * A linear trend of the mean: the domain is simulated on the residuals v − m (their normal scores, or
+	 * themselves when transform is 'none'; mean, zmin and zmax then refer to the residuals) and m is added
+	 * back at each target. Targets at a datum still take the datum's value exactly. Omitted: no trend.
+	 */
+	trend?: LinearTrend;
 	/** 'none': a Gaussian field of the values themselves with mean `mean`. */
 	transform: 'normal-score' | 'none';
 	/** Simple-kriging mean in the kriged space (normal scores or values); default 0. */

@@ -5,6 +5,7 @@
  */
 import { blob, index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 import type { VariogramModel } from '../../geostat';
+import type { ConditioningRules } from '../../site/conditioning-rules';
 import { SIMULATED_PROPERTIES } from '../../properties';
 import { now, projects, timestamp, users } from './schema';
 
@@ -179,6 +180,8 @@ export const domains = sqliteTable(
 		averaging: text('averaging', { enum: AVERAGING }).notNull().default('none'),
 		/** Cell size for declustering weights; equal weights when null. */
 		declusterCell: json<{ x: number; y: number; z: number }>('decluster_cell'),
+		/** Which readings condition the domain (buffer at contacts, minimum depth and σ′v, soundings, flags); null: all. */
+		rules: json<ConditioningRules>('rules'),
 		createdAt: timestamp('created_at').notNull().default(now)
 	},
 	(t) => [uniqueIndex('domains_zonation_name_idx').on(t.zonationId, t.name)]

@@ -1,9 +1,10 @@
 /**
  * The demo scenario: an invented river-levee section of our own, used only to make demo data.
  *
- * 400 m of levee toe along a straight section line. From the top: overbank clay over a loose point-bar
- * sand; an abandoned channel, plugged with soft clay, cuts the sand near chainage 205 m, and the sand is
- * looser on its west side than on its east side; dense sand below. Elevations in m, chainage in m.
+ * 400 m of levee toe along a straight section line. From the top: overbank clay — a soft, normally
+ * consolidated clay below a thin desiccated crust — over a loose point-bar sand; an abandoned channel, plugged
+ * with soft clay, cuts the sand near chainage 205 m, and the sand is looser on its west side than on its east
+ * side; dense sand below. Elevations in m, chainage in m.
  * Nothing here is measured data: every number is chosen to look like a plausible site.
  */
 
@@ -73,6 +74,27 @@ export const BOTTOM_ELEVATION = -12;
 export const READING_INTERVAL = 0.02;
 export const FIRST_DEPTH = 0.1;
 export const AREA_RATIO = 0.8;
+
+/**
+ * Thickness of the desiccated crust at the top of the overbank clay (m below ground): 0.85–1.15 m, within
+ * the zone the water table (1.5 m below ground) leaves dry in summer.
+ */
+export function crustThickness(c: number): number {
+	return 1.0 + 0.15 * wave(c / 80 + 0.7);
+}
+
+/** Undrained strength the crust adds at the ground surface (kPa), fading to nothing at its base. */
+export const CRUST_STRENGTH = 30;
+
+/**
+ * The demo's rule for its overbank clay domains: readings shallower than this (m) are left out, the thickest
+ * crust of the section plus 0.1 m rounded up to 0.05 m (1.25 m), so the domains stand for the soft clay below.
+ */
+export const OVERBANK_MIN_DEPTH = (() => {
+	let t = 0;
+	for (let c = 0; c <= 400; c++) t = Math.max(t, crustThickness(c));
+	return Math.ceil((t + 0.1) * 20) / 20;
+})();
 
 /** Ground elevation along the section: a gently undulating toe near +4 m. */
 export function groundElevation(c: number): number {

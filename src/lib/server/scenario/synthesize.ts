@@ -8,6 +8,8 @@ import { finesContentFromIc, qc1NcsBI2014 } from '../../cpt/index';
 import {
 	AREA_RATIO,
 	CHANNEL_AXIS,
+	CRUST_STRENGTH,
+	crustThickness,
 	FIRST_DEPTH,
 	GROUNDWATER_ELEVATION,
 	LEVEE_UNITS,
@@ -24,9 +26,13 @@ const GAMMA_W = 9.81;
 export const TRUTH_DOMAINS = ['overbank', 'pointbar-west', 'pointbar-east', 'plug', 'dense'] as const;
 export type TruthDomain = (typeof TRUTH_DOMAINS)[number];
 
-/** Per truth domain: median and log-standard deviation of the simulated property, and the Ic mean. */
+/**
+ * Per truth domain: median and log-standard deviation of the simulated property, and the Ic mean. The clays
+ * are soft and normally consolidated: su/σ′v about 0.2–0.35 (common practice); the overbank clay also has a
+ * desiccated crust on top (crustStrength).
+ */
 const TARGETS: Record<TruthDomain, { median: number; logSd: number; icMean: number; icSlope: number; bq: number }> = {
-	overbank: { median: 0.9, logSd: 0.25, icMean: 2.95, icSlope: 0.12, bq: 0.15 },
+	overbank: { median: 0.27, logSd: 0.15, icMean: 2.95, icSlope: 0.12, bq: 0.15 },
 	'pointbar-west': { median: 80, logSd: 0.22, icMean: 2.0, icSlope: 0.15, bq: 0 },
 	'pointbar-east': { median: 125, logSd: 0.2, icMean: 1.85, icSlope: 0.12, bq: 0 },
 	plug: { median: 0.26, logSd: 0.2, icMean: 3.25, icSlope: 0.1, bq: 0.45 },
@@ -93,7 +99,10 @@ export function synthesizeSounding({ sounding, depth, field, noise, noiseLevel =
 		const domain = truthDomainAt(c, z);
 		const t = TARGETS[domain];
 		const y = field[i];
-		const target = t.median * Math.exp(t.logSd * y);
+		// In the crust the strength of the normally consolidated clay gains an overconsolidated excess that fades
+		// with depth; near the surface σ′v tends to zero, so su/σ′v there reads far higher (common practice).
+		const crust = domain === 'overbank' ? crustStrength(d, crustThickness(c), y) : 0;
+		const target = t.median * Math.exp(t.logSd * y) + (crust > 0 ? crust / sigmaVeff : 0);
 		const ic = t.icMean - t.icSlope * y;
 		const clay = domain === 'overbank' || domain === 'plug';
 		let qt: number;
@@ -115,6 +124,16 @@ export function synthesizeSounding({ sounding, depth, field, noise, noiseLevel =
 		out.domain.push(domain);
 	}
 	return out;
+}
+
+/**
+ * The undrained strength the desiccated crust adds at depth d (kPa): CRUST_STRENGTH·(1 − d/thickness)² above the
+ * crust's base, scaled by the field's own variation (log-sd 0.2), nothing below.
+ */
+export function crustStrength(d: number, thickness: number, y: number): number {
+	if (d >= thickness) return 0;
+	const f = 1 - d / thickness;
+	return CRUST_STRENGTH * f * f * Math.exp(0.2 * y);
 }
 
 function unitWeight(unit: LeveeUnitKey, z: number): number {

@@ -6,6 +6,7 @@ import {
 	CHANNEL_AXIS,
 	GROUNDWATER_ELEVATION,
 	LEVEE_UNITS,
+	OVERBANK_MIN_DEPTH,
 	SECTION_LINE,
 	scenarioSoundings,
 	unitTops,
@@ -15,6 +16,7 @@ import type { DbOrTx } from '$lib/server/db/transaction';
 import { updateSite } from './site';
 import { createUnit, createZoneBoundary } from './stratigraphy';
 import { createZonation } from './zonations';
+import { DEFAULT_RULES } from '$lib/site';
 
 /**
  * Stacking order of the demo units, top down. The channel plug sits above the sliver of point-bar sand
@@ -26,11 +28,17 @@ const STACK: LeveeUnitKey[] = ['overbank', 'plug', 'pointbar', 'dense'];
 const DEMO_CELL = { cellHeight: 0.2, averaging: 'mean' as const, declusterCell: { x: 40, y: 40, z: null } };
 
 /**
+ * The overbank clay's rules leave its desiccated crust out: readings shallower than the thickest crust of the
+ * scenario plus 0.1 m (OVERBANK_MIN_DEPTH, 1.25 m), so the domain stands for the soft normally consolidated clay below.
+ */
+export const OVERBANK_RULES = { ...DEFAULT_RULES, minDepth: OVERBANK_MIN_DEPTH };
+
+/**
  * Seeds the demo project's stratigraphy from the invented levee scenario: site settings (section line,
  * groundwater), the four units with their parameters, the contacts at each demo sounding from the scenario's
  * unit tops at its chainage, a vertical zone boundary splitting the point-bar sand at the channel axis into
- * West and East, and two zonations (sand split at the channel; sand grouped). The demo soundings must
- * already be loaded. Returns the ids it created.
+ * West and East, and two zonations (sand split at the channel; sand grouped), the overbank clay leaving its
+ * crust out (OVERBANK_RULES). The demo soundings must already be loaded. Returns the ids it created.
  */
 export function seedDemoStratigraphy(db: DbOrTx, projectId: string): { units: Record<LeveeUnitKey, string>; zonations: string[] } {
 	const bearing = (SECTION_LINE.bearing * Math.PI) / 180;
@@ -90,7 +98,13 @@ export function seedDemoStratigraphy(db: DbOrTx, projectId: string): { units: Re
 		db
 	);
 
-	const clay = (name: string, key: LeveeUnitKey) => ({ name, property: 'suRatio' as const, ...DEMO_CELL, members: [{ unitId: ids[key], zone: -1 }] });
+	const clay = (name: string, key: LeveeUnitKey) => ({
+		name,
+		property: 'suRatio' as const,
+		...DEMO_CELL,
+		members: [{ unitId: ids[key], zone: -1 }],
+		...(key === 'overbank' ? { rules: OVERBANK_RULES } : {})
+	});
 	const sand = (name: string, zone: number) => ({ name, property: 'qc1Ncs' as const, ...DEMO_CELL, members: [{ unitId: ids.pointbar, zone }] });
 	const dense = { name: 'Dense sand', property: 'qc1Ncs' as const, ...DEMO_CELL, members: [{ unitId: ids.dense, zone: -1 }] };
 	const split = createZonation(

@@ -4,7 +4,8 @@ import { memberships, projects, users, type ProjectRole, type SiteRole } from '$
 import { hashPassword } from '$lib/server/auth/password';
 import { seedDemoSoundings } from './demo-soundings';
 import { seedDemoStratigraphy } from './demo-stratigraphy';
-import { seedDemoRecipes, seedDemoVariogramsWhereMissing } from './demo-simulations';
+import { seedDemoVariograms } from './demo-variograms';
+import { seedDemoRecipes } from './demo-simulations';
 
 /** The demo accounts. Their passwords are printed in the README: for a local demo only. */
 export const DEMO_ACCOUNTS: ReadonlyArray<{
@@ -29,14 +30,15 @@ export const DEMO_PROJECT = {
 };
 
 /**
- * Seeds the demo accounts and project into an empty database (no users yet); does nothing otherwise.
- * Returns the demo project's id when it seeded. Later stages add their demo data here.
+ * Seeds the demo accounts and project into an empty database (no users yet); does nothing otherwise: the
+ * accounts, the project, its soundings and stratigraphy in one transaction, then a saved variogram for every
+ * domain (seedDemoVariograms). Returns the demo project's id when it seeded. Later stages add their demo data here.
  */
 export async function seedDemo(db: Db): Promise<string | null> {
 	const existing = db.select({ n: count() }).from(users).get()?.n ?? 0;
 	if (existing > 0) return null;
 	const hashes = await Promise.all(DEMO_ACCOUNTS.map((a) => hashPassword(a.password)));
-	return db.transaction((tx) => {
+	const seeded = db.transaction((tx) => {
 		const created = DEMO_ACCOUNTS.map((a, i) =>
 			tx
 				.insert(users)
@@ -52,8 +54,10 @@ export async function seedDemo(db: Db): Promise<string | null> {
 		seedDemoSoundings(tx, project.id, owner.id);
 		seedDemoStratigraphy(tx, project.id);
 		const analyst = created[DEMO_ACCOUNTS.findIndex((a) => a.projectRole === 'analyst')];
-		seedDemoVariogramsWhereMissing(tx, project.id, analyst.id);
-		seedDemoRecipes(tx, project.id, analyst.id);
-		return project.id;
+		return { projectId: project.id, analystId: analyst.id };
 	});
+	// Computed outside the first transaction (the variograms are computed asynchronously, as in the workspace).
+	await seedDemoVariograms(db, seeded.projectId, seeded.analystId);
+	seedDemoRecipes(db, seeded.projectId, seeded.analystId);
+	return seeded.projectId;
 }

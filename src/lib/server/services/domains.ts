@@ -1,9 +1,19 @@
 import { weightedMean } from '$lib/geostat';
-import { PROPERTY_INFO, type SimulatedProperty } from '$lib/properties';
+import { correlationFlagMask, PROPERTY_INFO, type SimulatedProperty } from '$lib/properties';
 import { getDb } from '$lib/server/db';
 import type { Averaging } from '$lib/server/db/site-schema';
 import type { DbOrTx } from '$lib/server/db/transaction';
-import { declusterWeights, domainStatistics, extractDomainSamples, weightedCdf, type Cdf, type DomainStats } from '$lib/site';
+import {
+	declusterWeights,
+	domainStatistics,
+	extractDomainSamples,
+	weightedCdf,
+	type Cdf,
+	type ConditioningRules,
+	type DomainStats,
+	type LeftOutSounding,
+	type RuleCounts
+} from '$lib/site';
 import { deriveSoundings } from './derived';
 import { getSite } from './site';
 import { boundariesByUnit } from './stratigraphy';
@@ -20,6 +30,8 @@ export interface DomainSamples {
 		cellHeight: number | null;
 		averaging: Averaging;
 		declusterCell: { x: number; y: number; z: number | null } | null;
+		/** The conditioning data rules applied. */
+		rules: ConditioningRules;
 	};
 	property: { key: SimulatedProperty; label: string; unit: string };
 	lengthUnit: 'm' | 'ft';
@@ -32,13 +44,20 @@ export interface DomainSamples {
 	stats: DomainStats;
 	soundings: { name: string; n: number; mean: number; cdf: Cdf }[];
 	cdf: Cdf;
-	/** Soundings left out and why (no chainage, no easting/northing …). */
+	/** Soundings left out and why (no contacts, no chainage, no easting/northing, left out by name), worded. */
 	warnings: string[];
+	/** The same soundings with their reasons. */
+	leftOut: LeftOutSounding[];
+	/** The readings in the domain's units and zones, and how many each conditioning rule left out (before averaging). */
+	counts: RuleCounts;
 }
 
 /**
  * The conditioning data of a domain with its declustering weights and distributions: pooled over all
- * soundings (declustered) and per sounding (the same weights, renormalised within the sounding).
+ * soundings (declustered) and per sounding (the same weights, renormalised within the sounding). The
+ * domain's conditioning rules are applied here (extractDomainSamples), so everything built on these samples —
+ * variograms, and the recipes that resolve a domain through this service — sees only the kept readings.
+ * Readings flagged as outside the property's correlation are those with one of the catalogue's flags for it.
  * @throws ServiceError 404 when the domain is not in the project
  */
 export function domainSamples(projectId: string, domainId: string, db: DbOrTx = getDb()): DomainSamples {
@@ -47,15 +66,20 @@ export function domainSamples(projectId: string, domainId: string, db: DbOrTx = 
 	const derived = deriveSoundings(projectId, undefined, db);
 	const unitIds = derived[0]?.units.map((u) => u.id) ?? [];
 	const boundaries = boundariesByUnit(projectId, db);
-	const { samples, warnings } = extractDomainSamples(
+	const mask = correlationFlagMask(domain.property);
+	const { samples, warnings, leftOut, counts } = extractDomainSamples(
 		derived.map((d) => ({
 			name: d.sounding.name,
 			chainage: d.sounding.chainage,
 			x: d.sounding.x,
 			y: d.sounding.y,
+			groundElevation: d.sounding.groundElevation,
 			elevation: d.derived.elevation,
 			unit: d.unit,
-			value: d.derived[domain.property]
+			value: d.derived[domain.property],
+			sigmaVeff: d.derived.sigmaVeff,
+			flagged: Array.from(d.flags, (f) => (f & mask) !== 0),
+			contacts: placedTops(d.units)
 		})),
 		{
 			geometry: site.geometry,
@@ -63,7 +87,8 @@ export function domainSamples(projectId: string, domainId: string, db: DbOrTx = 
 			members: domain.members,
 			boundaries,
 			cellHeight: domain.cellHeight,
-			averaging: domain.averaging
+			averaging: domain.averaging,
+			rules: domain.rules
 		}
 	);
 	for (const d of derived) for (const w of d.warnings) if (/off the section line/.test(w)) warnings.push(w);
@@ -83,7 +108,8 @@ export function domainSamples(projectId: string, domainId: string, db: DbOrTx = 
 			property: domain.property,
 			cellHeight: domain.cellHeight,
 			averaging: domain.averaging,
-			declusterCell: domain.declusterCell
+			declusterCell: domain.declusterCell,
+			rules: domain.rules
 		},
 		property: { key: domain.property, label: PROPERTY_INFO[domain.property].label, unit: PROPERTY_INFO[domain.property].unit },
 		lengthUnit: site.lengthUnit,
@@ -103,6 +129,19 @@ export function domainSamples(projectId: string, domainId: string, db: DbOrTx = 
 			return { name, n: idx.length, mean: weightedMean(v, w), cdf: weightedCdf(v, w) };
 		}),
 		cdf: weightedCdf(values, weights),
-		warnings
+		warnings,
+		leftOut,
+		counts
 	};
+}
+
+/**
+ * The unit tops that place a sounding's readings: none when no top was measured or interpolated there and the
+ * project has several units, since the ground-surface default of the top unit alone would put every reading of
+ * the sounding in the top unit (the sounding is then left out, with the reason 'no contacts').
+ */
+function placedTops(units: { topElevation: number | null; topSource: string | null }[]): number[] {
+	const tops = units.flatMap((u) => (u.topElevation === null ? [] : [u.topElevation]));
+	const placed = units.some((u) => u.topSource !== null && u.topSource !== 'ground');
+	return placed || units.length < 2 ? tops : [];
 }

@@ -4,7 +4,8 @@
  * saved variogram version, kriging, search and tail bounds, and the target grid with each cell's domain read
  * from the stratigraphy. Everything is read from the database; nothing is written here.
  */
-import { createRecipe, weightedMean, type DomainInput, type Recipe } from '$lib/geostat';
+import { createRecipe, trendResiduals, weightedMean, type DomainInput, type LinearTrend, type Recipe } from '$lib/geostat';
+import { domainTrend } from '$lib/variography';
 import { PROPERTY_INFO, type SimulatedProperty } from '$lib/properties';
 import { getDb } from '$lib/server/db';
 import type { DbOrTx } from '$lib/server/db/transaction';
@@ -32,8 +33,10 @@ export interface ProvenanceDomain {
 	/** The simple-kriging mean in the kriged space (0 for normal scores, the declustered data mean for values). */
 	mean: number | null;
 	search: DomainInput['search'] | null;
-	/** The tail bounds in force: as set, or the smallest and largest datum. */
+	/** The tail bounds in force: as set, or the smallest and largest datum (of the residuals with a trend). */
 	tails: { zmin: number; zmax: number } | null;
+	/** The linear trend of the mean the variogram's settings remove, when there is one. */
+	trend: LinearTrend | null;
 	/** The conditioning data: how many, from how many soundings, by which of the domain's rules. */
 	data: { samples: number; soundings: number; rules: Omit<DomainSamples['domain'], 'id' | 'name' | 'zonationId' | 'zonationName' | 'property'> } | null;
 }
@@ -65,21 +68,25 @@ export function projectStratigraphy(projectId: string, db: DbOrTx = getDb()): Gr
 
 /**
  * The engine's input for one simulated domain: its conditioning data (original units, with their sounding) and
- * declustering weights as the domain-samples service gives them, the saved variogram's model and transform,
- * the kriging type with its mean (0 in normal-score space; the declustered data mean when the values are
- * simulated without a transform), the search (its path only when not the default random one, so recipes that do
- * not use it keep their hash), and the tail bounds (null: the data's own extremes, the engine's
- * default). The one place a domain's input is built.
+ * declustering weights as the domain-samples service gives them, the saved variogram's model and transform, the
+ * linear trend of the mean its settings remove (domainTrend: the domain is then simulated on the residuals and
+ * the trend added back), the kriging type with its mean (0 in normal-score space; the declustered mean of the
+ * values, or of the residuals, when simulated without a transform), the search (its path only when not the
+ * default random one, so recipes that do not use it keep their hash), and the tail bounds (null: the data's own
+ * extremes, the engine's default; with a trend they bound the residuals). The one place a domain's input is built.
  */
 export function domainInput(samples: DomainSamples, variogram: VariogramView, setup: SimulatedDomainSetup): DomainInput {
 	const { x, y, z, value, sounding } = samples.samples;
 	const transform = variogram.settings.transform;
+	const data = value.map((v, i) => ({ x: x[i], y: y[i], z: z[i], value: v, sounding: sounding[i] }));
+	const trend: LinearTrend | undefined = domainTrend(samples, variogram.settings)?.trend;
+	const kriged = trend ? trendResiduals(data, trend) : value;
 	const input: DomainInput = {
-		samples: value.map((v, i) => ({ x: x[i], y: y[i], z: z[i], value: v, sounding: sounding[i] })),
+		samples: data,
 		weights: samples.weights,
 		model: variogram.model,
 		transform,
-		mean: transform === 'normal-score' ? 0 : weightedMean(value, samples.weights),
+		mean: transform === 'normal-score' ? 0 : weightedMean(kriged, samples.weights),
 		kriging: setup.kriging,
 		search: {
 			maxData: setup.search.maxData,
@@ -89,6 +96,7 @@ export function domainInput(samples: DomainSamples, variogram: VariogramView, se
 			...(setup.search.path === 'multigrid' ? { path: 'multigrid' as const } : {})
 		}
 	};
+	if (trend) input.trend = trend;
 	if (setup.tails.zmin !== null) input.zmin = setup.tails.zmin;
 	if (setup.tails.zmax !== null) input.zmax = setup.tails.zmax;
 	return input;
@@ -134,7 +142,7 @@ export function resolveRecipe(projectId: string, setup: RecipeSetup, db: DbOrTx 
 		}
 		const { d, k } = entry;
 		if (!d.simulate) {
-			provenance.push({ ...base, index: null, variogram: null, kriging: null, mean: null, search: null, tails: null, data: null });
+			provenance.push({ ...base, index: null, variogram: null, kriging: null, mean: null, search: null, tails: null, trend: null, data: null });
 			continue;
 		}
 		const saved = listVariograms(projectId, zd.id, db);
@@ -152,17 +160,26 @@ export function resolveRecipe(projectId: string, setup: RecipeSetup, db: DbOrTx 
 			issues.push({ path: ['domains', k], message: `${zd.name} has no conditioning data: no sounding reading lies in it.` });
 			continue;
 		}
+		let input: DomainInput;
+		try {
+			input = domainInput(samples, variogram, d);
+		} catch (err) {
+			issues.push({ path: ['domains', k, 'variogramId'], message: `The trend of ${zd.name}'s variogram cannot be fitted to its data: ${(err as Error).message}.` });
+			continue;
+		}
+		// The tail bounds bound what is back-transformed: the values, or their residuals from the trend.
+		const kriged = input.trend ? trendResiduals(input.samples, input.trend) : values;
 		let lo = Infinity;
 		let hi = -Infinity;
-		for (const v of values) {
+		for (const v of kriged) {
 			if (v < lo) lo = v;
 			if (v > hi) hi = v;
 		}
 		const unit = PROPERTY_INFO[zd.property].unit;
 		const u = unit === '–' ? '' : ` ${unit}`;
-		if (d.tails.zmin !== null && d.tails.zmin > lo) issues.push({ path: ['domains', k, 'tails', 'zmin'], message: `The lower tail bound of ${zd.name} must not be above its smallest datum (${lo}${u}).` });
-		if (d.tails.zmax !== null && d.tails.zmax < hi) issues.push({ path: ['domains', k, 'tails', 'zmax'], message: `The upper tail bound of ${zd.name} must not be below its largest datum (${hi}${u}).` });
-		const input = domainInput(samples, variogram, d);
+		const what = input.trend ? 'residual' : 'datum';
+		if (d.tails.zmin !== null && d.tails.zmin > lo) issues.push({ path: ['domains', k, 'tails', 'zmin'], message: `The lower tail bound of ${zd.name} must not be above its smallest ${what} (${lo}${u}).` });
+		if (d.tails.zmax !== null && d.tails.zmax < hi) issues.push({ path: ['domains', k, 'tails', 'zmax'], message: `The upper tail bound of ${zd.name} must not be below its largest ${what} (${hi}${u}).` });
 		const { id: _id, name: _name, zonationId: _z, zonationName: _zn, property: _p, ...rules } = samples.domain;
 		provenance.push({
 			...base,
@@ -172,6 +189,7 @@ export function resolveRecipe(projectId: string, setup: RecipeSetup, db: DbOrTx 
 			mean: input.mean ?? 0,
 			search: input.search,
 			tails: { zmin: d.tails.zmin ?? lo, zmax: d.tails.zmax ?? hi },
+			trend: input.trend ?? null,
 			data: { samples: values.length, soundings: new Set(samples.samples.sounding).size, rules }
 		});
 		inputs.push(input);

@@ -1,10 +1,10 @@
 import { and, asc, eq, inArray, ne } from 'drizzle-orm';
 import { getDb } from '$lib/server/db';
-import { domainMembers, domains, units, zonations, type Domain, type Zonation } from '$lib/server/db/site-schema';
+import { domainMembers, domains, soundings, units, zonations, type Domain, type Zonation } from '$lib/server/db/site-schema';
 import { ServiceError } from '$lib/server/errors';
 import type { DomainCreate, DomainUpdate, MemberInput, ZonationCreate, ZonationUpdate } from '$lib/schemas/stratigraphy';
 import { inTransaction, type DbOrTx } from '$lib/server/db/transaction';
-import { domainDefaults, membersOverlap, WHOLE_UNIT } from '$lib/site';
+import { DEFAULT_RULES, domainDefaults, membersOverlap, WHOLE_UNIT, type ConditioningRules } from '$lib/site';
 import { getSite } from './site';
 import { listUnits, type UnitView } from './stratigraphy';
 
@@ -25,6 +25,8 @@ export interface DomainView {
 	averaging: Domain['averaging'];
 	/** Cell for declustering weights; z null means one cell over the full height. Null: equal weights. */
 	declusterCell: { x: number; y: number; z: number | null } | null;
+	/** Which readings condition the domain (DEFAULT_RULES when none were saved). */
+	rules: ConditioningRules;
 	members: MemberView[];
 }
 
@@ -55,6 +57,7 @@ export function createZonation(projectId: string, input: ZonationCreate, db: DbO
 	if (new Set(names).size !== names.length) throw new ServiceError(409, 'Two domains of a zonation cannot share a name.');
 	const all = input.domains.flatMap((d) => d.members ?? []);
 	checkMembers(all, unitList, []);
+	for (const d of input.domains) if (d.rules) checkRuleSoundings(db, projectId, d.rules);
 	const id = inTransaction(db, (tx) => {
 		const z = tx.insert(zonations).values({ projectId, name: input.name, description: input.description }).returning().get();
 		const lengthUnit = getSite(projectId, tx).lengthUnit;
@@ -105,6 +108,7 @@ export function createDomain(projectId: string, zonationId: string, input: Domai
 		throw new ServiceError(409, `The zonation already has a domain named ${input.name}.`);
 	}
 	checkMembers(input.members ?? [], listUnits(projectId, db), z.domains);
+	if (input.rules) checkRuleSoundings(db, projectId, input.rules);
 	const id = inTransaction(db, (tx) => insertDomain(tx, zonationId, input, z.domains.length, getSite(projectId, tx).lengthUnit));
 	return getDomain(projectId, id, db).domain;
 }
@@ -118,6 +122,7 @@ export function updateDomain(projectId: string, domainId: string, input: DomainU
 		throw new ServiceError(409, `The zonation already has a domain named ${input.name}.`);
 	}
 	if (input.members) checkMembers(input.members, listUnits(projectId, db), others);
+	if (input.rules) checkRuleSoundings(db, projectId, input.rules);
 	const { members, declusterCell, ...fields } = input;
 	inTransaction(db, (tx) => {
 		const set = { ...fields, ...(declusterCell !== undefined ? { declusterCell: storedCell(declusterCell) } : {}) };
@@ -163,6 +168,24 @@ export function checkMembers(members: MemberInput[], unitList: UnitView[], other
 	}
 }
 
+/**
+ * Checks that the soundings a domain's rules leave out exist in the project.
+ * @throws ServiceError 422 naming the first unknown sounding
+ */
+function checkRuleSoundings(db: DbOrTx, projectId: string, rules: ConditioningRules): void {
+	if (rules.excludedSoundings.length === 0) return;
+	const names = new Set(
+		db
+			.select({ name: soundings.name })
+			.from(soundings)
+			.where(eq(soundings.projectId, projectId))
+			.all()
+			.map((r) => r.name)
+	);
+	const unknown = rules.excludedSoundings.find((n) => !names.has(n));
+	if (unknown !== undefined) throw new ServiceError(422, `No sounding named ${unknown} in this project.`);
+}
+
 function describe(m: MemberInput, byId: Map<string, UnitView>): string {
 	const u = byId.get(m.unitId)!;
 	return m.zone === WHOLE_UNIT ? u.name : `${u.name} (${u.zoneNames[m.zone]})`;
@@ -191,7 +214,8 @@ function insertDomain(tx: DbOrTx, zonationId: string, d: DomainCreate, position:
 			property: d.property,
 			cellHeight,
 			averaging: d.averaging ?? (cellHeight === null ? 'none' : defaults.averaging),
-			declusterCell: storedCell(d.declusterCell === undefined ? defaults.declusterCell : d.declusterCell)
+			declusterCell: storedCell(d.declusterCell === undefined ? defaults.declusterCell : d.declusterCell),
+			rules: d.rules ?? null
 		})
 		.returning()
 		.get();
@@ -246,6 +270,7 @@ function views(zs: Zonation[], unitList: UnitView[], db: DbOrTx): ZonationView[]
 				cellHeight: d.cellHeight,
 				averaging: d.averaging,
 				declusterCell: d.declusterCell ? { x: d.declusterCell.x, y: d.declusterCell.y, z: Number.isFinite(d.declusterCell.z) ? d.declusterCell.z : null } : null,
+				rules: { ...DEFAULT_RULES, ...(d.rules ?? {}) },
 				members: ms
 					.filter((m) => m.domainId === d.id)
 					.map((m) => {

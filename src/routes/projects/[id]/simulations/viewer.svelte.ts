@@ -32,7 +32,7 @@ export interface RecipeDomain {
 	name: string;
 	property: SimulatedProperty;
 	cells: number;
-	/** The tail bounds in force: the span realizations' values can take. */
+	/** The span realizations' values can take: the tail bounds in force (the data's extremes with a trend). */
 	zmin: number;
 	zmax: number;
 }
@@ -80,7 +80,12 @@ export class FieldViewer {
 		this.domains = view.provenance.domains
 			.filter((d) => d.index !== null)
 			.sort((a, b) => a.index! - b.index!)
-			.map((d) => ({ index: d.index!, name: d.name, property: d.property, cells: d.cells, zmin: d.tails!.zmin, zmax: d.tails!.zmax }));
+			.map((d) => {
+				// With a trend the tail bounds are of the residuals; the values' span is then the data's.
+				const values = recipe.input.domains[d.index!].samples.map((s) => s.value);
+				const [zmin, zmax] = d.trend ? [Math.min(...values), Math.max(...values)] : [d.tails!.zmin, d.tails!.zmax];
+				return { index: d.index!, name: d.name, property: d.property, cells: d.cells, zmin, zmax };
+			});
 		this.properties = [...new Set(this.domains.map((d) => d.property))];
 		// The property most of the grid is in comes first.
 		const cells = new Map<SimulatedProperty, number>();

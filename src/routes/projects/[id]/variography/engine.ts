@@ -1,8 +1,10 @@
-import type { FitInput, LagBin } from '$lib/geostat';
+import type { LagBin, VariogramMap } from '$lib/geostat';
 import type {
+	AutoFitBins,
 	AutoFitOptions,
 	DomainSamplesData,
 	ExperimentalResult,
+	MapAnisotropy,
 	ModelMisfit,
 	ModelParameters,
 	Progress,
@@ -10,10 +12,17 @@ import type {
 	VariogramSettings
 } from '$lib/variography';
 
-/** Misfit and horizontal range sensitivity of a model against the bins. */
+/** Misfit and range sensitivity of a model against the bins, per direction (null where a direction has no usable bin). */
 export interface Evaluation {
 	misfit: ModelMisfit;
-	sensitivity: RangeSensitivity | null;
+	sensitivity: { vertical: RangeSensitivity | null; horizontal: RangeSensitivity | null; minor: RangeSensitivity | null };
+}
+
+/** The bins a model is evaluated against. */
+export interface EvaluationBins {
+	vertical: LagBin[];
+	horizontal: LagBin[];
+	horizontalMinor: LagBin[] | null;
 }
 
 /**
@@ -21,11 +30,16 @@ export interface Evaluation {
  * or the same functions called in process in tests.
  */
 export interface VariographyEngine {
-	/** Both experimental variograms; a job still running is cancelled first. Rejects with a CancelledError when cancelled. */
-	variograms(data: Pick<DomainSamplesData, 'samples' | 'weights'>, settings: VariogramSettings, onProgress: (p: Progress) => void): Promise<ExperimentalResult>;
+	/** The experimental variograms (and a 3D domain's map); a job still running is cancelled first. Rejects with a CancelledError when cancelled. */
+	variograms(
+		data: Pick<DomainSamplesData, 'samples' | 'weights' | 'geometry'>,
+		settings: VariogramSettings,
+		onProgress: (p: Progress) => void
+	): Promise<ExperimentalResult>;
 	/** Cancels the running variogram job, if any. */
 	cancel(): void;
-	fit(bins: FitInput, opts: AutoFitOptions): Promise<{ parameters: ModelParameters }>;
-	evaluate(parameters: ModelParameters, bins: { vertical: LagBin[]; horizontal: LagBin[] }, minPairs: number): Promise<Evaluation>;
+	fit(bins: AutoFitBins, opts: AutoFitOptions): Promise<{ parameters: ModelParameters }>;
+	evaluate(parameters: ModelParameters, bins: EvaluationBins, minPairs: number): Promise<Evaluation>;
+	anisotropy(map: VariogramMap, parameters: Pick<ModelParameters, 'type' | 'nugget' | 'sill'>, minPairs: number): Promise<MapAnisotropy>;
 	terminate(): void;
 }

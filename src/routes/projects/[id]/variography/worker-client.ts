@@ -2,9 +2,9 @@
 import * as Comlink from 'comlink';
 import type { VariographyApi } from '../../../../../workers/variography';
 import { CancelledError } from '$lib/cancelled-error';
-import type { FitInput, LagBin } from '$lib/geostat';
-import type { AutoFitOptions, DomainSamplesData, ModelParameters, Progress, VariogramSettings } from '$lib/variography';
-import type { VariographyEngine } from './engine';
+import type { VariogramMap } from '$lib/geostat';
+import type { AutoFitBins, AutoFitOptions, DomainSamplesData, ModelParameters, Progress, VariogramSettings } from '$lib/variography';
+import type { EvaluationBins, VariographyEngine } from './engine';
 
 export class VariographyWorker implements VariographyEngine {
 	private readonly worker: Worker;
@@ -17,7 +17,7 @@ export class VariographyWorker implements VariographyEngine {
 		this.api = Comlink.wrap<VariographyApi>(this.worker);
 	}
 
-	async variograms(data: Pick<DomainSamplesData, 'samples' | 'weights'>, settings: VariogramSettings, onProgress: (p: Progress) => void) {
+	async variograms(data: Pick<DomainSamplesData, 'samples' | 'weights' | 'geometry'>, settings: VariogramSettings, onProgress: (p: Progress) => void) {
 		this.cancel();
 		const id = ++this.job;
 		this.running = id;
@@ -34,12 +34,16 @@ export class VariographyWorker implements VariographyEngine {
 		if (this.running !== null) void this.api.cancel(this.running);
 	}
 
-	fit(bins: FitInput, opts: AutoFitOptions) {
+	fit(bins: AutoFitBins, opts: AutoFitOptions) {
 		return this.api.fit(bins, opts);
 	}
 
-	evaluate(parameters: ModelParameters, bins: { vertical: LagBin[]; horizontal: LagBin[] }, minPairs: number) {
+	evaluate(parameters: ModelParameters, bins: EvaluationBins, minPairs: number) {
 		return this.api.evaluate(parameters, bins, minPairs);
+	}
+
+	anisotropy(map: VariogramMap, parameters: Pick<ModelParameters, 'type' | 'nugget' | 'sill'>, minPairs: number) {
+		return this.api.anisotropy(map, parameters, minPairs);
 	}
 
 	terminate(): void {

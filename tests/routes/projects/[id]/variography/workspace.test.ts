@@ -13,8 +13,10 @@ import {
 } from '../../../../../src/lib/variography/index';
 import type { VariographyEngine } from '../../../../../src/routes/projects/[id]/variography/engine';
 import { VariographyWorkspace } from '../../../../../src/routes/projects/[id]/variography/workspace.svelte';
+import { analysedSpace } from '../../../../../src/routes/projects/[id]/variography/analysed-space';
 import { variographyApi } from '../../../../../workers/variography';
 import { handDomain } from '../../../../variography/fixture';
+import { DEFAULT_RULES, emptyRuleCounts } from '../../../../../src/lib/site/index';
 
 const wait = (ms: number) => new Promise((r) => setTimeout(r, ms));
 async function until(check: () => boolean, what: string, ms = 10_000) {
@@ -29,13 +31,15 @@ function samplesOf(id: string, name: string, seed: string): DomainSamples {
 	const d = handDomain({ soundings: 6, readings: 120, seed });
 	return {
 		...d,
-		domain: { id, name, zonationId: 'z1', zonationName: 'By unit', property: 'qc1Ncs', cellHeight: null, averaging: 'none', declusterCell: null },
+		domain: { id, name, zonationId: 'z1', zonationName: 'By unit', property: 'qc1Ncs', cellHeight: null, averaging: 'none', declusterCell: { x: 40, y: 40, z: null }, rules: DEFAULT_RULES },
 		property: { key: 'qc1Ncs', label: 'qc1Ncs', unit: '–' },
 		geometry: '2d',
 		stats: { n: d.samples.value.length, mean: 0, sd: 0, p10: 0, p50: 0, p90: 0 },
 		soundings: [],
 		cdf: { value: [], p: [] },
-		warnings: []
+		warnings: [],
+		leftOut: [],
+		counts: { ...emptyRuleCounts(), readings: d.samples.value.length, kept: d.samples.value.length }
 	};
 }
 
@@ -97,6 +101,7 @@ function inProcess(): VariographyEngine & { jobs: number } {
 		},
 		fit: async (...a: Parameters<VariographyEngine['fit']>) => variographyApi.fit(...a),
 		evaluate: async (...a: Parameters<VariographyEngine['evaluate']>) => variographyApi.evaluate(...a),
+		anisotropy: async (...a: Parameters<VariographyEngine['anisotropy']>) => variographyApi.anisotropy(...a),
 		terminate() {}
 	};
 	return engine;
@@ -145,7 +150,7 @@ describe('VariographyWorkspace', () => {
 			transform: 'none',
 			fit: { type: 'spherical', nugget: 0.5 }
 		};
-		const params = { type: 'spherical' as const, nugget: 0.5, sill: 60, rangeVertical: 0.6, rangeHorizontal: 30, azimuth: 0 };
+		const params = { type: 'spherical' as const, nugget: 0.5, sill: 60, rangeVertical: 0.6, rangeMajor: 30, rangeMinor: 30, azimuth: 0 };
 		const saved: VariogramView = {
 			id: 'v0', domainId: 'sand', name: 'Sand raw', version: 2, model: modelFromParameters(params), settings, misfit: null,
 			note: '', createdBy: null, createdAt: new Date(0).toISOString(), comments: 0
@@ -179,7 +184,7 @@ describe('VariographyWorkspace', () => {
 	it('autoFit() gives autoFit\'s parameters on the shown bins, and the misfit follows', async () => {
 		const { ws } = await opened();
 		await ws.autoFit();
-		const direct = autoFit(ws.result!, { type: 'exponential', nugget: 'fit', minPairs: ws.minPairs, azimuth: 0 });
+		const direct = autoFit(ws.result!, { type: 'exponential', nugget: 'fit', minPairs: ws.minPairs, azimuth: 0, variance: ws.result!.variance });
 		expect(ws.model.params).toEqual(direct.parameters);
 		expect(ws.notices.status).toMatch(/^Automatic fit done/);
 		await until(() => ws.model.evaluation !== null, 'the evaluation');
@@ -252,13 +257,69 @@ describe('VariographyWorkspace', () => {
 		await ws.autoFit();
 		ws.history.saveName = 'Sand';
 		await ws.save();
-		ws.model.setValue('rangeHorizontal', 99);
+		ws.model.setValue('rangeMajor', 99);
 		await ws.save();
 		const v1 = ws.history.versions.find((v) => v.version === 1)!;
 		await ws.history.restore(v1);
 		expect(ws.history.versions.map((v) => v.version)).toEqual([3, 2, 1]);
-		expect(ws.model.params!.rangeHorizontal).toBe(v1.model.structures[1].rangeMajor);
+		expect(ws.model.params!.rangeMajor).toBe(v1.model.structures[1].rangeMajor);
 		expect(ws.notices.status).toBe('Restored v1 as Sand v3.');
+		ws.destroy();
+	});
+
+	it('a new analysed space (transform, weights, trend) drops the old model and fits again; nothing is drawn or saved across spaces', async () => {
+		const { ws, sent } = await opened();
+		await ws.autoFit();
+		const normal = ws.model.params!;
+		expect(normal.sill).toBe(ws.result!.variance);
+		expect(ws.modelMatches).toBe(true);
+		// The transform changes: the result of raw values arrives, the normal-score model is dropped and refitted.
+		ws.settings!.transform = 'none';
+		await ws.compute();
+		await until(() => !ws.model.fitting && ws.modelMatches, 'the refit');
+		expect(ws.result!.variance).toBeGreaterThan(10);
+		expect(ws.model.params!.sill).toBe(ws.result!.variance);
+		expect(ws.model.space).toBe(analysedSpace('sand', { transform: 'none', declustered: true, trend: 'none' }));
+		expect(ws.notices.status).toBe(
+			'The analysed values changed (normal scores, declustered, no trend → raw values, declustered, no trend): the old model was dropped and the automatic fit run on the new bins.'
+		);
+		// The trend changes likewise.
+		ws.settings!.trend = 'elevation';
+		await ws.compute();
+		await until(() => !ws.model.fitting && ws.modelMatches, 'the refit with a trend');
+		expect(ws.result!.trend).not.toBeNull();
+		expect(ws.notices.status).toMatch(/→ raw values, declustered, trend with elevation removed\)/);
+		// A model of another space is neither drawn nor saved.
+		ws.model.set(normal, analysedSpace('sand', { transform: 'normal-score', declustered: true, trend: 'none' }));
+		expect(ws.modelMatches).toBe(false);
+		expect(ws.curves).toBeNull();
+		await ws.save();
+		expect(sent).toHaveLength(0);
+		ws.destroy();
+	});
+
+	it('save() sends the settings of the bins shown, not settings edited since', async () => {
+		const { ws, sent } = await opened();
+		await ws.autoFit();
+		const shown = JSON.parse(ws.resultSettings);
+		ws.settings!.horizontal.lag *= 3;
+		ws.history.saveName = 'Sand';
+		await ws.save();
+		expect((sent[0] as { settings: unknown }).settings).toMatchObject(shown);
+		ws.destroy();
+	});
+
+	it('a saved version fitted to another number of samples says the domain\'s data changed since', async () => {
+		const first = await opened();
+		await first.ws.autoFit();
+		first.ws.history.saveName = 'Sand';
+		await first.ws.save();
+		const v = { ...first.versions[0], settings: { ...first.versions[0].settings, samples: 5 } };
+		first.ws.destroy();
+		const { ws } = await opened([v]);
+		expect(ws.dataChanged).toBe(`Sand v1 was fitted to 5 samples; the domain now has ${ws.data!.samples.value.length} (its rules, contacts or soundings changed). Fit again before relying on it.`);
+		await ws.autoFit();
+		expect(ws.dataChanged).toBe('');
 		ws.destroy();
 	});
 });
