@@ -8,7 +8,7 @@ import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { freePort } from '../tests/setup/server';
-import { DEMO, DEMO_PROJECT_NAME, launchChromium, signedInSession } from '../tests/setup';
+import { DEMO, DEMO_PROJECT_NAME, launchChromium, signInPage, signedInSession } from '../tests/setup';
 import type { BenchCase } from './index';
 
 const root = resolve(import.meta.dirname, '..');
@@ -39,12 +39,7 @@ async function run(): Promise<Record<string, number>> {
 		const { recipes } = (await (await api.json('GET', `/api/v1/projects/${projectId}/recipes`)).json()) as { recipes: { id: string; name: string }[] };
 		const recipe = recipes.find((r) => r.name.startsWith('Sand split at channel'))!;
 
-		const page = await (await browser.newContext({ baseURL: baseUrl, viewport: { width: 1280, height: 800 } })).newPage();
-		await page.goto('/signin');
-		await page.locator('form[action="?/password"] input[name="email"]').fill(DEMO.analyst.email);
-		await page.locator('input[name="password"]').fill(DEMO.analyst.password);
-		await page.getByRole('button', { name: 'Sign in', exact: true }).click();
-		await page.waitForURL('**/projects');
+		const { page } = await signInPage(browser, baseUrl, DEMO.analyst, { width: 1280, height: 800 });
 		await page.goto(`/projects/${projectId}/simulations?recipe=${recipe.id}`);
 		await page.locator('[data-testid=run]').waitFor();
 		const cores = await page.evaluate(() => navigator.hardwareConcurrency);

@@ -8,7 +8,7 @@
 import { createHash } from 'node:crypto';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { DEMO, DEMO_PROJECT_NAME, HttpSession, launchChromium, signedInSession } from '../setup';
+import { DEMO, DEMO_PROJECT_NAME, HttpSession, launchChromium, signInPage, signedInSession } from '../setup';
 
 const baseUrl = inject('baseUrl');
 let browser: Browser;
@@ -38,13 +38,7 @@ beforeAll(async () => {
 	api = await signedInSession(baseUrl, DEMO.analyst.email, DEMO.analyst.password);
 	const { projects } = (await (await api.json('GET', '/api/v1/projects')).json()) as { projects: { id: string; name: string }[] };
 	projectId = projects.find((p) => p.name === DEMO_PROJECT_NAME)!.id;
-	const context = await browser.newContext({ baseURL: baseUrl, viewport: { width: 1280, height: 800 } });
-	page = await context.newPage();
-	await page.goto('/signin');
-	await page.locator('form[action="?/password"] input[name="email"]').fill(DEMO.analyst.email);
-	await page.locator('input[name="password"]').fill(DEMO.analyst.password);
-	await page.getByRole('button', { name: 'Sign in', exact: true }).click();
-	await page.waitForURL('**/projects');
+	({ page } = await signInPage(browser, baseUrl, DEMO.analyst, { width: 1280, height: 800 }));
 }, 120_000);
 afterAll(async () => {
 	await browser?.close();
