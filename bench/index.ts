@@ -14,7 +14,9 @@ const MODULES: (() => Promise<{ default: BenchCase[] }>)[] = [
 	() => import('./simulation'),
 	() => import('./soundings-storage'),
 	() => import('./contacts'),
-	() => import('./import-latency')
+	() => import('./import-latency'),
+	() => import('./demo-run'),
+	() => import('./browser-run')
 ];
 
 const only = process.argv[2];

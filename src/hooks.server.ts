@@ -7,6 +7,7 @@ import { requestContext } from '$lib/server/auth/context';
 import { closeMail, getTransport } from '$lib/server/mail';
 import { settleBackground } from '$lib/server/background';
 import { seedDemo } from '$lib/server/services/demo';
+import { stopRealizations } from '$lib/server/realizations';
 import { ensureInitialAdmin, findUser } from '$lib/server/services/users';
 import { initialAdminEmail, seedDemoEnabled } from '$lib/server/config';
 import { crossSiteRefusal, refuseUnread } from '$lib/server/csrf';
@@ -28,10 +29,11 @@ export const init: ServerInit = async () => {
 	}
 	const adminEmail = initialAdminEmail();
 	if (adminEmail) await ensureInitialAdmin(adminEmail, process.env.ORIGIN ?? `http://localhost:${process.env.PORT ?? 3000}`);
-	// adapter-node emits this after closing the HTTP server; the SMTP sink would otherwise keep the process alive.
+	// adapter-node emits this after closing the HTTP server; the SMTP sink and the realization workers would
+	// otherwise keep the process alive.
 	process.once('sveltekit:shutdown' as 'beforeExit', () => {
 		void settleBackground()
-			.then(closeMail)
+			.then(() => Promise.all([closeMail(), stopRealizations()]))
 			.then(() => db.$client.close());
 	});
 };

@@ -26,9 +26,19 @@ export function createNodePool({ size = availableParallelism(), workerUrl = new 
 			: new Worker(workerUrl);
 		// An idle pool must not keep the process alive.
 		worker.unref();
+		let stopping = false;
+		const failed = new Promise<never>((_, reject) => {
+			worker.once('error', (err) => reject(err instanceof Error ? err : new Error(String(err))));
+			worker.once('exit', (code) => reject(new Error(stopping ? 'the simulation worker was stopped' : `the simulation worker stopped (exit ${code})`)));
+		});
+		failed.catch(() => undefined);
 		return {
 			remote: Comlink.wrap<SimulationApi>(nodeEndpoint(worker)),
-			terminate: () => worker.terminate()
+			terminate: () => {
+				stopping = true;
+				return worker.terminate();
+			},
+			failed
 		};
 	}, size);
 }

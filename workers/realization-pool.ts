@@ -15,6 +15,8 @@ import { CancelledError } from '../src/lib/cancelled-error';
 export interface PoolWorker {
 	remote: Remote<SimulationApi>;
 	terminate(): void | Promise<unknown>;
+	/** Rejects if the worker dies or cannot load (so a run does not wait for it forever). */
+	failed?: Promise<never>;
 }
 
 /** Options of RealizationPool.run. */
@@ -116,15 +118,36 @@ export class RealizationPool {
 				onRealization?.(rr, values);
 			}
 		};
+		const running = this.workers.slice(0, n);
+		const died = running.flatMap((w) => (w.failed ? [w.failed] : []));
 		try {
-			await Promise.race([Promise.all(this.workers.slice(0, n).map(work)), cancelPromise]);
+			await Promise.race([Promise.all(running.map(work)), cancelPromise, ...died]);
 			return results;
+		} catch (err) {
+			if (!(err instanceof CancelledError)) {
+				// A worker died (or threw): start afresh next time rather than reuse a pool in an unknown state.
+				cancelled = true;
+				for (const w of this.workers) void w.terminate();
+				this.workers = [];
+			}
+			throw err;
 		} finally {
 			signal?.removeEventListener('abort', onAbort);
 			this.cancelRun = null;
 			// Swallow the pending rejection of a promise that lost the race.
 			cancelPromise.catch(() => undefined);
 		}
+	}
+
+	/**
+	 * One call on a worker of the pool between runs (starting a worker when none is running), e.g. an ensemble
+	 * map of realizations already made.
+	 * @throws {Error} (rejects) if a run is in progress, or with the worker's error
+	 */
+	async call<T>(fn: (remote: Remote<SimulationApi>) => Promise<T>): Promise<T> {
+		if (this.cancelRun) throw new Error('a run is already in progress');
+		if (this.workers.length === 0) this.workers.push(this.spawn());
+		return fn(this.workers[0].remote);
 	}
 
 	/**

@@ -7,39 +7,41 @@
  * thread boundary once per run, each realization comes back as a transferred Float64Array.
  */
 import * as Comlink from 'comlink';
-import {
-	isCurrentEngine,
-	prepareSimulation,
-	recipeInput,
-	recipeSchema,
-	simulatePrepared,
-	targetsFromDefinition
-} from '../src/lib/geostat/index';
-import type { PreparedSimulation, Recipe, SimulationInput, TargetPoints } from '../src/lib/geostat/index';
+import { prepareRecipe, prepareSimulation, simulatePrepared } from '../src/lib/geostat/index';
+import type { Recipe, SimulationInput, TargetPoints } from '../src/lib/geostat/index';
+import { ensembleMap, type EnsembleStat } from '../src/lib/ensemble/index';
+
+type Realize = (realization: number, onProgress?: (done: number, total: number) => void) => Float64Array;
 
 export function createSimulationApi() {
-	let prepared: PreparedSimulation | null = null;
+	let realize: Realize | null = null;
 	return {
 		/** Prepares the simulation; returns the number of simulated targets per realization. */
 		prepare(input: SimulationInput, targets: TargetPoints): number {
-			prepared = prepareSimulation(input, targets);
+			const prepared = prepareSimulation(input, targets);
+			realize = (r, cb) => simulatePrepared(prepared, r, cb);
 			return prepared.active;
 		},
 		/**
-		 * Prepares a recipe's simulation: only the recipe crosses the thread boundary (a grid definition is a
-		 * few numbers where its expanded targets would be megabytes), and the worker expands the targets.
+		 * Prepares a recipe by its kind (the engine's prepareRecipe): only the recipe crosses the thread boundary
+		 * (a grid definition is a few numbers where its expanded targets would be megabytes), and the worker
+		 * expands the targets.
 		 * @throws {RangeError} on an invalid recipe; {Error} for a recipe of another engine version
 		 */
 		prepareRecipe(recipe: Recipe): number {
-			const parsed = recipeSchema.parse(recipe);
-			if (!isCurrentEngine(parsed)) throw new Error(`recipe is from engine version ${parsed.engineVersion}`);
-			prepared = prepareSimulation(recipeInput(parsed), targetsFromDefinition(parsed.targets));
+			const prepared = prepareRecipe(recipe);
+			realize = (r, cb) => prepared.realize(r, cb);
 			return prepared.active;
 		},
 		/** Realization r of the prepared simulation, in original units (see simulate). */
 		realize(realization: number, onProgress?: (done: number, total: number) => void): Float64Array {
-			if (!prepared) throw new Error('prepare() first');
-			const out = simulatePrepared(prepared, realization, onProgress ? (d, t) => void onProgress(d, t) : undefined);
+			if (!realize) throw new Error('prepare() first');
+			const out = realize(realization, onProgress ? (d, t) => void onProgress(d, t) : undefined);
+			return Comlink.transfer(out, [out.buffer]);
+		},
+		/** An ensemble map of realizations given in realization order (see ensembleMap). */
+		ensembleMap(realizations: Float64Array[], stat: EnsembleStat, threshold?: number): Float64Array {
+			const out = ensembleMap(realizations, stat, threshold);
 			return Comlink.transfer(out, [out.buffer]);
 		}
 	};

@@ -52,6 +52,20 @@ describe('projectApi(projectId)', () => {
 		]);
 	});
 
+	it('projectApi(id).summary(r, stat, threshold) sends the threshold only for below; realization(r) and recipe.json by path', async () => {
+		const calls = answer({ values: [] });
+		await projectApi('p').summary('r1', 'below', 62.5);
+		await projectApi('p').summary('r1', 'mean', 62.5);
+		await projectApi('p').realization('r1', 7);
+		await projectApi('p').recipeDocument('r1');
+		expect(calls.map((c) => c.url)).toEqual([
+			'/api/v1/projects/p/recipes/r1/summary?stat=below&threshold=62.5',
+			'/api/v1/projects/p/recipes/r1/summary?stat=mean',
+			'/api/v1/projects/p/recipes/r1/realizations/7',
+			'/api/v1/projects/p/recipes/r1/recipe.json'
+		]);
+	});
+
 	it('projectApi(id).editContacts(edit) PATCHes the edits and answers what changed', async () => {
 		const calls = answer({ changed: { set: 1, removed: 0, interpolated: 0 }, contacts: [] });
 		const r = await projectApi('p').editContacts({ set: [{ soundingId: 's', unitId: 'u', topElevation: 1 }] });

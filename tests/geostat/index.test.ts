@@ -56,6 +56,7 @@ const TOPICS: Record<string, string[]> = {
 		'pointTargetsSchema',
 		'targetDefinitionSchema',
 		'recipeSchema',
+		'recipeKindSchema',
 		'targetsFromDefinition',
 		'createRecipe',
 		'recipeInput',
@@ -66,6 +67,7 @@ const TOPICS: Record<string, string[]> = {
 		'ENGINE_VERSIONS',
 		'isCurrentEngine',
 		'engineVersionOf',
+		'prepareRecipe',
 		'regenerate'
 	],
 	validation: ['dataReproduction', 'histogramReproduction', 'variogramReproduction']

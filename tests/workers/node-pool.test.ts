@@ -2,6 +2,7 @@ import { describe, it, expect, afterAll } from 'vitest';
 import { createNodePool } from '../../workers/node-pool';
 import { CancelledError } from '../../src/lib/cancelled-error';
 import { simulate, createRecipe, regenerate, ENGINE_VERSION } from '../../src/lib/geostat/index';
+import { ensembleMap } from '../../src/lib/ensemble/index';
 import type { SimulationInput, TargetPoints } from '../../src/lib/geostat/index';
 import { expectSameBits } from '../asserts';
 
@@ -77,5 +78,23 @@ describe('createNodePool (worker_threads + comlink node adapter)', () => {
 		for (const r of [0, 6]) expectSameBits(res.get(r)!, regenerate(recipe, r), `realization ${r}`);
 		expect(ENGINE_VERSION).not.toBe('conefield-sgs/0');
 		await expect(pool.runRecipe({ ...recipe, engineVersion: 'conefield-sgs/0' }, [0])).rejects.toThrow('recipe is from engine version conefield-sgs/0');
+	}, 60_000);
+
+	it('pool.call runs an ensemble map on a worker with the bits of ensembleMap in this thread; refused during a run', async () => {
+		const recipe = createRecipe(input, { kind: 'grid', origin: { x: 0, y: 0, z: -3 }, spacing: { x: 1, y: 1, z: 0.25 }, counts: { x: 30, y: 1, z: 12 }, domainRuns: [[0, 360]] }, { realizations: 5 });
+		const res = await pool.runRecipe(recipe, [0, 1, 2, 3, 4]);
+		const ordered = [0, 1, 2, 3, 4].map((r) => res.get(r)!);
+		for (const stat of ['mean', 'sd', 'p10', 'below'] as const) {
+			expectSameBits(await pool.call((w) => w.ensembleMap(ordered, stat, 14)), ensembleMap(ordered, stat, 14), stat);
+		}
+		const running = pool.runRecipe(recipe, [0, 1]);
+		await expect(pool.call((w) => w.ensembleMap(ordered, 'mean'))).rejects.toThrow('a run is already in progress');
+		await running;
+	}, 60_000);
+
+	it('a worker that cannot load rejects the run instead of leaving it waiting', async () => {
+		const broken = createNodePool({ size: 1, workerUrl: new URL('file:///nonexistent/conefield-simulation-worker.mjs') });
+		await expect(broken.run(input, section(4, 1), [0])).rejects.toThrow();
+		await broken.close();
 	}, 60_000);
 });

@@ -25,5 +25,11 @@ export type {
 	FileProblem,
 	VariogramView,
 	CommentView,
-	PersonView
+	PersonView,
+	RecipeSummaryView,
+	RecipeView,
+	RecipeProvenance,
+	ProvenanceDomain,
+	RealizationJson,
+	SummaryJson
 } from './views';

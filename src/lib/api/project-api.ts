@@ -12,6 +12,9 @@ import type {
 	zoneBoundarySchema
 } from '$lib/schemas/stratigraphy';
 import type { variogramSaveSchema } from '$lib/schemas/variogram';
+import type { recipeSetupSchema } from '$lib/schemas/recipe';
+import type { EnsembleStat } from '$lib/ensemble';
+import type { Recipe } from '$lib/geostat';
 
 type In<S extends z.ZodType> = z.input<S>;
 import { getJson, send } from './http';
@@ -19,6 +22,10 @@ import type {
 	CommentView,
 	ContactView,
 	DomainSamples,
+	RealizationJson,
+	RecipeSummaryView,
+	RecipeView,
+	SummaryJson,
 	DomainView,
 	SectionView,
 	SiteView,
@@ -86,6 +93,16 @@ export function projectApi(projectId: string) {
 		addComment: async (domainId: string, variogramId: string, body: string) =>
 			(await send<{ comment: CommentView }>('POST', at('domains', domainId, 'variograms', variogramId, 'comments'), { body })).comment,
 
+		recipes: async () => (await getJson<{ recipes: RecipeSummaryView[] }>(at('recipes'))).recipes,
+		recipe: async (recipeId: string) => (await getJson<{ recipe: RecipeView }>(at('recipes', recipeId))).recipe,
+		/** Creates a recipe, or returns the one already stored with the same hash. */
+		createRecipe: async (input: In<typeof recipeSetupSchema>) => (await send<{ recipe: RecipeView }>('POST', at('recipes'), input)).recipe,
+		deleteRecipe: (recipeId: string) => send<void>('DELETE', at('recipes', recipeId)),
+		/** The engine's recipe, as its canonical JSON parses. */
+		recipeDocument: (recipeId: string) => getJson<Recipe>(at('recipes', recipeId, 'recipe.json')),
+		realization: (recipeId: string, r: number) => getJson<RealizationJson>(at('recipes', recipeId, 'realizations', String(r))),
+		summary: (recipeId: string, stat: EnsembleStat, threshold?: number) =>
+			getJson<SummaryJson>(`${at('recipes', recipeId, 'summary')}?stat=${stat}${stat === 'below' && threshold !== undefined ? `&threshold=${encodeURIComponent(String(threshold))}` : ''}`),
 		/** Addresses of the CSV downloads, for links. */
 		csv: {
 			contacts: at('contacts.csv'),

@@ -12,3 +12,21 @@ export type { SoundingSummary, SoundingDetailView, JsonColumn } from '$lib/serve
 export type { UnitAtSoundingView } from '$lib/server/services/derived';
 export type { ImportResult, FileProblem } from '$lib/server/services/import';
 export type { VariogramView, CommentView, PersonView } from '$lib/server/services/variograms';
+export type { RecipeSummaryView, RecipeView, RecipeProvenance, ProvenanceDomain } from '$lib/server/services/recipes';
+
+/** GET …/recipes/:rid/realizations/:r as JSON: null where a target is not simulated. */
+export interface RealizationJson {
+	hash: string;
+	engineVersion: string;
+	realization: number;
+	values: (number | null)[];
+}
+
+/** GET …/recipes/:rid/summary: an ensemble map, null where a target is not simulated. */
+export interface SummaryJson {
+	hash: string;
+	stat: import('$lib/ensemble').EnsembleStat;
+	threshold: number | null;
+	realizations: number;
+	values: (number | null)[];
+}

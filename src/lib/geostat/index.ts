@@ -69,15 +69,19 @@ export {
 	gridTargetsSchema,
 	pointTargetsSchema,
 	targetDefinitionSchema,
-	recipeSchema
+	recipeSchema,
+	recipeKindSchema
 } from './recipe/schema';
-export type { Recipe, TargetDefinition } from './recipe/schema';
+export type { Recipe, RecipeKind, TargetDefinition } from './recipe/schema';
 export { targetsFromDefinition } from './recipe/targets-from-definition';
 export { createRecipe, recipeInput } from './recipe/create-recipe';
+export type { EnsembleOptions } from './recipe/create-recipe';
 export { canonicalJson } from './recipe/canonical-json';
 export { sha256 } from './recipe/sha256';
 export { recipeHash } from './recipe/recipe-hash';
 export { ENGINE_VERSION, ENGINE_VERSIONS, isCurrentEngine, engineVersionOf } from './recipe/engine-version';
+export { prepareRecipe } from './recipe/prepare-recipe';
+export type { PreparedRecipe } from './recipe/prepare-recipe';
 export { regenerate } from './recipe/regenerate';
 
 // --- Checking realizations against their data and model ---

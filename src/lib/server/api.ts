@@ -1,6 +1,6 @@
 import { isHttpError, isRedirect, json, type RequestEvent, type RequestHandler } from '@sveltejs/kit';
 import { z } from 'zod';
-import { ERROR_CODES, ServiceError, type ErrorStatus } from './errors';
+import { ERROR_CODES, InvalidInput, ServiceError, type ErrorStatus } from './errors';
 
 /** Largest JSON body an endpoint reads unless it says otherwise. */
 export const MAX_JSON_BYTES = 1024 * 1024;
@@ -67,6 +67,7 @@ export function endpoint<E extends RequestEvent = RequestEvent<Record<string, st
 		} catch (err) {
 			if (isRedirect(err)) throw err;
 			if (err instanceof ApiError) return apiError(err.status, err.message, err.issues);
+			if (err instanceof InvalidInput) return apiError(422, err.message, err.issues);
 			if (err instanceof ServiceError) return apiError(err.status, err.message, undefined, err.code);
 			if (isHttpError(err)) {
 				const status = (err.status in ERROR_CODES ? err.status : 500) as ErrorStatus;

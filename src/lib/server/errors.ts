@@ -26,3 +26,20 @@ export class ServiceError extends Error {
 		this.name = 'ServiceError';
 	}
 }
+
+/** One problem with an input, where it is and what is wrong (the API's `issues`). */
+export interface InputIssue {
+	path: (string | number)[];
+	message: string;
+}
+
+/** An input that is well formed but cannot be used (a domain without a saved variogram …): 422 with its issues. */
+export class InvalidInput extends ServiceError {
+	constructor(
+		message: string,
+		readonly issues: InputIssue[]
+	) {
+		super(422, message);
+		this.name = 'InvalidInput';
+	}
+}

@@ -40,3 +40,9 @@ export { weightedCdf } from './weighted-cdf';
 export type { Cdf } from './weighted-cdf';
 export { domainStatistics } from './domain-statistics';
 export type { DomainStats } from './domain-statistics';
+
+// Target grids: the domain of each cell, read from the stratigraphy and a zonation.
+export { gridDomains, gridDefinition, axisCount, domainRuns, cellsPerDomain } from './grid-domains';
+export type { GridAxis, GridSpec, GridDefinition, GridStratigraphy, StratigraphyStation } from './grid-domains';
+export { gridStratigraphy } from './grid-stratigraphy';
+export type { StratigraphyParts } from './grid-stratigraphy';

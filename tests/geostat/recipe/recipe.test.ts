@@ -7,6 +7,7 @@ import {
 	recipeSchema,
 	targetsFromDefinition,
 	isCurrentEngine,
+	prepareRecipe,
 	engineVersionOf,
 	regenerate,
 	simulate,
@@ -142,6 +143,56 @@ describe('regenerate(recipe, r)', () => {
 		expectSameBits(regenerate(mg, 1), simulate(recipeInput(mg), targetsFromDefinition(grid), 1));
 		expect(Array.from(regenerate(mg, 1))).not.toEqual(Array.from(regenerate(plain, 1)));
 		expect(recipeSchema.safeParse({ ...mg, input: { ...mg.input, domains: [{ ...mg.input.domains[0], search: { maxData: 1, maxSimulated: 1, path: 'spiral' } }] } }).success).toBe(false);
+	});
+});
+
+describe('ensemble recipes: kind and realizations', () => {
+	// The recipe of this file as a stored document with a fixed engine version string, so the pin does not move
+	// when ENGINE_VERSION does. Its hash was computed before `kind` and `realizations` existed.
+	const stored = () => ({ ...JSON.parse(JSON.stringify(createRecipe(input, grid))), engineVersion: 'conefield-sgs/1' });
+	it('recipeHash of a recipe without kind and realizations is unchanged by the two optional fields (pinned)', () => {
+		const parsed = recipeSchema.parse(stored());
+		expect(Object.keys(parsed).sort()).toEqual(['engineVersion', 'input', 'targets']);
+		expect(recipeHash(parsed)).toBe('7b62add825be37fd618865e96f0a535c2b1650867e4a2fdbb72091c2b58fd27f');
+	});
+
+	it("createRecipe(input, targets, { realizations }) adds kind 'sgs' and N, and N is part of the hash", () => {
+		const plain = createRecipe(input, grid);
+		const twenty = createRecipe(input, grid, { realizations: 20 });
+		expect(twenty.kind).toBe('sgs');
+		expect(twenty.realizations).toBe(20);
+		expect(canonicalJson(twenty)).toMatch(/^\{"engineVersion":"[^"]+","input":.*,"kind":"sgs","realizations":20,"targets":/);
+		const h = recipeHash(twenty);
+		expect(h).not.toBe(recipeHash(plain));
+		expect(recipeHash(createRecipe(input, grid, { realizations: 21 }))).not.toBe(h);
+		expect(recipeHash(createRecipe(input, grid, { realizations: 20 }))).toBe(h);
+		expect(() => createRecipe(input, grid, { realizations: 0 })).toThrow(/realizations/);
+		expect(recipeSchema.safeParse({ ...twenty, kind: 'uniform' }).success).toBe(false);
+	});
+
+	it('prepareRecipe dispatches on the kind (none means sgs) and realizes what regenerate does, bit for bit', () => {
+		const r = createRecipe(input, grid, { realizations: 4 });
+		const prepared = prepareRecipe(r);
+		expect(prepared.kind).toBe('sgs');
+		expect(prepared.active).toBe(50);
+		expect(prepared.realizations).toBe(4);
+		expectSameBits(prepared.realize(2), regenerate(r, 2));
+		expectSameBits(prepareRecipe(createRecipe(input, grid)).realize(2), prepared.realize(2));
+		expect(prepareRecipe(createRecipe(input, grid)).realizations).toBeNull();
+	});
+
+	it('a realization at or beyond N is refused; so are negative and fractional numbers', () => {
+		const r = createRecipe(input, grid, { realizations: 4 });
+		expect(() => regenerate(r, 4)).toThrow("realization 4 is beyond the recipe's 4 realizations");
+		expect(() => prepareRecipe(r).realize(-1)).toThrow(RangeError);
+		expect(() => prepareRecipe(r).realize(1.5)).toThrow(RangeError);
+		expect(() => regenerate(createRecipe(input, grid), 400)).not.toThrow();
+	});
+
+	it('prepareRecipe refuses an invalid recipe naming the issue, and one of another engine version', () => {
+		const r = createRecipe(input, grid, { realizations: 4 });
+		expect(() => prepareRecipe({ ...r, realizations: -2 })).toThrow(/invalid recipe: realizations/);
+		expect(() => prepareRecipe({ ...r, engineVersion: 'conefield-sgs/0' })).toThrow('recipe is from engine version conefield-sgs/0');
 	});
 });
 

@@ -99,13 +99,22 @@ export const pointTargetsSchema = z
 
 export const targetDefinitionSchema = z.discriminatedUnion('kind', [gridTargetsSchema, pointTargetsSchema]);
 
+/** How a recipe's realizations are made: sequential Gaussian simulation (the only kind so far). */
+export const recipeKindSchema = z.enum(['sgs']);
+
 /**
  * A recipe: everything a realization depends on — the resolved simulation input, the targets' definition
  * and the engine version. Realization r of a recipe is a pure function of (recipe, r).
+ *
+ * An ensemble's recipe also names its `kind` and its number of `realizations` N, so its hash identifies the
+ * whole ensemble (realizations 0 … N − 1). Both are optional and left out of the canonical JSON when absent,
+ * so the hash of a recipe written without them is what it always was; no kind means 'sgs'.
  */
 export const recipeSchema = z
 	.object({
 		engineVersion: z.string(),
+		kind: recipeKindSchema.optional(),
+		realizations: z.number().int().positive().optional(),
 		input: simulationInputSchema,
 		targets: targetDefinitionSchema
 	})
@@ -120,3 +129,4 @@ export const recipeSchema = z
 
 export type Recipe = z.infer<typeof recipeSchema>;
 export type TargetDefinition = z.infer<typeof targetDefinitionSchema>;
+export type RecipeKind = z.infer<typeof recipeKindSchema>;

@@ -5,8 +5,9 @@ import { mkdirSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import * as coreSchema from './schema';
 import * as siteSchema from './site-schema';
+import * as recipeSchema from './recipe-schema';
 
-const schema = { ...coreSchema, ...siteSchema };
+const schema = { ...coreSchema, ...siteSchema, ...recipeSchema };
 
 export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Database };
 

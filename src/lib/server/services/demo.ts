@@ -5,6 +5,7 @@ import { hashPassword } from '$lib/server/auth/password';
 import { seedDemoSoundings } from './demo-soundings';
 import { seedDemoStratigraphy } from './demo-stratigraphy';
 import { seedDemoVariograms } from './demo-variograms';
+import { seedDemoRecipes } from './demo-simulations';
 
 /** The demo accounts. Their passwords are printed in the README: for a local demo only. */
 export const DEMO_ACCOUNTS: ReadonlyArray<{
@@ -57,5 +58,6 @@ export async function seedDemo(db: Db): Promise<string | null> {
 	});
 	// Computed outside the first transaction (the variograms are computed asynchronously, as in the workspace).
 	await seedDemoVariograms(db, seeded.projectId, seeded.analystId);
+	seedDemoRecipes(db, seeded.projectId, seeded.analystId);
 	return seeded.projectId;
 }

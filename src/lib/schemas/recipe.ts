@@ -1,0 +1,116 @@
+/** Request bodies and queries of the recipe endpoints: the setup a recipe is resolved from, and summary queries. */
+import { z } from 'zod';
+import { ENSEMBLE_STATS } from '$lib/ensemble';
+
+const finite = (label: string) => z.number({ error: `${label} must be a number.` }).refine(Number.isFinite, { error: `${label} must be finite.` });
+const positive = (label: string) => finite(label).refine((v) => v > 0, { error: `${label} must be greater than 0.` });
+const count = (label: string, min: number, max: number) =>
+	z
+		.number({ error: `${label} must be a number.` })
+		.int({ error: `${label} must be a whole number.` })
+		.min(min, { error: `${label} must be at least ${min}.` })
+		.max(max, { error: `${label} must be at most ${max}.` });
+
+/** Search defaults the form states: enough neighbours for a stable kriging system at a few tens of µs each. */
+export const DEFAULT_SEARCH = { maxData: 16, maxSimulated: 16, maxPerSounding: 8 } as const;
+/** Most realizations of one recipe. */
+export const MAX_REALIZATIONS = 500;
+/** Most cells of a recipe's grid, and most values (realizations × simulated cells) a summary holds at once. */
+export const MAX_CELLS = 1_000_000;
+export const MAX_ENSEMBLE_VALUES = 16_000_000;
+
+const axis = (label: string) =>
+	z
+		.object({ from: finite(`The ${label} start`), to: finite(`The ${label} end`), cell: positive(`The ${label} cell size`) })
+		.refine((a) => a.to > a.from, { error: `The ${label} end must be above its start.`, path: ['to'] });
+
+/** The target grid: chainage × elevation in 2D, a plan grid × elevation in 3D (project length unit). */
+export const gridSpecSchema = z.discriminatedUnion('geometry', [
+	z.object({ geometry: z.literal('2d'), chainage: axis('chainage'), elevation: axis('elevation') }),
+	z.object({ geometry: z.literal('3d'), x: axis('easting'), y: axis('northing'), elevation: axis('elevation') })
+]);
+
+const searchSchema = z.object({
+	maxData: count('Max data', 1, 64).default(DEFAULT_SEARCH.maxData),
+	maxSimulated: count('Max simulated nodes', 0, 64).default(DEFAULT_SEARCH.maxSimulated),
+	/** Null: no limit per sounding. */
+	maxPerSounding: count('Max per sounding', 1, 64).nullable().default(DEFAULT_SEARCH.maxPerSounding),
+	/** The order nodes are visited in: random, or coarse grids first (multiple-grid path; long ranges with a small search). */
+	path: z.enum(['random', 'multigrid'], { error: 'Choose a random or a multiple-grid path.' }).default('random'),
+	/** Semi-axes of the search ellipsoid; null: the model's ranges. */
+	radius: z
+		.object({ major: positive('The major radius'), minor: positive('The minor radius'), vertical: positive('The vertical radius') })
+		.nullable()
+		.default(null)
+});
+
+const tailsSchema = z.object({
+	/** Lower and upper tail bounds of the back-transform; null: the smallest and largest datum. */
+	zmin: finite('The lower tail bound').nullable().default(null),
+	zmax: finite('The upper tail bound').nullable().default(null)
+});
+
+/** One domain of the zonation: simulated with a saved variogram and settings, or not simulated. */
+export const domainSetupSchema = z.discriminatedUnion('simulate', [
+	z.object({ domainId: z.string().min(1), simulate: z.literal(false) }).strict(),
+	z
+		.object({
+			domainId: z.string().min(1),
+			simulate: z.literal(true),
+			/** A saved variogram version of the domain; null: the newest saved. */
+			variogramId: z.string().min(1).nullable().default(null),
+			/** Simple kriging with the mean of the kriged variable (0 for normal scores), or ordinary kriging. */
+			kriging: z.enum(['simple', 'ordinary'], { error: 'Choose simple or ordinary kriging.' }).default('simple'),
+			search: searchSchema.prefault({}),
+			tails: tailsSchema.prefault({})
+		})
+		.strict()
+		.refine((d) => d.tails.zmin === null || d.tails.zmax === null || d.tails.zmin < d.tails.zmax, {
+			error: 'The lower tail bound must be below the upper one.',
+			path: ['tails', 'zmax']
+		})
+]);
+
+export const recipeSetupSchema = z
+	.object({
+		name: z
+			.string({ error: 'Give the recipe a name.' })
+			.trim()
+			.min(1, { error: 'Give the recipe a name.' })
+			.max(80, { error: 'Use at most 80 characters.' }),
+		zonationId: z.string({ error: 'Choose a zonation.' }).min(1, { error: 'Choose a zonation.' }),
+		seed: z
+			.string({ error: 'Enter a seed.' })
+			.trim()
+			.min(1, { error: 'Enter a seed.' })
+			.max(64, { error: 'Use at most 64 characters for the seed.' }),
+		realizations: count('The number of realizations', 1, MAX_REALIZATIONS),
+		grid: gridSpecSchema,
+		domains: z.array(domainSetupSchema).min(1, { error: 'Set up at least one domain.' }).max(200)
+	})
+	.strict();
+
+export type RecipeSetup = z.output<typeof recipeSetupSchema>;
+export type RecipeSetupInput = z.input<typeof recipeSetupSchema>;
+export type DomainSetup = z.output<typeof domainSetupSchema>;
+export type SimulatedDomainSetup = Extract<DomainSetup, { simulate: true }>;
+
+/** GET …/summary?stat=…&threshold=…: the threshold is needed (and only read) for 'below'. */
+export const summaryQuerySchema = z
+	.object({
+		stat: z.enum(ENSEMBLE_STATS, { error: `Choose a stat: ${ENSEMBLE_STATS.join(', ')}.` }),
+		threshold: z
+			.string()
+			.optional()
+			.transform((t, ctx) => {
+				if (t === undefined || t.trim() === '') return null;
+				const v = Number(t);
+				if (!Number.isFinite(v)) {
+					ctx.addIssue({ code: 'custom', message: 'The threshold must be a number.' });
+					return z.NEVER;
+				}
+				return v;
+			})
+	})
+	.refine((q) => q.stat !== 'below' || q.threshold !== null, { error: 'P(below) needs a threshold.', path: ['threshold'] })
+	.transform((q) => ({ stat: q.stat, threshold: q.stat === 'below' ? q.threshold : null }));

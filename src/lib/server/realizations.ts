@@ -1,0 +1,121 @@
+/**
+ * The server's realizations: regeneration and ensemble maps on a worker_threads pool (workers/node-pool.ts),
+ * so long work never blocks other requests. One run at a time, in the order asked (a queue), with all cores
+ * working on it. A small interface that summaries use now and exports and job runners can use later:
+ * `runRealizations(recipe, list, onEach)`, `ensembleOf(hash, recipe)`, `ensembleMapOffThread(…)`.
+ *
+ * The workers run workers/simulation.node-worker.ts bundled by the `?server-worker` plugin (vite.config.ts), the
+ * same in the built server, the dev server and vitest; a script run by tsx (the benchmarks) passes its own pool
+ * to useRealizationPool instead.
+ *
+ * The realizations of the last ensemble asked for are kept in memory for a few minutes (never written), so the
+ * ensemble maps of one recipe asked one after the other (mean, then SD …) regenerate it once.
+ */
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { availableParallelism, tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
+import type { Recipe } from '$lib/geostat';
+import type { EnsembleStat } from '$lib/ensemble';
+import { createNodePool } from '$workers/node-pool';
+import type { RealizationPool } from '$workers/realization-pool';
+
+let pool: Promise<RealizationPool> | null = null;
+let queue: Promise<unknown> = Promise.resolve();
+
+function thePool(): Promise<RealizationPool> {
+	pool ??= import('../../../workers/simulation.node-worker.ts?server-worker').then(({ default: source }) =>
+		createNodePool({ size: Math.max(1, availableParallelism()), workerUrl: workerFile(source) })
+	);
+	return pool;
+}
+
+/**
+ * The bundled worker written to a private temporary directory, removed when the process exits. Unlike the upload
+ * parser's, this worker cannot start from a data: URL: its CommonJS dependencies (seedrandom, @stdlib) are bundled
+ * with createRequire(import.meta.url), which needs a file URL.
+ */
+function workerFile(source: string): URL {
+	const dir = mkdtempSync(join(tmpdir(), 'conefield-workers-'));
+	const file = join(dir, 'simulation.worker.mjs');
+	writeFileSync(file, source, { mode: 0o600 });
+	process.once('exit', () => rmSync(dir, { recursive: true, force: true }));
+	return pathToFileURL(file);
+}
+
+/** Runs on `given` instead of the bundled workers (scripts run by tsx, which has no `?server-worker`). */
+export function useRealizationPool(given: RealizationPool): void {
+	pool = Promise.resolve(given);
+}
+
+/** Runs `job` after every job asked for before it (whether they succeeded or not). */
+function enqueue<T>(job: () => Promise<T>): Promise<T> {
+	const next = queue.then(job, job);
+	queue = next.catch(() => undefined);
+	return next;
+}
+
+/**
+ * Regenerates the given realizations of a recipe on the pool (bit for bit as regenerate() would), calling
+ * `onEach` as each arrives (in completion order); resolves with all of them by number.
+ * @throws (rejects) as RealizationPool.runRecipe: an invalid recipe, one of another engine version, a realization
+ *   beyond the recipe's N
+ */
+export function runRealizations(recipe: Recipe, realizations: number[], onEach?: (realization: number, values: Float64Array) => void): Promise<Map<number, Float64Array>> {
+	return enqueue(async () => (await thePool()).runRecipe(recipe, realizations, { onRealization: onEach }));
+}
+
+/** An ensemble map of realizations in realization order, computed on a worker of the pool. */
+export function ensembleMapOffThread(realizations: Float64Array[], stat: EnsembleStat, threshold?: number): Promise<Float64Array> {
+	return enqueue(async () => (await thePool()).call((w) => w.ensembleMap(realizations, stat, threshold)));
+}
+
+/** How long the last ensemble's realizations stay in memory after their last use. */
+const KEEP_MS = 5 * 60_000;
+let kept: { hash: string; realizations: Float64Array[]; timer: ReturnType<typeof setTimeout> } | null = null;
+const making = new Map<string, Promise<Float64Array[]>>();
+
+/**
+ * All N realizations of a recipe (N = recipe.realizations), in realization order: from memory when they were
+ * made a moment ago, else regenerated on the pool (once, however many callers wait for them).
+ */
+export function ensembleOf(hash: string, recipe: Recipe): Promise<Float64Array[]> {
+	if (kept?.hash === hash) {
+		keep(hash, kept.realizations);
+		return Promise.resolve(kept.realizations);
+	}
+	const pending = making.get(hash);
+	if (pending) return pending;
+	const n = recipe.realizations ?? 1;
+	const list = Array.from({ length: n }, (_, r) => r);
+	const job = runRealizations(recipe, list)
+		.then((byNumber) => {
+			const ordered = list.map((r) => byNumber.get(r)!);
+			keep(hash, ordered);
+			return ordered;
+		})
+		.finally(() => making.delete(hash));
+	making.set(hash, job);
+	return job;
+}
+
+/** Realization r of a kept ensemble, if that ensemble is in memory. */
+export function keptRealization(hash: string, realization: number): Float64Array | undefined {
+	return kept?.hash === hash ? kept.realizations[realization] : undefined;
+}
+
+function keep(hash: string, realizations: Float64Array[]): void {
+	if (kept) clearTimeout(kept.timer);
+	const timer = setTimeout(() => (kept = null), KEEP_MS);
+	timer.unref();
+	kept = { hash, realizations, timer };
+}
+
+/** Stops the pool's workers and forgets the kept ensemble (tests, shutdown). */
+export async function stopRealizations(): Promise<void> {
+	if (kept) clearTimeout(kept.timer);
+	kept = null;
+	const p = pool;
+	pool = null;
+	await (await p)?.close();
+}

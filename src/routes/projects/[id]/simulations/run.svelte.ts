@@ -1,0 +1,117 @@
+import { CancelledError } from '$lib/cancelled-error';
+import type { Recipe } from '$lib/geostat';
+
+/** What the run needs of a realization pool (workers/realization-pool.ts), so tests can pass one in process. */
+export interface RunPool {
+	runRecipe(
+		recipe: Recipe,
+		realizations: number[],
+		opts: { onProgress?: (done: number, total: number) => void; onRealization?: (r: number, values: Float64Array) => void }
+	): Promise<Map<number, Float64Array>>;
+	cancel(): void;
+	close(): Promise<void>;
+}
+
+export type RunStatus = 'idle' | 'running' | 'done' | 'cancelled' | 'failed';
+
+/**
+ * The realizations of one recipe made in the browser's worker pool and kept in memory only (never written):
+ * overall progress, time left, cancel. Realizations arrive in completion order; each is shown as soon as it
+ * arrives. Running again continues with the realizations not made yet.
+ */
+export class EnsembleRun {
+	status = $state<RunStatus>('idle');
+	/** Simulated nodes done and to do over the realizations of the current run. */
+	done = $state(0);
+	total = $state(0);
+	message = $state('');
+	/** Bumped whenever a realization arrives, so views depending on `results` update. */
+	version = $state(0);
+	/** Milliseconds since the run started, refreshed with the progress. */
+	elapsed = $state(0);
+	/** Milliseconds from Run to the first realization, and to the last, of the latest run. */
+	firstAt = $state<number | null>(null);
+	lastAt = $state<number | null>(null);
+
+	readonly results = new Map<number, Float64Array>();
+	readonly fraction = $derived(this.total > 0 ? this.done / this.total : 0);
+	/** Estimated milliseconds left: elapsed · (1 − f) / f, once a few per cent are done. */
+	readonly left = $derived(this.status === 'running' && this.fraction > 0.02 ? (this.elapsed * (1 - this.fraction)) / this.fraction : null);
+	readonly count = $derived.by(() => {
+		void this.version;
+		return this.results.size;
+	});
+
+	private pool: RunPool | null = null;
+	private started = 0;
+
+	constructor(
+		readonly recipe: Recipe,
+		private readonly startPool: () => RunPool,
+		private readonly now: () => number = () => performance.now()
+	) {}
+
+	/** N, the recipe's number of realizations. */
+	get n(): number {
+		return this.recipe.realizations ?? 1;
+	}
+
+	/** Makes the realizations not made yet (all of 0 … N − 1 by default); resolves when they are in or the run stops. */
+	async run(list: number[] = Array.from({ length: this.n }, (_, r) => r)): Promise<void> {
+		if (this.status === 'running') return;
+		const todo = list.filter((r) => !this.results.has(r));
+		if (todo.length === 0) {
+			this.status = 'done';
+			return;
+		}
+		this.pool ??= this.startPool();
+		this.status = 'running';
+		this.message = '';
+		this.done = 0;
+		this.total = 0;
+		this.firstAt = null;
+		this.lastAt = null;
+		this.started = this.now();
+		this.elapsed = 0;
+		try {
+			await this.pool.runRecipe(this.recipe, todo, {
+				onProgress: (done, total) => {
+					this.done = done;
+					this.total = total;
+					this.elapsed = this.now() - this.started;
+				},
+				onRealization: (r, values) => {
+					this.results.set(r, values);
+					this.firstAt ??= this.now() - this.started;
+					this.version++;
+				}
+			});
+			this.lastAt = this.now() - this.started;
+			this.status = 'done';
+		} catch (err) {
+			if (CancelledError.revive(err) instanceof CancelledError) {
+				this.status = 'cancelled';
+				this.message = `Cancelled: ${this.results.size} of ${this.n} realizations are kept.`;
+			} else {
+				this.status = 'failed';
+				this.message = (err as Error).message;
+			}
+		}
+	}
+
+	cancel(): void {
+		this.pool?.cancel();
+	}
+
+	/** The realizations in realization order when all N are in, else null. */
+	all(): Float64Array[] | null {
+		if (this.results.size < this.n) return null;
+		return Array.from({ length: this.n }, (_, r) => this.results.get(r)!);
+	}
+
+	async destroy(): Promise<void> {
+		this.pool?.cancel();
+		await this.pool?.close();
+		this.pool = null;
+	}
+}

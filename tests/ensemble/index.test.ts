@@ -1,0 +1,9 @@
+import { describe, it, expect } from 'vitest';
+import * as ensemble from '../../src/lib/ensemble/index';
+
+describe('src/lib/ensemble/index.ts', () => {
+	it('index.ts exports exactly the pinned names', () => {
+		expect(Object.keys(ensemble).sort()).toEqual(['ENSEMBLE_STATS', 'checkRealizations', 'ensembleMap', 'gridVariogram', 'ksDistance']);
+		expect(ensemble.ENSEMBLE_STATS).toEqual(['mean', 'sd', 'p10', 'p50', 'p90', 'below']);
+	});
+});

@@ -1,0 +1,174 @@
+// The Simulations page's state classes, driven as the page drives them, with the engine run in this thread (a pool
+// that realizes with prepareRecipe, the ensemble functions called directly), so every value is the engine's.
+import { describe, expect, it } from 'vitest';
+import type { RecipeView } from '../../../../../src/lib/api/index';
+import { createRecipe, prepareRecipe, regenerate, type Recipe, type SimulationInput } from '../../../../../src/lib/geostat/index';
+import { checkRealizations, ensembleMap } from '../../../../../src/lib/ensemble/index';
+import { CancelledError } from '../../../../../src/lib/cancelled-error';
+import { EnsembleRun, type RunPool } from '../../../../../src/routes/projects/[id]/simulations/run.svelte';
+import { FieldViewer, type EnsembleEngine } from '../../../../../src/routes/projects/[id]/simulations/viewer.svelte';
+import { expectSameBits } from '../../../../asserts';
+
+const model = { azimuth: 90, structures: [{ type: 'exponential' as const, sill: 1, rangeMajor: 12, rangeMinor: 12, rangeVertical: 1.5 }] };
+const input: SimulationInput = {
+	seed: 'page',
+	domains: [
+		{ samples: [{ x: 3, y: 0, z: -1, value: 60, sounding: 'A' }, { x: 20, y: 0, z: -1.5, value: 90, sounding: 'B' }, { x: 20, y: 0, z: -1, value: 75, sounding: 'B' }], model, transform: 'normal-score', kriging: 'simple', search: { maxData: 8, maxSimulated: 8 } },
+		{ samples: [{ x: 3, y: 0, z: -2.5, value: 0.3, sounding: 'A' }, { x: 20, y: 0, z: -2.6, value: 0.25, sounding: 'B' }], model, transform: 'normal-score', kriging: 'simple', search: { maxData: 8, maxSimulated: 8 } }
+	]
+};
+// 30 × 12 cells: the top 4 rows are domain 0 (sand, 120 cells), the 8 below domain 1 (clay, 240 cells).
+const recipe: Recipe = createRecipe(
+	input,
+	{ kind: 'grid', origin: { x: 0.5, y: 0, z: -2.875 }, spacing: { x: 1, y: 1, z: 0.25 }, counts: { x: 30, y: 1, z: 12 }, domainRuns: [[1, 240], [0, 120]] },
+	{ realizations: 4 }
+);
+const view = {
+	id: 'r1',
+	realizations: 4,
+	provenance: {
+		domains: [
+			{ domainId: 'd0', name: 'Sand', property: 'qc1Ncs', index: 0, cells: 120, tails: { zmin: 60, zmax: 90 } },
+			{ domainId: 'd1', name: 'Clay', property: 'suRatio', index: 1, cells: 240, tails: { zmin: 0.25, zmax: 0.3 } }
+		]
+	}
+} as unknown as RecipeView;
+
+/** A pool that realizes in this thread, one realization a macrotask, so cancel can come in between. */
+function threadPool(): RunPool & { runs: number } {
+	let cancelled = false;
+	const pool = {
+		runs: 0,
+		async runRecipe(r: Recipe, list: number[], opts: { onProgress?: (d: number, t: number) => void; onRealization?: (k: number, v: Float64Array) => void }) {
+			pool.runs++;
+			cancelled = false;
+			const prepared = prepareRecipe(r);
+			const out = new Map<number, Float64Array>();
+			for (const [i, k] of list.entries()) {
+				await new Promise((done) => setTimeout(done, 1));
+				if (cancelled) throw new CancelledError();
+				const v = prepared.realize(k);
+				out.set(k, v);
+				opts.onProgress?.((i + 1) * prepared.active, list.length * prepared.active);
+				opts.onRealization?.(k, v);
+			}
+			return out;
+		},
+		cancel: () => {
+			cancelled = true;
+		},
+		close: async () => undefined
+	};
+	return pool;
+}
+
+const engine: EnsembleEngine = {
+	ensembleMap: async (rs, stat, t) => ensembleMap(rs, stat, t),
+	checks: async (r, rs, opts) => checkRealizations(r, rs, opts),
+	terminate: () => undefined
+};
+
+describe('EnsembleRun', () => {
+	it('run() makes the N realizations with the engine’s bits, progress to 1, first and last times; a second run() does nothing', async () => {
+		const pool = threadPool();
+		let clock = 0;
+		const run = new EnsembleRun(recipe, () => pool, () => (clock += 10));
+		await run.run();
+		expect(run.status).toBe('done');
+		expect(run.count).toBe(4);
+		expect(run.fraction).toBe(1);
+		for (let k = 0; k < 4; k++) expectSameBits(run.results.get(k)!, regenerate(recipe, k), `realization ${k}`);
+		expect(run.firstAt).toBeGreaterThan(0);
+		expect(run.lastAt).toBeGreaterThanOrEqual(run.firstAt!);
+		await run.run();
+		expect(pool.runs).toBe(1);
+		expect(run.all()!.length).toBe(4);
+	});
+
+	it('cancel() stops the run, keeps what was made, and the next run() makes only the rest', async () => {
+		const pool = threadPool();
+		const run = new EnsembleRun(recipe, () => pool);
+		const going = run.run();
+		await new Promise((done) => setTimeout(done, 3));
+		run.cancel();
+		await going;
+		expect(run.status).toBe('cancelled');
+		const kept = run.count;
+		expect(kept).toBeLessThan(4);
+		expect(run.message).toBe(`Cancelled: ${kept} of 4 realizations are kept.`);
+		expect(run.all()).toBeNull();
+		await run.run();
+		expect(run.status).toBe('done');
+		expect(run.count).toBe(4);
+	});
+
+	it('a pool error is shown as the run’s message', async () => {
+		const failing: RunPool = { runRecipe: async () => Promise.reject(new Error('the simulation worker stopped (exit 1)')), cancel: () => undefined, close: async () => undefined };
+		const run = new EnsembleRun(recipe, () => failing);
+		await run.run();
+		expect([run.status, run.message]).toEqual(['failed', 'the simulation worker stopped (exit 1)']);
+	});
+});
+
+describe('FieldViewer', () => {
+	it('orders the properties by cells, wraps realization numbers, and shows nothing until a realization is made', () => {
+		const v = new FieldViewer(view, recipe, new EnsembleRun(recipe, threadPool), engine);
+		expect(v.properties).toEqual(['suRatio', 'qc1Ncs']);
+		expect(v.property).toBe('suRatio');
+		v.show(-1);
+		expect(v.realization).toBe(3);
+		v.show(9);
+		expect(v.realization).toBe(1);
+		expect(v.values).toBeNull();
+		expect(v.propertyOf(0)).toBe('suRatio');
+		expect(v.propertyOf(359)).toBe('qc1Ncs');
+	});
+
+	it('ensemble maps wait for all N, then equal ensembleMap over the realizations in order', async () => {
+		const run = new EnsembleRun(recipe, threadPool);
+		const v = new FieldViewer(view, recipe, run, engine);
+		await v.showMap('mean');
+		expect(v.mapStatus).toBe('Ensemble maps need all 4 realizations: run the rest first.');
+		expect(v.values).toBeNull();
+		await run.run();
+		await v.showMap('mean');
+		expectSameBits(v.values!, ensembleMap(run.all()!, 'mean'));
+		expect(v.scaleLabel).toBe('Mean (E-type) of su/σ′v');
+	});
+
+	it('P(below) asks for a threshold, then maps it on [0, 1] with the unit in its label', async () => {
+		const run = new EnsembleRun(recipe, threadPool);
+		await run.run();
+		const v = new FieldViewer(view, recipe, run, engine);
+		v.property = 'qc1Ncs';
+		await v.showMap('below');
+		expect(v.mapStatus).toMatch(/^Type a threshold/);
+		await v.setThreshold(75);
+		expectSameBits(v.values!, ensembleMap(run.all()!, 'below', 75));
+		expect(v.span).toEqual([0, 1]);
+		expect(v.scaleLabel).toBe('P(qc1Ncs < 75)');
+	});
+
+	it('the colour span of values is the 1st–99th percentile of the property’s data; the profile’s is the tails', () => {
+		const v = new FieldViewer(view, recipe, new EnsembleRun(recipe, threadPool), engine);
+		v.property = 'qc1Ncs';
+		const [lo, hi] = v.valueSpan;
+		expect(lo).toBeGreaterThanOrEqual(60);
+		expect(hi).toBeLessThanOrEqual(90);
+		expect(v.tailSpan).toEqual([60, 90]);
+	});
+
+	it('runChecks checks the realizations made, one check per domain', async () => {
+		const run = new EnsembleRun(recipe, threadPool);
+		const v = new FieldViewer(view, recipe, run, engine);
+		await v.runChecks();
+		expect(v.checksStatus).toBe('Run realizations first.');
+		await run.run([0, 1]);
+		await v.runChecks();
+		expect(v.checks!.map((c) => [c.domain, c.realizations])).toEqual([
+			[0, 2],
+			[1, 2]
+		]);
+		expect(v.checksStatus).toBe('Checked 2 of 4 realizations.');
+	});
+});
