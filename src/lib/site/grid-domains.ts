@@ -16,11 +16,22 @@ export type GridSpec =
 	| { geometry: '2d'; chainage: GridAxis; elevation: GridAxis }
 	| { geometry: '3d'; x: GridAxis; y: GridAxis; elevation: GridAxis };
 
-/** A regular grid as the engine's recipe takes it: cell centres origin + index·spacing, x fastest, then y, then z. */
+/**
+ * A regular grid as the engine's recipe takes it: cell centres origin + index·spacing, x fastest, then y, then z.
+ * With variable cell heights (a rectilinear grid) `z` lists the centres and `zEdges` the cell edges along the
+ * elevation, ascending; origin.z and spacing.z then stand for the first centre and the smallest height.
+ */
 export interface GridDefinition {
 	origin: { x: number; y: number; z: number };
 	spacing: { x: number; y: number; z: number };
 	counts: { x: number; y: number; z: number };
+	z?: number[];
+	zEdges?: number[];
+}
+
+/** The elevation of a grid's cell row k: the listed centre of a rectilinear grid, else origin + k·spacing. */
+export function cellElevation(grid: GridDefinition, k: number): number {
+	return grid.z ? grid.z[k] : grid.origin.z + k * grid.spacing.z;
 }
 
 /** A sounding as the stratigraphy stands at it. */

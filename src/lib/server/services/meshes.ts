@@ -59,7 +59,7 @@ export function previewMeshFile(projectId: string, file: { name: string; bytes: 
 	try {
 		return previewMesh(new TextDecoder('utf-8').decode(file.bytes.subarray(0, 4_000_000)), { file: file.name, geometry, rows });
 	} catch (err) {
-		if (err instanceof CptParseError) throw new ImportRejected(422, err.message, [{ file: file.name, line: err.line, column: err.column, message: err.message }]);
+		if (err instanceof CptParseError) throw new ImportRejected(422, err.message, [{ file: file.name, code: err.code, line: err.line, column: err.column, message: err.message }]);
 		throw err;
 	}
 }
@@ -75,10 +75,10 @@ export async function createMesh(
 	db: DbOrTx = getDb()
 ): Promise<MeshView> {
 	const geometry = getSite(projectId, db).geometry;
-	if (geometry === '3d' && !input.mapping.y) throw new ImportRejected(422, 'A 3D site needs the northing column mapped.', [{ file: input.file.name, message: 'A 3D site needs the northing column mapped.' }]);
+	if (geometry === '3d' && !input.mapping.y) throw new ImportRejected(422, 'A 3D site needs the northing column mapped.', [{ file: input.file.name, code: 'missing-column', message: 'A 3D site needs the northing column mapped.' }]);
 	if (nameTaken(projectId, input.name, db)) throw new ServiceError(409, `A mesh named ${input.name} already exists.`);
 	const result = await readMeshOffThread({ file: input.file.name, bytes: input.file.bytes, mapping: input.mapping, geometry });
-	if (!result.ok) throw new ImportRejected(422, result.problem.message, [{ file: result.problem.file, line: result.problem.line, column: result.problem.column, message: result.problem.message }]);
+	if (!result.ok) throw new ImportRejected(422, result.problem.message, [{ file: result.problem.file, code: result.problem.code, line: result.problem.line, column: result.problem.column, message: result.problem.message }]);
 	const m = result.mesh;
 	const row = db
 		.insert(meshes)
