@@ -18,23 +18,29 @@ export const TRANSFER_RELATIONS = {
 		column: 'Dr',
 		unit: '–',
 		label: 'Relative density Dr, fraction (Idriss & Boulanger 2008)',
-		source: 'Dr = 0.465·(qc1Ncs/0.9)^0.264 − 1.063; Idriss & Boulanger (2008), Soil Liquefaction During Earthquakes, EERI MNO-12'
+		source: 'Dr = 0.465·(qc1Ncs/0.9)^0.264 − 1.063; Idriss & Boulanger (2008), Soil Liquefaction During Earthquakes, EERI MNO-12',
+		// qc1Ncs 21–254 maps to Dr 0–1 with Cdq = 0.9; beyond, the value is held at the end (and counted).
+		range: [21, 254]
 	},
 	'crr-bi2014': {
 		input: 'qc1Ncs',
 		column: 'CRR_M7.5_1atm',
 		unit: '–',
 		label: 'CRR for M 7.5 and σ′v = 1 atm (Boulanger & Idriss 2014)',
-		source: 'CRR = exp(qc1Ncs/113 + (qc1Ncs/1000)² − (qc1Ncs/140)³ + (qc1Ncs/137)⁴ − 2.80); Boulanger & Idriss (2014), UCD/CGM-14/01'
+		source: 'CRR = exp(qc1Ncs/113 + (qc1Ncs/1000)² − (qc1Ncs/140)³ + (qc1Ncs/137)⁴ − 2.80); Boulanger & Idriss (2014), UCD/CGM-14/01',
+		// The curve is drawn up to qc1Ncs ≈ 211, where CRR ≈ 3.7 (memory); the polynomial grows without bound beyond
+		// it, so the input is held at 211 (and counted) rather than giving absurd resistances.
+		range: [-Infinity, 211]
 	},
 	'su-from-ratio': {
 		input: 'suRatio',
 		column: 'su',
 		unit: 'kPa',
 		label: 'su = su/σ′v × σ′v at the element (unit weights and groundwater)',
-		source: 'σ′v at the element from the units’ weights above and below the water table and the groundwater interpolated between the soundings, as the CPT derivation computes it at a reading'
+		source: 'σ′v at the element from the units’ weights above and below the water table and the groundwater interpolated between the soundings, as the CPT derivation computes it at a reading',
+		range: [-Infinity, Infinity]
 	}
-} as const satisfies Record<string, { input: SimulatedProperty; column: string; unit: string; label: string; source: string }>;
+} as const satisfies Record<string, { input: SimulatedProperty; column: string; unit: string; label: string; source: string; range: readonly [number, number] }>;
 
 export type TransferRelation = keyof typeof TRANSFER_RELATIONS;
 export const TRANSFER_RELATION_KEYS = Object.keys(TRANSFER_RELATIONS) as [TransferRelation, ...TransferRelation[]];

@@ -87,11 +87,25 @@ export function planTransfers(
 				const rel = TRANSFER_RELATIONS[o.relation];
 				if (rel.input !== d.property) continue;
 				const column = columnFor(rel.column, rel.unit, () => ({ source: `${rel.label}: ${rel.source}`, relation: o.relation }));
+				const out = outputs[column];
+				const [lo, hi] = rel.range;
+				// Inputs beyond the relation's range are held at its ends and counted, as a table's are.
+				const held = (v: number) => {
+					if (v < lo) {
+						out.held.below++;
+						return lo;
+					}
+					if (v > hi) {
+						out.held.above++;
+						return hi;
+					}
+					return v;
+				};
 				const of =
 					o.relation === 'dr-ib2008'
-						? (v: number) => relativeDensityIB2008(v)
+						? (v: number) => relativeDensityIB2008(held(v))
 						: o.relation === 'crr-bi2014'
-							? (v: number) => crrBI2014(v)
+							? (v: number) => crrBI2014(held(v))
 							: (v: number, t: number) => v * sigmaVeff(t);
 				list.push({ column, of });
 			} else {

@@ -1,8 +1,9 @@
 /**
  * Legacy VTK files (Kitware, "VTK File Formats": "# vtk DataFile Version 3.0", BINARY, big-endian) for viewing
  * fields in common open viewers: a grid as a RECTILINEAR_GRID whose cells carry the values (CELL_DATA; the cell
- * edges along each axis as coordinates, so variable cell heights show as they are), a mesh as POLYDATA of its
- * element centroids, one vertex each, carrying the values as POINT_DATA. A 2D section lies in the x–z plane
+ * edges along each axis as coordinates, so variable cell heights show as they are), a mesh as an UNSTRUCTURED_GRID
+ * of its element centroids, one vertex cell (VTK_VERTEX) each, carrying the values as POINT_DATA (a point cloud
+ * that every reader of the legacy format takes, where some take no POLYDATA). A 2D section lies in the x–z plane
  * (chainage along x, elevation along z, y = 0). Not-simulated targets hold NaN. Arrays are written one at a time,
  * so a file of many realizations streams without holding them all.
  */
@@ -59,7 +60,7 @@ export function* vtkGeometry(t: ExportTargets, title: string): Generator<Uint8Ar
 		yield line(`CELL_DATA ${n}`);
 		return;
 	}
-	yield line('DATASET POLYDATA');
+	yield line('DATASET UNSTRUCTURED_GRID');
 	yield line(`POINTS ${n} double`);
 	const xyz = new Float64Array(3 * n);
 	for (let i = 0; i < n; i++) {
@@ -69,13 +70,17 @@ export function* vtkGeometry(t: ExportTargets, title: string): Generator<Uint8Ar
 	}
 	yield* doublesBE(xyz);
 	yield line('');
-	yield line(`VERTICES ${n} ${2 * n}`);
+	yield line(`CELLS ${n} ${2 * n}`);
 	const cells = new Int32Array(2 * n);
 	for (let i = 0; i < n; i++) {
 		cells[2 * i] = 1;
 		cells[2 * i + 1] = i;
 	}
 	yield* intsBE(cells);
+	yield line('');
+	yield line(`CELL_TYPES ${n}`);
+	// VTK_VERTEX (1): each element centroid is a cell of one point.
+	yield* intsBE(new Int32Array(n).fill(1));
 	yield line('');
 	yield line(`POINT_DATA ${n}`);
 }

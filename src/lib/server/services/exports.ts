@@ -373,7 +373,9 @@ export function manifest(ctx: ExportContext, req: ZipRequest, layout: CsvLayout,
 			...ctx.notes,
 			...held.map(
 				(o) =>
-					`${o.header}: ${o.held.below.toLocaleString('en')} value(s) fell below and ${o.held.above.toLocaleString('en')} above table ${o.table?.name} version ${o.table?.version} and were held at its end points.`
+					o.table
+						? `${o.header}: ${o.held.below.toLocaleString('en')} value(s) fell below and ${o.held.above.toLocaleString('en')} above table ${o.table.name} version ${o.table.version} and were held at its end points.`
+						: `${o.header}: ${o.held.below.toLocaleString('en')} value(s) below and ${o.held.above.toLocaleString('en')} above the relation’s range (${o.relation ? TRANSFER_RELATIONS[o.relation].range.join(' – ').replace('-Infinity', '−∞').replace('Infinity', '∞') : ''}) were computed at its end.`
 			)
 		],
 		caution: EXPORT_CAUTION
