@@ -16,6 +16,7 @@ import { availableParallelism, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import type { Recipe } from '$lib/geostat';
+import { CancelledError } from '$lib/cancelled-error';
 import type { EnsembleStat } from '$lib/ensemble';
 import { createNodePool } from '$workers/node-pool';
 import type { RealizationPool, RunOptions } from '$workers/realization-pool';
@@ -123,7 +124,7 @@ export async function* streamRealizations(
 		for (const r of realizations) {
 			while (!ready.has(r)) {
 				if (failure) throw failure;
-				if (finished) throw new Error(`realization ${r} did not arrive`);
+				if (finished) throw stop.signal.aborted ? new CancelledError() : new Error(`realization ${r} did not arrive`);
 				await waitForChange();
 			}
 			const values = ready.get(r)!;
@@ -145,7 +146,7 @@ export async function* streamRealizations(
 /** runRealizations with every option of the pool's run (admission, keeping, abort, progress). */
 function runRealizationsWith(recipe: Recipe, realizations: number[], opts: RunOptions): Promise<Map<number, Float64Array>> {
 	return enqueue(async () => {
-		if (opts.signal?.aborted) return new Map<number, Float64Array>();
+		if (opts.signal?.aborted) throw new CancelledError();
 		return (await thePool()).runRecipe(recipe, realizations, opts);
 	});
 }
