@@ -9,7 +9,7 @@
  */
 import { execFileSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { parse } from 'csv-parse/sync';
@@ -52,6 +52,7 @@ function doubles(b64: string): Float64Array {
 }
 
 function python(kind: 'vtk' | 'zip', bytes: Uint8Array) {
+	if (!existsSync('/usr/bin/python3')) throw new Error('the export tests need /usr/bin/python3 with python3-meshio (.ci/run installs it)');
 	const file = join(dir, `${crypto.randomUUID()}.${kind}`);
 	writeFileSync(file, bytes);
 	return JSON.parse(execFileSync('/usr/bin/python3', [reader, kind, file], { encoding: 'utf8', maxBuffer: 256 * 1024 * 1024 }));
