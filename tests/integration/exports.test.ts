@@ -251,7 +251,7 @@ describe('transfer tables and sets', () => {
 	});
 
 	it('CSV columns of a transfer set: Dr and CRR at the cited equations, the table held at its ends and counted, su = su/σ′v × σ′v', async () => {
-		const tables = (await (await viewer.json('GET', `${base}/transfer-tables`)).json()).tables as { id: string; name: string; version: number; points: [number, number][] }[];
+		const tables = (await (await viewer.json('GET', `${base}/transfer-tables`)).json()).tables as { id: string; name: string; version: number; points: [number, number][]; monotonic: 'increasing' }[];
 		const t1 = tables.find((t) => t.name === table.name && t.version === 1)!;
 		const made = await analyst.json('POST', `${base}/transfer-sets`, {
 			name: 'Model inputs',
