@@ -31,5 +31,11 @@ export type {
 	RecipeProvenance,
 	ProvenanceDomain,
 	RealizationJson,
-	SummaryJson
+	SummaryJson,
+	MeshView,
+	MeshPreview,
+	TransferTableView,
+	TransferSetView,
+	ResolvedTransferSet,
+	ExportJobView
 } from './views';

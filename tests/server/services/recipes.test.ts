@@ -143,14 +143,14 @@ describe('createRecipe(projectId, userId, setup) — identity', () => {
 		const { recipe } = createRecipe(projectId, userId, setup({ name: 'Provenance' }), db);
 		const p = recipe.provenance;
 		expect(p.zonation).toEqual({ id: split.id, name: split.name });
-		expect(p.grid.counts).toEqual({ x: 40, y: 1, z: 17 });
+		expect(p.grid!.counts).toEqual({ x: 40, y: 1, z: 17 });
 		expect(p.domains.map((d) => d.name)).toEqual(split.domains.map((d) => d.name));
 		for (const d of p.domains) {
 			expect(d.variogram).toMatchObject({ name: d.name, version: expect.any(Number), transform: 'normal-score' });
 			expect(d.data?.rules).toMatchObject({ cellHeight: 0.2, averaging: 'mean' });
 			expect(d.cells).toBeGreaterThan(0);
 		}
-		expect(p.domains.reduce((a, d) => a + d.cells, 0)).toBe(p.grid.simulated);
+		expect(p.domains.reduce((a, d) => a + d.cells, 0)).toBe(p.grid!.simulated);
 		expect(getRecipe(projectId, recipe.id, db).createdBy?.name).toBe('Ana Analyst');
 	});
 

@@ -4,14 +4,29 @@
  * saved variogram version, kriging, search and tail bounds, and the target grid with each cell's domain read
  * from the stratigraphy. Everything is read from the database; nothing is written here.
  */
-import { createRecipe, trendResiduals, weightedMean, type DomainInput, type LinearTrend, type Recipe } from '$lib/geostat';
+import { createRecipe, trendResiduals, weightedMean, type DomainInput, type LinearTrend, type Recipe, type TargetDefinition } from '$lib/geostat';
 import { domainTrend } from '$lib/variography';
 import { PROPERTY_INFO, type SimulatedProperty } from '$lib/properties';
 import { getDb } from '$lib/server/db';
 import type { DbOrTx } from '$lib/server/db/transaction';
 import { InvalidInput, type InputIssue } from '$lib/server/errors';
-import { MAX_CELLS, MAX_ENSEMBLE_VALUES, type RecipeSetup, type SimulatedDomainSetup } from '$lib/schemas/recipe';
-import { cellsPerDomain, domainRuns, gridDomains, gridStratigraphy, type GridSpec, type GridStratigraphy } from '$lib/site';
+import { MAX_CELLS, MAX_ENSEMBLE_VALUES, MAX_MESH_ELEMENTS, type GridSetup, type MeshTargetSetup, type RecipeSetup, type SimulatedDomainSetup } from '$lib/schemas/recipe';
+import {
+	axesDomains,
+	cellsPerDomain,
+	domainRuns,
+	elevationCells,
+	gridDefinition,
+	gridDomains,
+	gridStratigraphy,
+	pointDomains,
+	unitHeightBands,
+	type GridSpec,
+	type GridStratigraphy,
+	type HeightBand
+} from '$lib/site';
+import type { Member } from '$lib/site';
+import { getMesh, meshColumns } from './meshes';
 import { domainSamples, type DomainSamples } from './domains';
 import { getSite } from './site';
 import { listSoundings } from './soundings';
@@ -41,6 +56,27 @@ export interface ProvenanceDomain {
 	data: { samples: number; soundings: number; rules: Omit<DomainSamples['domain'], 'id' | 'name' | 'zonationId' | 'zonationName' | 'property'> } | null;
 }
 
+/** The grid a recipe targets, as resolved: the spec, its counts and, with variable cell heights, the elevation cells. */
+export type ProvenanceGrid = GridSpec & {
+	counts: { x: number; y: number; z: number };
+	cells: number;
+	simulated: number;
+	/** Variable cell heights: the counts.z + 1 cell edges along the elevation, ascending (the engine holds the centres). */
+	zEdges?: number[];
+};
+
+/** The mesh a recipe targets. */
+export interface ProvenanceMesh {
+	id: string;
+	name: string;
+	elements: number;
+	simulated: number;
+	/** How elements take their domains: the stratigraphy at the centroid, or the element's group. */
+	assign: 'stratigraphy' | 'groups';
+	/** The group → domain mapping (domain names; null: not simulated). */
+	groups?: { group: string; domain: string | null }[];
+}
+
 /** What a recipe was resolved from, stored beside it (not hashed). */
 export interface RecipeProvenance {
 	zonation: { id: string; name: string };
@@ -48,7 +84,10 @@ export interface RecipeProvenance {
 	lengthUnit: 'm' | 'ft';
 	seed: string;
 	realizations: number;
-	grid: GridSpec & { counts: { x: number; y: number; z: number }; cells: number; simulated: number };
+	/** The grid targeted; null for a mesh. */
+	grid: ProvenanceGrid | null;
+	/** The mesh targeted (absent for a grid). */
+	mesh?: ProvenanceMesh;
 	domains: ProvenanceDomain[];
 	/** Remarks about the grid and the data (soundings left out, domains without cells …). */
 	warnings: string[];
@@ -120,7 +159,7 @@ export function resolveRecipe(projectId: string, setup: RecipeSetup, db: DbOrTx 
 	}
 	const z = zonation!;
 	const site = getSite(projectId, db);
-	if (setup.grid.geometry !== site.geometry) {
+	if (setup.grid && setup.grid.geometry !== site.geometry) {
 		issues.push({ path: ['grid', 'geometry'], message: `The site is ${site.geometry.toUpperCase()}; the grid must be ${site.geometry.toUpperCase()} too.` });
 	}
 	const byId = new Map(setup.domains.map((d, k) => [d.domainId, { d, k }]));
@@ -200,37 +239,44 @@ export function resolveRecipe(projectId: string, setup: RecipeSetup, db: DbOrTx 
 		fail();
 	}
 
-	let grid: ReturnType<typeof gridDomains>;
+	const members = provenance.filter((p) => p.index !== null).map((p) => z.domains.find((zd) => zd.id === p.domainId)!.members);
+	let resolved: ResolvedTargets;
 	try {
-		const members = provenance.filter((p) => p.index !== null).map((p) => z.domains.find((zd) => zd.id === p.domainId)!.members);
-		grid = gridDomains(projectStratigraphy(projectId, db), members, setup.grid);
+		resolved = setup.mesh
+			? meshTargets(projectId, site.geometry, setup.mesh, members, z.domains, provenance, db)
+			: gridTargets(projectStratigraphy(projectId, db), members, setup.grid!);
 	} catch (err) {
-		issues.push({ path: ['grid'], message: `The grid is not valid: ${(err as Error).message}.` });
+		if (err instanceof InvalidInput) throw err;
+		issues.push({ path: [setup.mesh ? 'mesh' : 'grid'], message: `The ${setup.mesh ? 'mesh' : 'grid'} is not valid: ${(err as Error).message}.` });
 		fail();
 	}
-	const { grid: def, domain, warnings } = grid!;
+	const { targets, domain, warnings } = resolved!;
 	const cells = domain.length;
 	const counts = cellsPerDomain(domain, inputs.length);
 	const simulated = counts.reduce((a, b) => a + b, 0);
-	if (cells > MAX_CELLS) issues.push({ path: ['grid'], message: `The grid has ${cells.toLocaleString('en')} cells; at most ${MAX_CELLS.toLocaleString('en')} are allowed. Use larger cells or a smaller extent.` });
-	else if (simulated === 0) issues.push({ path: ['grid'], message: 'No cell of the grid lies in a simulated domain: check the grid’s extent against the section.' });
+	const limit = setup.mesh ? MAX_MESH_ELEMENTS : MAX_CELLS;
+	const what = setup.mesh ? 'elements' : 'cells';
+	if (cells > limit) issues.push({ path: [setup.mesh ? 'mesh' : 'grid'], message: `The ${setup.mesh ? 'mesh' : 'grid'} has ${cells.toLocaleString('en')} ${what}; at most ${limit.toLocaleString('en')} are allowed.${setup.mesh ? '' : ' Use larger cells or a smaller extent.'}` });
+	else if (simulated === 0) issues.push({ path: [setup.mesh ? 'mesh' : 'grid'], message: setup.mesh ? 'No element of the mesh lies in a simulated domain: check the mesh’s coordinates against the section, or its groups.' : 'No cell of the grid lies in a simulated domain: check the grid’s extent against the section.' });
 	else if (simulated * setup.realizations > MAX_ENSEMBLE_VALUES) {
 		issues.push({
 			path: ['realizations'],
-			message: `${setup.realizations} realizations of ${simulated.toLocaleString('en')} simulated cells are more values than an ensemble map holds (${MAX_ENSEMBLE_VALUES.toLocaleString('en')}): use fewer realizations or larger cells.`
+			message: `${setup.realizations} realizations of ${simulated.toLocaleString('en')} simulated ${what} are more values than an ensemble map holds (${MAX_ENSEMBLE_VALUES.toLocaleString('en')}): use fewer realizations${setup.mesh ? '' : ' or larger cells'}.`
 		});
 	}
 	if (issues.length) fail();
 	for (const p of provenance) if (p.index !== null) p.cells = counts[p.index];
-	for (const p of provenance) if (p.index !== null && p.cells === 0) warnings.push(`No cell of the grid lies in ${p.name}.`);
+	for (const p of provenance) if (p.index !== null && p.cells === 0) warnings.push(`No ${setup.mesh ? 'element of the mesh' : 'cell of the grid'} lies in ${p.name}.`);
 
 	let recipe: Recipe;
 	try {
-		recipe = createRecipe({ seed: setup.seed, domains: inputs }, { kind: 'grid', ...def, domainRuns: domainRuns(domain) }, { realizations: setup.realizations });
+		recipe = createRecipe({ seed: setup.seed, domains: inputs }, targets, { realizations: setup.realizations });
 	} catch (err) {
 		issues.push({ path: [], message: `The engine refused the recipe: ${(err as Error).message}.` });
 		fail();
 	}
+	const grid: ProvenanceGrid | null = resolved!.grid ? ({ ...resolved!.grid, cells, simulated } as ProvenanceGrid) : null;
+	const mesh = resolved!.mesh ? { ...resolved!.mesh, simulated } : undefined;
 	return {
 		recipe: recipe!,
 		provenance: {
@@ -239,9 +285,107 @@ export function resolveRecipe(projectId: string, setup: RecipeSetup, db: DbOrTx 
 			lengthUnit: site.lengthUnit,
 			seed: setup.seed,
 			realizations: setup.realizations,
-			grid: { ...setup.grid, counts: def.counts, cells, simulated },
+			grid,
+			...(mesh ? { mesh } : {}),
 			domains: provenance,
 			warnings
 		}
+	};
+}
+
+interface ResolvedTargets {
+	targets: TargetDefinition;
+	domain: Int32Array;
+	warnings: string[];
+	grid: (GridSpec & { counts: { x: number; y: number; z: number }; zEdges?: number[] }) | null;
+	mesh: Omit<ProvenanceMesh, 'simulated'> | null;
+}
+
+/**
+ * A grid setup's targets: the engine's regular grid, or with variable cell heights a rectilinear grid whose
+ * elevation cells follow the units (unitHeightBands over the grid's columns) or the bands given (elevationCells).
+ */
+function gridTargets(strat: GridStratigraphy, members: Member[][], spec: GridSetup): ResolvedTargets {
+	const heights = spec.elevation.heights;
+	if (!heights) {
+		const { grid, domain, warnings } = gridDomains(strat, members, spec);
+		return { targets: { kind: 'grid', ...grid, domainRuns: domainRuns(domain) }, domain, warnings, grid: { ...spec, counts: grid.counts }, mesh: null };
+	}
+	const def = gridDefinition(spec);
+	const xs = Array.from({ length: def.counts.x }, (_, i) => def.origin.x + i * def.spacing.x);
+	const ys = Array.from({ length: def.counts.y }, (_, j) => def.origin.y + j * def.spacing.y);
+	const { from, to, cell } = spec.elevation;
+	let bands: HeightBand[];
+	if ('byUnit' in heights) {
+		const columns = ys.flatMap((y) => xs.map((x) => ({ x, y })));
+		bands = unitHeightBands(strat, spec.geometry, columns, heights.byUnit, from);
+	} else bands = heights.bands.map((b) => ({ bottom: b.from, top: b.to, cell: b.cell }));
+	const { edges, centres } = elevationCells(from, to, cell, bands);
+	// Counted before the domains are read, so a grid too large is refused without the work.
+	if (xs.length * ys.length * centres.length > MAX_CELLS) {
+		throw new InvalidInput(`The grid has ${(xs.length * ys.length * centres.length).toLocaleString('en')} cells; at most ${MAX_CELLS.toLocaleString('en')} are allowed. Use larger cells or a smaller extent.`, [
+			{ path: ['grid'], message: `The grid has ${(xs.length * ys.length * centres.length).toLocaleString('en')} cells; at most ${MAX_CELLS.toLocaleString('en')} are allowed. Use larger cells or a smaller extent.` }
+		]);
+	}
+	const { domain, warnings } = axesDomains(strat, members, spec.geometry, xs, ys, centres);
+	return {
+		targets: { kind: 'rectilinear', x: xs, y: ys, z: centres, domainRuns: domainRuns(domain) },
+		domain,
+		warnings,
+		grid: { ...spec, counts: { x: xs.length, y: ys.length, z: centres.length }, zEdges: edges },
+		mesh: null
+	};
+}
+
+/** A mesh setup's targets: the mesh's centroids as points, each in the domain of the stratigraphy there or of its group. */
+function meshTargets(
+	projectId: string,
+	geometry: '2d' | '3d',
+	setup: MeshTargetSetup,
+	members: Member[][],
+	zonationDomains: ZonationView['domains'],
+	provenance: ProvenanceDomain[],
+	db: DbOrTx
+): ResolvedTargets {
+	const mesh = getMesh(projectId, setup.meshId, db);
+	if (mesh.geometry !== geometry) throw new InvalidInput(`The mesh is ${mesh.geometry.toUpperCase()}; the site is ${geometry.toUpperCase()}.`, [{ path: ['mesh', 'meshId'], message: `The mesh is ${mesh.geometry.toUpperCase()}; the site is ${geometry.toUpperCase()}.` }]);
+	const cols = meshColumns(projectId, setup.meshId, db);
+	let domain: Int32Array;
+	let warnings: string[];
+	let groups: { group: string; domain: string | null }[] | undefined;
+	if (setup.assign === 'stratigraphy') {
+		({ domain, warnings } = pointDomains(projectStratigraphy(projectId, db), members, geometry, cols));
+	} else {
+		if (!cols.group) throw new InvalidInput('The mesh has no group column; assign its elements from the stratigraphy.', [{ path: ['mesh', 'assign'], message: 'The mesh has no group column; assign its elements from the stratigraphy.' }]);
+		const index = new Map<string, number>();
+		const issues: InputIssue[] = [];
+		groups = [];
+		setup.groups.forEach((g, k) => {
+			if (!mesh.groups.some((mg) => mg.name === g.group)) issues.push({ path: ['mesh', 'groups', k, 'group'], message: `The mesh has no group ${g.group}.` });
+			if (g.domainId === null) {
+				index.set(g.group, -1);
+				groups!.push({ group: g.group, domain: null });
+				return;
+			}
+			const zd = zonationDomains.find((d) => d.id === g.domainId);
+			const p = provenance.find((pd) => pd.domainId === g.domainId);
+			if (!zd || !p) issues.push({ path: ['mesh', 'groups', k, 'domainId'], message: `That domain is not in the zonation.` });
+			else {
+				index.set(g.group, p.index ?? -1);
+				groups!.push({ group: g.group, domain: zd.name });
+			}
+		});
+		for (const mg of mesh.groups) if (!index.has(mg.name)) issues.push({ path: ['mesh', 'groups'], message: `Say which domain group ${mg.name} is in (or none).` });
+		if (issues.length) throw new InvalidInput(issues.map((i) => i.message).join(' '), issues);
+		domain = Int32Array.from(cols.group, (g) => index.get(g) ?? -1);
+		warnings = [];
+	}
+	const y = geometry === '2d' ? new Array<number>(cols.x.length).fill(0) : Array.from(cols.y);
+	return {
+		targets: { kind: 'points', x: Array.from(cols.x), y, z: Array.from(cols.z), domain: Array.from(domain) },
+		domain,
+		warnings,
+		grid: null,
+		mesh: { id: mesh.id, name: mesh.name, elements: mesh.elements, assign: setup.assign, ...(groups ? { groups } : {}) }
 	};
 }

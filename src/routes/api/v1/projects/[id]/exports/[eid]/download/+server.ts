@@ -1,0 +1,20 @@
+import { Readable } from 'node:stream';
+import { endpoint } from '$lib/server/api';
+import { requireProjectRole } from '$lib/server/auth/guard';
+import { CAPABILITIES } from '$lib/server/auth/roles';
+import { safeFileName } from '$lib/server/download';
+import { exportFile } from '$lib/server/services/export-jobs';
+
+/** A finished export's ZIP; 409 while it runs or after its file expired. */
+export const GET = endpoint((event) => {
+	const { project } = requireProjectRole(event, event.params.id, CAPABILITIES.download);
+	const file = exportFile(project.id, event.params.eid ?? '');
+	return new Response(Readable.toWeb(file.open() as Readable) as ReadableStream, {
+		headers: {
+			'content-type': 'application/zip',
+			'content-length': String(file.bytes),
+			'content-disposition': `attachment; filename="${safeFileName(file.fileName)}"`,
+			'cache-control': 'no-store'
+		}
+	});
+});
