@@ -9,6 +9,7 @@ import { join } from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import { and, desc, eq, inArray, lt } from 'drizzle-orm';
 import { CancelledError } from '$lib/cancelled-error';
+import { formatDate } from '$lib/dates';
 import type { ExportJobRequest } from '$lib/schemas/exports';
 import { getDb } from '$lib/server/db';
 import { users } from '$lib/server/db/schema';
@@ -200,7 +201,7 @@ async function notify(row: ExportJobRow, request: StoredRequest, project: string
 				`Your export of ${recipe} (${project}) is ready: ${row.fileName}.`,
 				'',
 				`Download it from the Exports page: ${link}`,
-				`It is kept until ${expiresAt.toISOString().slice(0, 10)} and deleted after that.`,
+				`It is kept until ${formatDate(expiresAt, { utc: true })} (UTC) and deleted after that.`,
 				'',
 				'These fields support, and do not replace, the judgement of a licensed engineer and the local codes.'
 			].join('\n')
