@@ -177,8 +177,9 @@ export class QueueRealizations {
 		if (this.closed) throw new QueueFailure('The realization queue is closed (the server is stopping).');
 		if (signal?.aborted) throw new CancelledError();
 		if (list.length === 0) return;
+		// A hash is taken as given only with the document it names (the worker checks one against the other).
 		const document = of.document ?? canonicalJson(of.recipe);
-		const hash = of.hash ?? sha256(document);
+		const hash = of.document && of.hash ? of.hash : sha256(document);
 		const cells = targetCount(of.recipe);
 		const run = randomUUID().replace(/-/g, '');
 		const ranges: RangeState[] = splitRanges(list, rangeSize(cells)).map((realizations) => ({ realizations, jobId: null, attempt: 0, lost: 0 }));
@@ -310,6 +311,11 @@ export class QueueRealizations {
 		} catch {
 			// Redis away: the keys expire by themselves, and workers drop ranges of a run whose key is gone.
 		}
+	}
+
+	/** The connection's state: ready, connecting, reconnecting, end … */
+	status(): string {
+		return this.redis.status;
 	}
 
 	/** Counts and workers, for the health endpoint. */
