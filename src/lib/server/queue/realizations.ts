@@ -300,12 +300,17 @@ export class QueueRealizations {
 		}
 	}
 
-	/** Ends a run that stopped early: its run key, its waiting jobs and whatever it left unread. */
+	/**
+	 * Ends a run that stopped early: its run key, its jobs not yet taken and whatever it left unread. A failed job is
+	 * kept (for a day) so the health endpoint counts it and its reason can be read; a running one cannot be removed,
+	 * and stops by itself within a second, as its run key is gone.
+	 */
 	private async abandon(run: string, ranges: RangeState[]): Promise<void> {
 		try {
 			await this.redis.del(keys.run(run));
 			for (const range of ranges) {
-				if (range.jobId) await this.queue.remove(range.jobId).catch(() => 0);
+				const state = range.jobId ? await this.queue.getJobState(range.jobId) : 'unknown';
+				if (state !== 'failed' && state !== 'unknown' && state !== 'active') await this.queue.remove(range.jobId!).catch(() => 0);
 				await this.redis.del(...range.realizations.map((r) => keys.result(run, r)));
 			}
 		} catch {
