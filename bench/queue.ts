@@ -7,8 +7,10 @@
 //     server's side of the queue, as an export job reads them.
 // Two workers of one thread each against the in-process pool of two threads is the fair comparison on a 2-core box.
 // Figures: wall seconds; the workers' own compute (prepare + regenerate, from the jobs' results); the queue's
-// overhead per job = (wall × threads − compute) / jobs, i.e. everything that is not computing (Redis round trips,
-// moving 8 MB a realization, waiting) charged to each job, and its share of a realization's compute time; the
+// overhead per job: within each job what is not computing (fetching the recipe, writing its 8 MB, progress), plus the
+// gap between a worker finishing a job and starting the next that was waiting, from BullMQ's own timestamps, and its
+// share of a realization's compute time; the wall overhead per job = (wall × threads − compute) / jobs, which also
+// charges a worker's idle time at the end (when the other still works on the last range) to the queue; the
 // server's serial share per realization: reading it from Redis (GETDEL and copy), and an estimate of writing it as
 // CSV (String() of each value and its coordinates, deflated at level 6, as a CSV export's ZIP does). Wall clock, not
 // CPU time: the work runs in other processes. Needs redis-server; builds the worker when build/worker is missing.
@@ -18,7 +20,7 @@ import { Redis } from 'ioredis';
 import { createRecipe, type Recipe } from '../src/lib/geostat/index';
 import { createNodePool } from '../workers/node-pool';
 import { QueueRealizations } from '../src/lib/server/queue/realizations';
-import { PREFIX, QUEUE_NAME, type RangeJobData, type RangeJobResult } from '../src/lib/server/queue/protocol';
+import { PREFIX, QUEUE_NAME, bufferToValues, valuesToBuffer, type RangeJobData, type RangeJobResult } from '../src/lib/server/queue/protocol';
 import { startRedis, startWorker, stopAll, type TestWorker } from '../tests/setup/queue';
 import { blockInput } from './simulation';
 import type { BenchCase } from './index';
@@ -56,33 +58,49 @@ function csvEstimateMs(values: Float64Array): number {
 	return performance.now() - t0;
 }
 
+/** The server's read of one realization of the block: GETDEL of its 8 MB and the copy into a Float64Array (ms, median of 5). */
+async function readMs(client: Redis, values: Float64Array): Promise<number> {
+	const times: number[] = [];
+	for (let k = 0; k < 5; k++) {
+		await client.set('conefield:bench:read', valuesToBuffer(values));
+		const t0 = performance.now();
+		bufferToValues((await client.getdelBuffer('conefield:bench:read'))!, values.length);
+		times.push(performance.now() - t0);
+	}
+	return times.sort((a, b) => a - b)[2];
+}
+
 async function throughQueue(workerCount: number): Promise<Record<string, number>> {
 	const redis = await startRedis();
 	const workers: TestWorker[] = [];
 	const q = new QueueRealizations(redis.url);
-	const jobs = new Queue<RangeJobData, RangeJobResult>(QUEUE_NAME, { connection: new Redis(redis.url, { maxRetriesPerRequest: null }), prefix: PREFIX });
+	const client = new Redis(redis.url, { maxRetriesPerRequest: null });
+	client.on('error', () => undefined);
+	const jobs = new Queue<RangeJobData, RangeJobResult>(QUEUE_NAME, { connection: client, prefix: PREFIX });
 	try {
 		for (let w = 0; w < workerCount; w++) workers.push(await startWorker(redis.url, `bench-${w + 1}`, { WORKER_LOCK_MS: '30000' }));
 		while ((await q.workers()).length < workerCount) await new Promise((r) => setTimeout(r, 100));
 		const started = performance.now();
-		let readMs = 0;
-		let csvMs = 0;
-		const it = q.stream({ recipe: theRecipe() }, list)[Symbol.asyncIterator]();
-		for (;;) {
-			const t0 = performance.now();
-			const next = await it.next();
-			if (next.done) break;
-			// The time inside next() when the realization was already waiting is the server's read; a wait for a worker
-			// is not (it shows as a long call): count only calls shorter than a second.
-			const took = performance.now() - t0;
-			if (took < 1000) readMs += took;
-			if (next.value[0] === 0) csvMs = csvEstimateMs(next.value[1]);
-		}
+		let first: Float64Array | null = null;
+		for await (const [r, values] of q.stream({ recipe: theRecipe() }, list)) if (r === 0) first = values;
 		const wallMs = performance.now() - started;
-		const done = (await jobs.getJobs(['completed'])).map((j) => j.returnvalue);
+		const completed = await jobs.getJobs(['completed']);
+		const done = completed.map((j) => j.returnvalue);
 		const computeMs = done.reduce((s, r) => s + r.prepareMs + r.realizeMs, 0);
-		const overheadPerJobMs = (wallMs * workerCount - computeMs) / done.length;
+		const wallOverheadPerJobMs = (wallMs * workerCount - computeMs) / done.length;
 		const realizationMs = computeMs / N;
+		// The queue's own cost per job: inside the job, what is not computing (fetching the recipe, writing 8 MB,
+		// progress), plus the gap between a worker finishing a job and starting the next one that was already waiting.
+		let inJob = 0;
+		let gaps = 0;
+		const byWorker = new Map<string, typeof completed>();
+		for (const j of completed) byWorker.set(j.returnvalue.worker, [...(byWorker.get(j.returnvalue.worker) ?? []), j]);
+		for (const j of completed) inJob += j.finishedOn! - j.processedOn! - (j.returnvalue.prepareMs + j.returnvalue.realizeMs);
+		for (const list of byWorker.values()) {
+			list.sort((a, b) => a.processedOn! - b.processedOn!);
+			for (let k = 1; k < list.length; k++) gaps += Math.max(0, list[k].processedOn! - Math.max(list[k - 1].finishedOn!, list[k].timestamp));
+		}
+		const overheadPerJobMs = (inJob + gaps) / done.length;
 		return {
 			workers: workerCount,
 			threadsPerWorker: 1,
@@ -93,12 +111,15 @@ async function throughQueue(workerCount: number): Promise<Record<string, number>
 			realizationSeconds: round(realizationMs / 1000),
 			overheadPerJobMs: round(overheadPerJobMs, 0),
 			overheadShare: round(overheadPerJobMs / realizationMs, 4),
-			serverReadMsPerRealization: round(readMs / N, 1),
-			serverCsvMsPerRealization: round(csvMs, 0)
+			wallOverheadPerJobMs: round(wallOverheadPerJobMs, 0),
+			wallOverheadShare: round(wallOverheadPerJobMs / realizationMs, 4),
+			serverReadMsPerRealization: round(await readMs(client, first!), 1),
+			serverCsvMsPerRealization: round(csvEstimateMs(first!), 0)
 		};
 	} finally {
 		await q.close();
 		await jobs.close();
+		client.disconnect();
 		await Promise.all(workers.map((w) => w.stop()));
 		await redis.stop();
 		await stopAll();

@@ -85,7 +85,7 @@ export function rangeProcessor({ redis, slots, name, checkMs = 1000, log = () =>
 					if (now - lastProgress < 500) return;
 					lastProgress = now;
 					const per = total / realizations.length;
-					const progress: RangeProgress = { r: current, fraction: Math.min(0.99, (done - written * per) / per) };
+					const progress: RangeProgress = { r: current, fraction: Math.max(0, Math.min(0.99, (done - written * per) / per)) };
 					void job.updateProgress(progress).catch(() => undefined);
 				},
 				onRealization: (r, values) => {

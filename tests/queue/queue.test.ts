@@ -281,3 +281,13 @@ describe('faults', () => {
 		await client.del(`conefield:recipe:${poisoned.hash}`);
 	});
 });
+
+describe('shutdown', () => {
+	it('SIGTERM: a worker finishes and leaves the list, the queue’s server closes its connections and exits', async () => {
+		const [first] = workers;
+		expect(await first.stop()).toBe('exited');
+		expect(first.log()).toMatch(/SIGTERM: finishing 0 job\(s\), taking no more[\s\S]*stopped/);
+		expect((await client.keys('conefield:worker:*')).sort()).toEqual([`conefield:worker:${workers[1].name}`]);
+		expect(await queued.stop()).toBe('exited');
+	});
+});

@@ -20,13 +20,19 @@ function exited(child: ChildProcess): Promise<void> {
 	return new Promise((done) => (child.exitCode !== null || child.signalCode !== null ? done() : child.once('exit', () => done())));
 }
 
-async function stop(child: ChildProcess, signal: NodeJS.Signals = 'SIGTERM', graceMs = 5000): Promise<void> {
-	if (child.exitCode !== null || child.signalCode !== null) return;
+/** Stops a process with `signal`, killing it after `graceMs`; says whether it exited by itself. */
+async function stop(child: ChildProcess, signal: NodeJS.Signals = 'SIGTERM', graceMs = 5000): Promise<'exited' | 'killed'> {
+	if (child.exitCode !== null || child.signalCode !== null) return 'exited';
 	child.kill(signal);
-	const timer = setTimeout(() => child.kill('SIGKILL'), graceMs);
+	let killed = false;
+	const timer = setTimeout(() => {
+		killed = true;
+		child.kill('SIGKILL');
+	}, graceMs);
 	await exited(child);
 	clearTimeout(timer);
 	started.delete(child);
+	return killed ? 'killed' : 'exited';
 }
 
 /** A process with its output collected. */
@@ -80,7 +86,8 @@ export interface TestWorker {
 	name: string;
 	child: ChildProcess;
 	log(): string;
-	stop(signal?: NodeJS.Signals): Promise<void>;
+	/** Stops it (SIGTERM by default); 'killed' when it had to be killed after 20 s. */
+	stop(signal?: NodeJS.Signals): Promise<'exited' | 'killed'>;
 }
 
 /** Builds the worker's bundle when it is missing (npm test builds it; a lone vitest run may not have). */
@@ -106,7 +113,8 @@ export async function startWorker(url: string, name: string, env: Record<string,
 export interface TestApp {
 	baseUrl: string;
 	log(): string;
-	stop(): Promise<void>;
+	/** SIGTERM; 'killed' when it had not exited within 10 s. */
+	stop(): Promise<'exited' | 'killed'>;
 }
 
 /** A fresh data directory (database and export files) for servers that share it. */
@@ -135,10 +143,10 @@ export async function startApp(dataDir: string, env: Record<string, string>): Pr
 		await stop(child, 'SIGKILL');
 		throw new Error(`${(err as Error).message}\n--- server log ---\n${log()}`);
 	}
-	return { baseUrl, log, stop: () => stop(child) };
+	return { baseUrl, log, stop: () => stop(child, 'SIGTERM', 10_000) };
 }
 
 /** Stops every process started here that is still running. */
 export async function stopAll(): Promise<void> {
-	await Promise.all([...started].map((c) => stop(c)));
+	await Promise.all([...started].map((c) => stop(c, 'SIGKILL')));
 }

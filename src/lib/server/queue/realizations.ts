@@ -101,7 +101,10 @@ export class QueueRealizations {
 	private readonly redis: Redis;
 	private readonly queue: Queue<RangeJobData, RangeJobResult>;
 	private readonly events: QueueEvents;
-	private readonly waiters = new Map<string, () => void>();
+	/** The queue's and the events' connections: BullMQ leaves connections it was given open when it closes. */
+	private readonly connections: Redis[];
+	/** Each running stream's wake-up, by run: called on its jobs' events, with a progress event's data. */
+	private readonly waiters = new Map<string, (progress?: unknown) => void>();
 	private readonly opts: Required<QueueOptions>;
 	private closed = false;
 
@@ -111,14 +114,16 @@ export class QueueRealizations {
 		const name = `conefield-web-${hostname()}-${process.pid}`;
 		this.redis = connect(url, name);
 		this.redis.on('error', () => undefined);
-		this.queue = new Queue(QUEUE_NAME, { connection: connect(url, `${name}-queue`), prefix: PREFIX });
+		this.connections = [connect(url, `${name}-queue`), connect(url, `${name}-events`)];
+		for (const c of this.connections) c.on('error', () => undefined);
+		this.queue = new Queue(QUEUE_NAME, { connection: this.connections[0], prefix: PREFIX });
 		this.queue.on('error', () => undefined);
-		this.events = new QueueEvents(QUEUE_NAME, { connection: connect(url, `${name}-events`), prefix: PREFIX });
+		this.events = new QueueEvents(QUEUE_NAME, { connection: this.connections[1], prefix: PREFIX });
 		this.events.on('error', () => undefined);
-		const wake = ({ jobId }: { jobId: string }) => this.waiters.get(jobId.slice(0, jobId.indexOf('.')))?.();
-		this.events.on('progress', wake);
-		this.events.on('completed', wake);
-		this.events.on('failed', wake);
+		const runOf = (jobId: string) => jobId.slice(0, jobId.indexOf('.'));
+		this.events.on('progress', ({ jobId, data }) => this.waiters.get(runOf(jobId))?.(data));
+		this.events.on('completed', ({ jobId }) => this.waiters.get(runOf(jobId))?.());
+		this.events.on('failed', ({ jobId }) => this.waiters.get(runOf(jobId))?.());
 	}
 
 	/** A Redis call that gives up after the grace period (commands wait while Redis is away). */
@@ -184,6 +189,7 @@ export class QueueRealizations {
 		const run = randomUUID().replace(/-/g, '');
 		const ranges: RangeState[] = splitRanges(list, rangeSize(cells)).map((realizations) => ({ realizations, jobId: null, attempt: 0, lost: 0 }));
 		const fractions = new Map<number, number>();
+		const wanted = new Set(list);
 		let taken = 0;
 		const report = () => {
 			if (!onProgress) return;
@@ -198,7 +204,14 @@ export class QueueRealizations {
 			wake = null;
 			w?.();
 		};
-		this.waiters.set(run, changed);
+		this.waiters.set(run, (progress) => {
+			const p = progress as RangeProgress | undefined;
+			if (p && typeof p === 'object' && wanted.has(p.r) && typeof p.fraction === 'number') {
+				fractions.set(p.r, Math.min(1, Math.max(0, p.fraction)));
+				report();
+			}
+			changed();
+		});
 		const onAbort = () => changed();
 		signal?.addEventListener('abort', onAbort);
 		const keepAlive = async () => {
@@ -243,6 +256,7 @@ export class QueueRealizations {
 						if (signal?.aborted) throw new CancelledError();
 						const bytes = await this.call(this.redis.getdelBuffer(keys.result(run, r)));
 						if (bytes) {
+							wanted.delete(r);
 							fractions.delete(r);
 							taken++;
 							report();
@@ -275,11 +289,6 @@ export class QueueRealizations {
 								throw new QueueFailure(
 									`No worker of the realization queue has been seen for ${Math.round(this.opts.noWorkerMs / 1000)} s: start one with \`npm run worker\` (REDIS_URL=${this.address}).`
 								);
-						}
-						if (typeof job?.progress === 'object' && job.progress !== null) {
-							const p = job.progress as RangeProgress;
-							if (range.realizations.includes(p.r)) fractions.set(p.r, p.fraction);
-							report();
 						}
 						await new Promise<void>((resolve) => {
 							const timer = setTimeout(resolve, this.opts.pollMs);
@@ -341,8 +350,10 @@ export class QueueRealizations {
 	async close(): Promise<void> {
 		this.closed = true;
 		for (const w of this.waiters.values()) w();
-		await Promise.allSettled([this.events.close(), this.queue.close()]);
+		// Closing talks to Redis; when it is away, give up after a few seconds rather than hold the shutdown.
+		await Promise.race([Promise.allSettled([this.events.close(), this.queue.close()]), new Promise((r) => setTimeout(r, 3000).unref())]);
 		this.redis.disconnect();
+		for (const c of this.connections) c.disconnect();
 	}
 }
 
