@@ -305,7 +305,8 @@ export class QueueRealizations {
 			this.waiters.delete(run);
 			signal?.removeEventListener('abort', onAbort);
 			if (k < ranges.length) void this.abandon(run, ranges.slice(k));
-			else void this.redis.del(keys.run(run)).catch(() => undefined);
+			// A finished run's key goes at once (bounded: Redis may be away, and then it expires by itself).
+			else await Promise.race([this.redis.del(keys.run(run)).catch(() => 0), new Promise((r) => setTimeout(r, 1000).unref())]);
 		}
 	}
 
