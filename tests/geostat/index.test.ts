@@ -56,6 +56,10 @@ const TOPICS: Record<string, string[]> = {
 		'pointTargetsSchema',
 		'targetDefinitionSchema',
 		'recipeSchema',
+		'sgsRecipeSchema',
+		'uniformRecipeSchema',
+		'uniformDomainSchema',
+		'uniformInputSchema',
 		'recipeKindSchema',
 		'targetsFromDefinition',
 		'createRecipe',
@@ -68,7 +72,10 @@ const TOPICS: Record<string, string[]> = {
 		'isCurrentEngine',
 		'engineVersionOf',
 		'prepareRecipe',
-		'regenerate'
+		'regenerate',
+		'uniformValues',
+		'createUniformRecipe',
+		'prepareUniform'
 	],
 	validation: ['dataReproduction', 'histogramReproduction', 'variogramReproduction']
 };
