@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import seedrandom from 'seedrandom';
-import { ensembleMap, labelWeakZones, weakZoneFigures, weakZones, type WeakZoneGrid } from '../../src/lib/ensemble/index';
+import { ensembleMap, labelWeakZones, largestExtentQuantiles, weakZoneFigures, weakZones, type WeakZoneGrid } from '../../src/lib/ensemble/index';
 import { expectAbsClose } from '../asserts';
 
 /**
@@ -239,6 +239,8 @@ describe('weakZones(realizations, grid, options)', () => {
 		const sum = weakZones(rs, grid, { threshold: 0.5, eligible });
 		const extents = sum.realizations.map((r) => Float64Array.of(r.largestExtent));
 		for (const p of ['p10', 'p50', 'p90'] as const) expect(sum.largestExtent[p]).toBe(ensembleMap(extents, p)[0]);
+		expect(largestExtentQuantiles(sum.realizations)).toEqual(sum.largestExtent);
+		expect(() => largestExtentQuantiles([])).toThrow('no realizations');
 	});
 
 	it('weakZones: the map is NaN where a cell is not eligible', () => {

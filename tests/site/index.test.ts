@@ -14,6 +14,7 @@ const EXPORTS = [
 	'gridDomains',
 	'gridStratigraphy',
 	'boundaryChainageAt',
+	'boundarySides',
 	'checkPolyline',
 	'contactLines',
 	'declusterWeights',

@@ -10,5 +10,5 @@ export { checkRealizations } from './domain-checks';
 export type { CheckLevel, CheckVerdict, CheckOptions, DataCheck, HistogramCheck, VariogramCheck, VariogramCheckDirection, DomainCheck } from './domain-checks';
 export { checkUniform } from './uniform-checks';
 export type { UniformCheck } from './uniform-checks';
-export { labelWeakZones, weakZoneFigures, weakZones } from './weak-zones';
+export { labelWeakZones, weakZoneFigures, weakZones, largestExtentQuantiles } from './weak-zones';
 export type { WeakZoneGrid, WeakZoneLabels, RealizationWeakZones, WeakZoneOptions, WeakZoneSummary } from './weak-zones';

@@ -180,8 +180,18 @@ export function weakZones(realizations: ArrayLike<number>[], grid: WeakZoneGrid,
 	const nr = realizations.length;
 	const probabilityMap = new Float64Array(n);
 	for (let c = 0; c < n; c++) probabilityMap[c] = eligible[c] === 1 ? hits[c] / nr : NaN;
-	const sorted = Float64Array.from(figures, (f) => f.largestExtent).sort();
-	const [p10, p50, p90] = [0.1, 0.5, 0.9].map((p) => midpointQuantile(sorted, p));
 	const crossingProbability = side ? figures.filter((f) => f.crossesBoundary).length / nr : null;
-	return { realizations: figures, largestExtent: { p10, p50, p90 }, crossingProbability, probabilityMap };
+	return { realizations: figures, largestExtent: largestExtentQuantiles(figures), crossingProbability, probabilityMap };
+}
+
+/**
+ * P10, P50 and P90 of the realizations' largest extents at the midpoint plotting positions (midpointQuantile, as
+ * the ensemble maps), from the per-realization figures alone (what the weak-zones endpoint returns).
+ * @throws {RangeError} with no realizations
+ */
+export function largestExtentQuantiles(realizations: ReadonlyArray<Pick<RealizationWeakZones, 'largestExtent'>>): { p10: number; p50: number; p90: number } {
+	if (realizations.length === 0) throw new RangeError('no realizations');
+	const sorted = Float64Array.from(realizations, (f) => f.largestExtent).sort();
+	const [p10, p50, p90] = [0.1, 0.5, 0.9].map((p) => midpointQuantile(sorted, p));
+	return { p10, p50, p90 };
 }

@@ -15,9 +15,9 @@ import {
 /** The capability table of the README and roles.ts, written out by hand: role → what it may do. */
 const TABLE: Record<ProjectRole, Capability[]> = {
 	viewer: ['read', 'download'],
-	reviewer: ['read', 'download', 'comment', 'approve'],
-	analyst: ['read', 'download', 'comment', 'approve', 'editData', 'editModels', 'editRecipes'],
-	owner: ['read', 'download', 'comment', 'approve', 'editData', 'editModels', 'editRecipes', 'editProject', 'manageMembers', 'deleteProject']
+	reviewer: ['read', 'download', 'comment', 'approve', 'readAudit'],
+	analyst: ['read', 'download', 'comment', 'approve', 'readAudit', 'editData', 'editModels', 'editRecipes'],
+	owner: ['read', 'download', 'comment', 'approve', 'readAudit', 'editData', 'editModels', 'editRecipes', 'editProject', 'manageMembers', 'deleteProject']
 };
 
 describe('project roles', () => {

@@ -8,7 +8,7 @@ export { PROJECT_ROLES, type ProjectRole };
  * | role     | may                                              |
  * |----------|--------------------------------------------------|
  * | viewer   | read, download                                   |
- * | reviewer | + comment, approve                               |
+ * | reviewer | + comment, approve, read the audit log           |
  * | analyst  | + edit data, models and recipes                  |
  * | owner    | + edit project settings, manage members, delete  |
  */
@@ -17,6 +17,7 @@ export const CAPABILITIES = {
 	download: 'viewer',
 	comment: 'reviewer',
 	approve: 'reviewer',
+	readAudit: 'reviewer',
 	editData: 'analyst',
 	editModels: 'analyst',
 	editRecipes: 'analyst',

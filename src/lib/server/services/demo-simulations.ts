@@ -21,6 +21,7 @@ export function seedDemoRecipes(db: DbOrTx, projectId: string, userId: string): 
 				projectId,
 				userId,
 				{
+					kind: 'sgs',
 					name: `${z.name}, ${DEMO_REALIZATIONS} realizations`,
 					zonationId: z.id,
 					seed: DEMO_SEED,
