@@ -13,7 +13,7 @@ import { listVariograms, saveVariogram } from '../../../src/lib/server/services/
 import { createZonation, listZonations, updateDomain, type ZonationView } from '../../../src/lib/server/services/zonations';
 import { stopRealizations } from '../../../src/lib/server/realizations';
 import { recipeSetupSchema, type RecipeSetupInput } from '../../../src/lib/schemas/recipe';
-import { canonicalJson, regenerate, sha256 } from '../../../src/lib/geostat/index';
+import { canonicalJson, regenerate, sha256, type SgsRecipe } from '../../../src/lib/geostat/index';
 import { ensembleMap } from '../../../src/lib/ensemble/index';
 import { listUnits } from '../../../src/lib/server/services/stratigraphy';
 import { expectSameBits } from '../../asserts';
@@ -90,7 +90,7 @@ describe('createRecipe(projectId, userId, setup) — identity', () => {
 		const hashes = variants.map((v) => createRecipe(projectId, userId, v, db).recipe.hash);
 		expect(new Set([base, ...hashes]).size).toBe(6);
 		const path = createRecipe(projectId, userId, variants[4], db).recipe;
-		const doc = loadRecipe(projectId, path.id, db).recipe;
+		const doc = loadRecipe(projectId, path.id, db).recipe as SgsRecipe;
 		expect(doc.input.domains.map((d) => d.search.path)).toEqual(['multigrid', undefined, undefined, undefined, undefined]);
 	});
 
@@ -163,7 +163,7 @@ describe('createRecipe(projectId, userId, setup) — identity', () => {
 		const p = recipe.provenance.domains.find((d) => d.domainId === dense.id)!;
 		expect(p.trend).not.toBeNull();
 		expect(p.trend!.gradient.z).not.toBe(0);
-		const doc = loadRecipe(projectId, recipe.id, db).recipe;
+		const doc = loadRecipe(projectId, recipe.id, db).recipe as SgsRecipe;
 		expect(doc.input.domains[p.index!].trend).toEqual(p.trend);
 		expect(doc.input.domains.filter((d) => d.trend).length).toBe(1);
 		// The tails default to the residuals' extremes, which straddle 0.
