@@ -30,6 +30,12 @@ export type {
 	RecipeView,
 	RecipeProvenance,
 	ProvenanceDomain,
+	ApprovalView,
+	RecipeNoteView,
+	Notified,
+	AuditEntryView,
+	AuditPage,
 	RealizationJson,
-	SummaryJson
+	SummaryJson,
+	WeakZonesJson
 } from './views';

@@ -66,7 +66,9 @@ beforeAll(async () => {
 		recipeSetupSchema.parse({ name: 'Weak', zonationId: grouped.id, seed: 'weak-1', realizations: 4, grid: coarse, domains: grouped.domains.map((d) => ({ domainId: d.id, simulate: true })) }),
 		db
 	).recipe.id;
-	({ hash, recipe: recipe as Recipe } = loadRecipe(projectId, recipeId, db));
+	const loaded = loadRecipe(projectId, recipeId, db);
+	hash = loaded.hash;
+	recipe = loaded.recipe as typeof recipe;
 	boundaryId = listZoneBoundaries(projectId, db)[0].id;
 }, 120_000);
 afterAll(() => stopRealizations());
@@ -123,8 +125,8 @@ describe('recipeWeakZonesOf(projectId, recipeId, query)', () => {
 	});
 
 	it('refuses a property the recipe does not simulate and a boundary not in the project (422); a recipe of another project is a 404', async () => {
-		await expect(recipeWeakZonesOf(projectId, recipeId, { property: 'CRR', threshold: 0.2, minLength: 0, boundary: null }, db)).rejects.toThrow(InvalidInput);
-		await expect(recipeWeakZonesOf(projectId, recipeId, { property: 'CRR', threshold: 0.2, minLength: 0, boundary: null }, db)).rejects.toThrow(/does not simulate CRR/);
+		await expect(recipeWeakZonesOf(projectId, recipeId, { property: 'Dr', threshold: 0.2, minLength: 0, boundary: null }, db)).rejects.toThrow(InvalidInput);
+		await expect(recipeWeakZonesOf(projectId, recipeId, { property: 'Dr', threshold: 0.2, minLength: 0, boundary: null }, db)).rejects.toThrow(/does not simulate Dr/);
 		await expect(recipeWeakZonesOf(projectId, recipeId, { property: 'qc1Ncs', threshold: 100, minLength: 0, boundary: 'nope' }, db)).rejects.toThrow('That zone boundary is not in this project.');
 		await expect(recipeWeakZonesOf(crypto.randomUUID(), recipeId, { property: 'qc1Ncs', threshold: 100, minLength: 0, boundary: null }, db)).rejects.toMatchObject({ status: 404 });
 	});

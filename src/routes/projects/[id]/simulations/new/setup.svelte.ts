@@ -1,5 +1,6 @@
 import { RequestFailed, type ApiIssue, type ProjectApi, type RecipeView, type SectionView, type SiteView, type SoundingSummary, type VariogramView, type ZonationView } from '$lib/api';
-import { DEFAULT_SEARCH, MAX_CELLS, type RecipeSetupInput } from '$lib/schemas/recipe';
+import { DEFAULT_PERCENTILES, DEFAULT_SEARCH, MAX_CELLS, type RecipeSetupInput } from '$lib/schemas/recipe';
+import { uniformValues } from '$lib/geostat';
 import { cellsPerDomain, gridDefinition, gridDomains, gridStratigraphy, polylineLength, type GridSpec, type GridStratigraphy } from '$lib/site';
 
 /** One domain's row of the form; numbers as typed (empty: the default). */
@@ -25,6 +26,19 @@ export interface DomainRow {
 	dataMin: number | null;
 	dataMax: number | null;
 	samples: number;
+	/** The conditioning data and their declustering weights (for a uniform recipe's values). */
+	data: { values: number[]; weights: number[] };
+}
+
+/** What a recipe makes: N conditional realizations (SGS), or uniform fields at percentiles of each domain's data. */
+export type SetupKind = 'sgs' | 'uniform';
+
+/** Percentiles as typed ("33, 50, 67"): the numbers, or null when one is not a number. */
+export function parsePercentiles(text: string): number[] | null {
+	const parts = text.split(/[\s,;]+/).filter((t) => t !== '');
+	if (parts.length === 0) return null;
+	const ps = parts.map(Number);
+	return ps.every((p) => Number.isFinite(p)) ? ps : null;
 }
 
 /** The grid as typed: from, to and cell size per axis. */
@@ -59,6 +73,9 @@ function niceCell(span: number, n: number): number {
  * recipe will hold. Create sends the setup to the API; the same inputs as an existing recipe open that one.
  */
 export class RecipeSetupForm {
+	kind = $state<SetupKind>('sgs');
+	/** A uniform recipe's percentiles as typed. */
+	percentiles = $state(DEFAULT_PERCENTILES.join(', '));
 	name = $state('');
 	zonationId = $state('');
 	seed = $state(freshSeed());
@@ -89,6 +106,29 @@ export class RecipeSetupForm {
 	) {}
 
 	readonly geometry = $derived(this.site?.geometry ?? '2d');
+	/** The percentiles typed, when they are numbers strictly between 0 and 100. */
+	readonly percentileList = $derived.by(() => {
+		const ps = parsePercentiles(this.percentiles);
+		return ps && ps.every((p) => p > 0 && p < 100) ? ps : null;
+	});
+
+	/** A domain's value at each percentile typed (the engine's uniformValues, as the server will resolve it), or null. */
+	uniformOf(row: DomainRow): number[] | null {
+		if (!this.percentileList || row.data.values.length === 0) return null;
+		return uniformValues(row.data.values, row.data.weights, this.percentileList);
+	}
+
+	/** Switches the kind: domains are included by default when they have data (and, for SGS, a saved variogram). */
+	setKind(kind: SetupKind): void {
+		this.kind = kind;
+		for (const r of this.rows) r.simulate = r.samples > 0 && (kind === 'uniform' || r.variograms.length > 0);
+		const z = this.zonation;
+		if (z && (!this.name || /(, \d+ realizations|, uniform P[\d., P]+)$/.test(this.name))) this.name = this.defaultName(z.name);
+	}
+
+	private defaultName(zonation: string): string {
+		return this.kind === 'uniform' ? `${zonation}, uniform P${(this.percentileList ?? DEFAULT_PERCENTILES).join(', P')}` : `${zonation}, ${this.realizations} realizations`;
+	}
 	readonly zonation = $derived(this.zonations.find((z) => z.id === this.zonationId) ?? null);
 
 	/** The grid spec as typed, or null while a number is missing or not a number. */
@@ -183,7 +223,7 @@ export class RecipeSetupForm {
 		this.zonationId = id;
 		const z = this.zonations.find((zz) => zz.id === id);
 		if (!z) return;
-		if (!this.name) this.name = `${z.name}, ${this.realizations} realizations`;
+		if (!this.name) this.name = this.defaultName(z.name);
 		const rows = await Promise.all(
 			z.domains.map(async (d): Promise<DomainRow> => {
 				const [variograms, samples] = await Promise.all([this.api.variograms(d.id), this.api.domainSamples(d.id)]);
@@ -192,7 +232,7 @@ export class RecipeSetupForm {
 					domainId: d.id,
 					name: d.name,
 					property: d.property,
-					simulate: variograms.length > 0 && values.length > 0,
+					simulate: values.length > 0 && (this.kind === 'uniform' || variograms.length > 0),
 					variogramId: '',
 					kriging: 'simple',
 					maxData: String(DEFAULT_SEARCH.maxData),
@@ -207,7 +247,8 @@ export class RecipeSetupForm {
 					variograms,
 					dataMin: values.length ? Math.min(...values) : null,
 					dataMax: values.length ? Math.max(...values) : null,
-					samples: values.length
+					samples: values.length,
+					data: { values, weights: samples.weights }
 				};
 			})
 		);
@@ -219,8 +260,12 @@ export class RecipeSetupForm {
 	prefill(base: RecipeView): void {
 		const s = base.setup;
 		this.name = `${base.name} (changed)`;
-		this.seed = s.seed;
-		this.realizations = String(s.realizations);
+		this.kind = s.kind ?? 'sgs';
+		if (s.kind === 'uniform') this.percentiles = s.percentiles.join(', ');
+		else {
+			this.seed = s.seed;
+			this.realizations = String(s.realizations);
+		}
 		const text = (a: { from: number; to: number; cell: number }) => ({ from: String(a.from), to: String(a.to), cell: String(a.cell) });
 		if (s.grid.geometry === '2d') this.grid.chainage = text(s.grid.chainage);
 		else {
@@ -229,10 +274,11 @@ export class RecipeSetupForm {
 		}
 		this.grid.elevation = text(s.grid.elevation);
 		for (const row of this.rows) {
-			const d = s.domains.find((x) => x.domainId === row.domainId);
-			if (!d) continue;
-			row.simulate = d.simulate;
-			if (!d.simulate) continue;
+			const found = s.domains.find((x) => x.domainId === row.domainId);
+			if (!found) continue;
+			row.simulate = found.simulate;
+			if (s.kind === 'uniform' || !found.simulate) continue;
+			const d = found as Extract<(typeof s.domains)[number], { simulate: true; variogramId: string | null }>;
 			row.variogramId = d.variogramId ?? '';
 			row.kriging = d.kriging;
 			row.maxData = String(d.search.maxData);
@@ -251,15 +297,27 @@ export class RecipeSetupForm {
 	body(): RecipeSetupInput {
 		const n = (t: string) => num(t) ?? NaN;
 		const axis = (a: { from: string; to: string; cell: string }) => ({ from: n(a.from), to: n(a.to), cell: n(a.cell) });
+		const grid =
+			this.geometry === '2d'
+				? ({ geometry: '2d', chainage: axis(this.grid.chainage), elevation: axis(this.grid.elevation) } as const)
+				: ({ geometry: '3d', x: axis(this.grid.x), y: axis(this.grid.y), elevation: axis(this.grid.elevation) } as const);
+		if (this.kind === 'uniform') {
+			return {
+				kind: 'uniform',
+				name: this.name,
+				zonationId: this.zonationId,
+				percentiles: parsePercentiles(this.percentiles) ?? [NaN],
+				grid,
+				domains: this.rows.map((r) => ({ domainId: r.domainId, simulate: r.simulate }))
+			};
+		}
 		return {
+			kind: 'sgs',
 			name: this.name,
 			zonationId: this.zonationId,
 			seed: this.seed,
 			realizations: n(this.realizations),
-			grid:
-				this.geometry === '2d'
-					? { geometry: '2d', chainage: axis(this.grid.chainage), elevation: axis(this.grid.elevation) }
-					: { geometry: '3d', x: axis(this.grid.x), y: axis(this.grid.y), elevation: axis(this.grid.elevation) },
+			grid,
 			domains: this.rows.map((r) =>
 				r.simulate
 					? {
