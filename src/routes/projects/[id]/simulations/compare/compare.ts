@@ -31,7 +31,7 @@ export function gridRefusal(recipes: Named[], unit: string): string | null {
 	}
 	const other = rest.find((r) => key(r.recipe) !== key(first.recipe));
 	if (!other) return null;
-	return `${first.name} is on a grid of ${gridText(first.recipe, unit)}; ${other.name} on ${gridText(other.recipe, unit)}. Recipes compared cell by cell must share a grid: make one again on the other's grid (“Change as a new recipe”).`;
+	return `${first.name} is on a grid of ${gridText(first.recipe, unit)}; ${other.name} on ${gridText(other.recipe, unit)}. Recipes compared cell by cell must share a grid: make one again on the other’s grid (“Change as a new recipe”).`;
 }
 
 /**
