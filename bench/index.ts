@@ -16,7 +16,8 @@ const MODULES: (() => Promise<{ default: BenchCase[] }>)[] = [
 	() => import('./contacts'),
 	() => import('./import-latency'),
 	() => import('./demo-run'),
-	() => import('./browser-run')
+	() => import('./browser-run'),
+	() => import('./exports')
 ];
 
 const only = process.argv[2];

@@ -8,6 +8,8 @@ import { closeMail, getTransport } from '$lib/server/mail';
 import { settleBackground } from '$lib/server/background';
 import { seedDemo } from '$lib/server/services/demo';
 import { stopRealizations } from '$lib/server/realizations';
+import { resumeExports, stopExports } from '$lib/server/services/export-jobs';
+import { stopMeshWorker } from '$lib/server/services/mesh-thread';
 import { ensureInitialAdmin, findUser } from '$lib/server/services/users';
 import { initialAdminEmail, seedDemoEnabled } from '$lib/server/config';
 import { crossSiteRefusal, refuseUnread } from '$lib/server/csrf';
@@ -30,11 +32,13 @@ export const init: ServerInit = async () => {
 	}
 	const adminEmail = initialAdminEmail();
 	if (adminEmail) await ensureInitialAdmin(adminEmail, process.env.ORIGIN ?? `http://localhost:${process.env.PORT ?? 3000}`);
+	resumeExports(db);
 	// adapter-node emits this after closing the HTTP server; the SMTP sink and the realization workers would
 	// otherwise keep the process alive.
 	process.once('sveltekit:shutdown' as 'beforeExit', () => {
 		void settleBackground()
-			.then(() => Promise.all([closeMail(), stopRealizations()]))
+			.then(() => stopExports())
+			.then(() => Promise.all([closeMail(), stopRealizations(), stopMeshWorker()]))
 			.then(() => db.$client.close());
 	});
 };

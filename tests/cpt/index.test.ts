@@ -33,6 +33,8 @@ describe('src/lib/cpt/index.ts', () => {
 				'formatDelimited',
 				'formatGef',
 				'lengthUnitFactor',
+				'lookUp',
+				'lookupTableProblem',
 				'parseAgs4',
 				'parseAgs4Geology',
 				'parseDelimited',
@@ -42,7 +44,8 @@ describe('src/lib/cpt/index.ts', () => {
 				'relativeDensityIB2008',
 				'robertson2009',
 				'stressUnitFactor',
-				'undrainedStrength'
+				'undrainedStrength',
+				'verticalStressAt'
 			].sort()
 		);
 	});

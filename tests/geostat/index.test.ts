@@ -54,6 +54,7 @@ const TOPICS: Record<string, string[]> = {
 		'simulationInputSchema',
 		'gridTargetsSchema',
 		'pointTargetsSchema',
+		'rectilinearTargetsSchema',
 		'targetDefinitionSchema',
 		'recipeSchema',
 		'sgsRecipeSchema',

@@ -2,7 +2,8 @@
  * The per-project audit log over HTTP against the built server: who may read it (CAPABILITIES.readAudit: the
  * project's reviewers and owners; analysts and viewers are refused, as are outsiders), changes made over the API
  * appearing with who made them, the filters by kind and person, paging, the CSV download with the same filters
- * (parsed with csv-parse, with text a spreadsheet would run as a formula defused) and malformed queries.
+ * (parsed with csv-parse, with text a spreadsheet would run as a formula defused), malformed queries, and every
+ * export download (realization CSV/VTK, maps, ZIP, an export job's file) recorded with who took which file.
  */
 import { parse } from 'csv-parse/sync';
 import { beforeAll, describe, expect, inject, it } from 'vitest';
@@ -180,3 +181,76 @@ describe('entries, filters and the CSV', () => {
 		expect((await session.owner.fetch(`${log}.csv?kind=nope`)).status).toBe(422);
 	});
 });
+
+describe('export downloads are recorded (kind export, action downloaded)', () => {
+	let recipe: { id: string; name: string; hash: string };
+	let rbase: string;
+
+	beforeAll(async () => {
+		const { zonations } = await (await session.viewer.json('GET', `/api/v1/projects/${projectId}/zonations`)).json();
+		const zonation = zonations.find((z: { name: string }) => z.name === 'Sand split at channel');
+		const made = await session.analyst.json('POST', `/api/v1/projects/${projectId}/recipes`, {
+			name: `Audit downloads ${crypto.randomUUID().slice(0, 6)}`,
+			zonationId: zonation.id,
+			seed: 'audit-downloads',
+			realizations: 2,
+			grid: { geometry: '2d', chainage: { from: 0, to: 400, cell: 20 }, elevation: { from: -12, to: 5, cell: 1 } },
+			domains: zonation.domains.map((d: { id: string }) => ({ domainId: d.id, simulate: true }))
+		});
+		recipe = (await made.json()).recipe;
+		rbase = `/api/v1/projects/${projectId}/recipes/${recipe.id}`;
+	}, 120_000);
+
+	async function downloadsOf(role: ProjectRole): Promise<Entry[]> {
+		return (await entries(`?kind=export&user=${userIds[role]}&limit=1000`)).entries.filter((e) => e.subjectId === recipe.id);
+	}
+
+	it('each download a viewer makes is one entry naming the viewer, the recipe, the file and the hash; a refused one none', async () => {
+		const files: [string, RegExp][] = [
+			[`${rbase}/realizations/1.csv`, /_r1\.csv$/],
+			[`${rbase}/realizations/0.vtk`, /_r0\.vtk$/],
+			[`${rbase}/maps.csv?stats=mean,sd`, /_maps\.csv$/],
+			[`${rbase}/maps.vtk`, /_maps\.vtk$/],
+			[`${rbase}/export.zip?realizations=0-1&format=csv`, /\.zip$/]
+		];
+		for (const [url] of files) {
+			const res = await session.viewer.fetch(url);
+			expect(res.status, url).toBe(200);
+			await res.arrayBuffer();
+		}
+		expect((await session.viewer.fetch(`${rbase}/realizations/7.csv`)).status).toBe(404);
+		expect((await session.viewer.fetch(`${rbase}/maps.csv?stats=below`)).status).toBe(422);
+		const got = await downloadsOf('viewer');
+		expect(got).toHaveLength(files.length);
+		// Newest first: the entries are the downloads in reverse order.
+		got.reverse().forEach((e, k) => {
+			expect([e.kind, e.action, e.subject, e.user?.id]).toEqual(['export', 'downloaded', recipe.name, userIds.viewer]);
+			expect(e.detail.split('; ')[0], files[k][0]).toMatch(files[k][1]);
+			expect(e.detail).toContain(`SHA-256 ${recipe.hash}`);
+		});
+	});
+
+	it('the download of an export job’s file is recorded too, by whoever takes it', async () => {
+		const started = await session.owner.json('POST', `/api/v1/projects/${projectId}/exports`, { recipeId: recipe.id, realizations: '0-1', format: 'csv' });
+		expect(started.status).toBe(202);
+		let job = (await started.json()).export;
+		for (let i = 0; i < 300 && job.status !== 'done'; i++) {
+			await new Promise((r) => setTimeout(r, 100));
+			job = (await (await session.owner.json('GET', `/api/v1/projects/${projectId}/exports/${job.id}`)).json()).export;
+		}
+		expect(job.status).toBe('done');
+		const before = (await downloadsOf('reviewer')).length;
+		const file = await session.reviewer.fetch(`/api/v1/projects/${projectId}/exports/${job.id}/download`);
+		expect(file.status).toBe(200);
+		await file.arrayBuffer();
+		const got = await downloadsOf('reviewer');
+		expect(got).toHaveLength(before + 1);
+		expect(got[0].detail).toBe(`${job.fileName}; SHA-256 ${recipe.hash}`);
+	}, 120_000);
+
+	it('the CSV lists them under Exports', async () => {
+		const rows = await csvRows(session.owner, `?kind=export&user=${userIds.viewer}`);
+		expect(rows.slice(1).filter((r) => r[4] === recipe.name).map((r) => [r[2], r[3]])).toEqual(new Array(5).fill(['Exports', 'downloaded']));
+	});
+});
+

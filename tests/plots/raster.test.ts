@@ -14,6 +14,15 @@ describe('rasters of a grid', () => {
 		expect(r.y).toEqual({ from: -1, step: 0.5 });
 	});
 
+	it('sectionRaster of variable cell heights: rows of the smallest height, each showing the cell that holds it', () => {
+		// Two columns; cells 1 m tall from −3 to −1, then 0.5 m tall to 0 (centres −2.5, −1.5, −0.75, −0.25).
+		const g = { origin: { x: 1, y: 0, z: -2.5 }, spacing: { x: 2, y: 1, z: 0.5 }, counts: { x: 2, y: 1, z: 4 }, z: [-2.5, -1.5, -0.75, -0.25], zEdges: [-3, -2, -1, -0.5, 0] };
+		const r = sectionRaster(g);
+		expect([r.cols, r.rows, r.y.from, r.y.step]).toEqual([2, 6, -3, 0.5]);
+		// Rows from the top: cell rows 3, 2, 1, 1, 0, 0 (the 1 m cells span two rows each).
+		expect(Array.from(r.cell.filter((_, p) => p % 2 === 0))).toEqual([6, 4, 2, 2, 0, 0]);
+	});
+
 	it('planRaster at elevation row k shows that layer, the northernmost row first', () => {
 		const r = planRaster(grid, 1);
 		expect([r.cols, r.rows]).toEqual([4, 3]);

@@ -37,5 +37,11 @@ export type {
 	AuditPage,
 	RealizationJson,
 	SummaryJson,
-	WeakZonesJson
+	WeakZonesJson,
+	MeshView,
+	MeshPreview,
+	TransferTableView,
+	TransferSetView,
+	ResolvedTransferSet,
+	ExportJobView
 } from './views';

@@ -13,11 +13,12 @@ import type {
 } from '$lib/schemas/stratigraphy';
 import type { variogramSaveSchema } from '$lib/schemas/variogram';
 import type { recipeSetupSchema } from '$lib/schemas/recipe';
+import type { exportJobSchema, meshUploadOptionsSchema, transferSetSaveSchema, transferTableSaveSchema } from '$lib/schemas/exports';
 import type { EnsembleStat } from '$lib/ensemble';
 import type { Recipe } from '$lib/geostat';
 
 type In<S extends z.ZodType> = z.input<S>;
-import { getJson, send } from './http';
+import { getJson, send, sendForm } from './http';
 import type {
 	CommentView,
 	ContactView,
@@ -26,6 +27,12 @@ import type {
 	Notified,
 	RealizationJson,
 	RecipeNoteView,
+	ExportJobView,
+	MeshPreview,
+	MeshView,
+	ResolvedTransferSet,
+	TransferSetView,
+	TransferTableView,
 	RecipeSummaryView,
 	RecipeView,
 	WeakZonesJson,
@@ -121,6 +128,42 @@ export function projectApi(projectId: string) {
 
 		audit: (q: { kind?: string | null; user?: string | null; before?: number | null } = {}) => getJson<AuditPage>(`${at('audit')}?${auditParams(q)}`),
 
+		meshes: async () => (await getJson<{ meshes: MeshView[] }>(at('meshes'))).meshes,
+		/** The mapping step of a mesh upload: header, first rows and a guessed mapping. */
+		previewMesh: (file: File) => {
+			const body = new FormData();
+			body.append('file', file);
+			return sendForm<{ file: string; preview: MeshPreview }>(at('meshes', 'preview'), body);
+		},
+		uploadMesh: async (file: File, options: In<typeof meshUploadOptionsSchema>) => {
+			const body = new FormData();
+			body.append('file', file);
+			body.append('options', JSON.stringify(options));
+			return (await sendForm<{ mesh: MeshView }>(at('meshes'), body)).mesh;
+		},
+		deleteMesh: (meshId: string) => send<void>('DELETE', at('meshes', meshId)),
+
+		transferTables: async () => (await getJson<{ tables: TransferTableView[] }>(at('transfer-tables'))).tables,
+		saveTransferTable: async (input: In<typeof transferTableSaveSchema>) => (await send<{ table: TransferTableView }>('POST', at('transfer-tables'), input)).table,
+		transferSets: async () => (await getJson<{ sets: TransferSetView[] }>(at('transfer-sets'))).sets,
+		transferSet: async (setId: string) => (await getJson<{ set: ResolvedTransferSet }>(at('transfer-sets', setId))).set,
+		saveTransferSet: async (input: In<typeof transferSetSaveSchema>) => (await send<{ set: ResolvedTransferSet }>('POST', at('transfer-sets'), input)).set,
+
+		exports: async () => (await getJson<{ exports: ExportJobView[] }>(at('exports'))).exports,
+		exportJob: async (exportId: string) => (await getJson<{ export: ExportJobView }>(at('exports', exportId))).export,
+		startExport: async (input: In<typeof exportJobSchema>) => (await send<{ export: ExportJobView }>('POST', at('exports'), input)).export,
+		/** Cancels a job that runs, or deletes a finished one and its file. */
+		deleteExport: (exportId: string) => send<void>('DELETE', at('exports', exportId)),
+
+		/** Addresses of the file downloads, for links (streamed by the server). */
+		files: {
+			realizationCsv: (recipeId: string, r: number, query = '') => `${at('recipes', recipeId, 'realizations', `${r}.csv`)}${query}`,
+			realizationVtk: (recipeId: string, r: number, query = '') => `${at('recipes', recipeId, 'realizations', `${r}.vtk`)}${query}`,
+			zip: (recipeId: string, query: string) => `${at('recipes', recipeId, 'export.zip')}${query}`,
+			mapsCsv: (recipeId: string, query = '') => `${at('recipes', recipeId, 'maps.csv')}${query}`,
+			mapsVtk: (recipeId: string, query = '') => `${at('recipes', recipeId, 'maps.vtk')}${query}`,
+			exportDownload: (exportId: string) => at('exports', exportId, 'download')
+		},
 		/** Addresses of the CSV downloads, for links. */
 		csv: {
 			audit: (q: { kind?: string | null; user?: string | null } = {}) => `${at('audit.csv')}?${auditParams(q)}`,

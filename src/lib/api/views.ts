@@ -14,6 +14,10 @@ export type { ImportResult, FileProblem } from '$lib/server/services/import';
 export type { VariogramView, CommentView, PersonView } from '$lib/server/services/variograms';
 export type { RecipeSummaryView, RecipeView, RecipeProvenance, ProvenanceDomain, ApprovalView, RecipeNoteView, Notified } from '$lib/server/services/recipes';
 export type { AuditEntryView } from '$lib/server/services/audit';
+export type { MeshView } from '$lib/server/services/meshes';
+export type { MeshPreview } from '$lib/mesh';
+export type { TransferTableView, TransferSetView, ResolvedTransferSet } from '$lib/server/services/transfers';
+export type { ExportJobView } from '$lib/server/services/export-jobs';
 
 /** GET …/recipes/:rid/realizations/:r as JSON: null where a target is not simulated. */
 export interface RealizationJson {

@@ -30,6 +30,10 @@ export type { Qc1NcsInput, Qc1NcsOptions, Qc1NcsResult } from './qc1NcsBI2014';
 export { crrBI2014 } from './crrBI2014';
 export { relativeDensityIB2008 } from './relativeDensityIB2008';
 export { undrainedStrength } from './undrainedStrength';
+export { verticalStressAt } from './verticalStressAt';
+export type { StressColumn, VerticalStress } from './verticalStressAt';
+export { lookUp, lookupTableProblem } from './lookupTable';
+export type { LookupTable, LookedUp, Monotonic } from './lookupTable';
 export { derive } from './derive';
 export type { DeriveOptions, DerivedSounding, UnitAtSounding } from './derive';
 

@@ -147,12 +147,19 @@ function dataCheck(
 	let coincident = 0;
 	let coincidentMaxError = 0;
 	const def = recipe.targets;
-	if (def.kind === 'grid') {
-		const { origin, spacing, counts } = def;
+	if (def.kind !== 'points') {
+		// The cell each datum falls in: by arithmetic on a regular grid, by the nearest listed centre on a rectilinear one.
+		const counts = def.kind === 'grid' ? def.counts : { x: def.x.length, y: def.y.length, z: def.z.length };
+		const cellOf =
+			def.kind === 'grid'
+				? (s: { x: number; y: number; z: number }) => [
+						Math.round((s.x - def.origin.x) / def.spacing.x),
+						Math.round((s.y - def.origin.y) / def.spacing.y),
+						Math.round((s.z - def.origin.z) / def.spacing.z)
+					]
+				: (s: { x: number; y: number; z: number }) => [nearest(def.x, s.x), nearest(def.y, s.y), nearest(def.z, s.z)];
 		for (const s of samples) {
-			const i = Math.round((s.x - origin.x) / spacing.x);
-			const j = Math.round((s.y - origin.y) / spacing.y);
-			const k = Math.round((s.z - origin.z) / spacing.z);
+			const [i, j, k] = cellOf(s);
 			if (i < 0 || j < 0 || k < 0 || i >= counts.x || j >= counts.y || k >= counts.z) continue;
 			const g = i + counts.x * (j + counts.y * k);
 			if (targets.domain[g] !== index) continue;
@@ -333,4 +340,18 @@ function correlation(a: number[], b: number[]): number {
 
 function fmt(v: number, digits = 3): string {
 	return Number.isFinite(v) ? String(Number(v.toPrecision(digits))) : '—';
+}
+
+/** Index of the centre nearest v in an ascending list, −1 beyond half a cell past either end. */
+function nearest(centres: number[], v: number): number {
+	let lo = 0;
+	let hi = centres.length - 1;
+	while (hi - lo > 1) {
+		const mid = (lo + hi) >> 1;
+		if (centres[mid] <= v) lo = mid;
+		else hi = mid;
+	}
+	const k = Math.abs(centres[hi] - v) < Math.abs(centres[lo] - v) ? hi : lo;
+	const half = centres.length > 1 ? Math.abs(centres[Math.min(k + 1, centres.length - 1)] - centres[Math.max(k - 1, 0)]) / (k === 0 || k === centres.length - 1 ? 1 : 2) : Infinity;
+	return Math.abs(centres[k] - v) <= half / 2 + 1e-9 || centres.length === 1 ? k : -1;
 }

@@ -68,6 +68,7 @@ export {
 	simulationInputSchema,
 	gridTargetsSchema,
 	pointTargetsSchema,
+	rectilinearTargetsSchema,
 	targetDefinitionSchema,
 	recipeSchema,
 	sgsRecipeSchema,

@@ -16,17 +16,44 @@ export interface Raster {
 	y: { from: number; step: number };
 }
 
+/**
+ * The rows of a raster along the elevation, from the top down: one per cell row, or with variable cell heights
+ * (grid.zEdges) rows of the smallest height (at most 2000), each showing the cell row that holds its centre.
+ */
+function elevationRows(grid: GridDefinition): { rows: number; k: Int32Array; from: number; step: number } {
+	const { origin, spacing, counts, zEdges } = grid;
+	if (!zEdges) {
+		const k = Int32Array.from({ length: counts.z }, (_, r) => counts.z - 1 - r);
+		return { rows: counts.z, k, from: origin.z - spacing.z / 2, step: spacing.z };
+	}
+	const bottom = zEdges[0];
+	const top = zEdges[zEdges.length - 1];
+	let smallest = Infinity;
+	for (let m = 1; m < zEdges.length; m++) smallest = Math.min(smallest, zEdges[m] - zEdges[m - 1]);
+	const rows = Math.min(2000, Math.max(counts.z, Math.round((top - bottom) / smallest)));
+	const step = (top - bottom) / rows;
+	const k = new Int32Array(rows);
+	let m = counts.z - 1;
+	for (let r = 0; r < rows; r++) {
+		const z = top - (r + 0.5) * step;
+		while (m > 0 && zEdges[m] > z) m--;
+		k[r] = m;
+	}
+	return { rows, k, from: bottom, step };
+}
+
 /** A 2D section grid (or one row of a 3D grid, j): columns along x, rows from the top elevation down. */
 export function sectionRaster(grid: GridDefinition, j = 0): Raster {
 	const { origin, spacing, counts } = grid;
 	const cols = counts.x;
-	const rows = counts.z;
+	const ez = elevationRows(grid);
+	const rows = ez.rows;
 	const cell = new Int32Array(cols * rows);
 	for (let r = 0; r < rows; r++) {
-		const k = rows - 1 - r;
+		const k = ez.k[r];
 		for (let i = 0; i < cols; i++) cell[r * cols + i] = i + counts.x * (j + counts.y * k);
 	}
-	return { cols, rows, cell, x: { from: origin.x - spacing.x / 2, step: spacing.x }, y: { from: origin.z - spacing.z / 2, step: spacing.z } };
+	return { cols, rows, cell, x: { from: origin.x - spacing.x / 2, step: spacing.x }, y: { from: ez.from, step: ez.step } };
 }
 
 /** A plan slice of a 3D grid at elevation row k: columns along x (east), rows from the north down. */
@@ -51,7 +78,8 @@ export function lineRaster(grid: GridDefinition, a: [number, number], b: [number
 	const { origin, spacing, counts } = grid;
 	const length = Math.sqrt((b[0] - a[0]) * (b[0] - a[0]) + (b[1] - a[1]) * (b[1] - a[1]));
 	const cols = Math.max(1, Math.round(length / step));
-	const rows = counts.z;
+	const ez = elevationRows(grid);
+	const rows = ez.rows;
 	const cell = new Int32Array(cols * rows).fill(-1);
 	for (let c = 0; c < cols; c++) {
 		const t = cols === 1 ? 0 : (c + 0.5) / cols;
@@ -60,9 +88,9 @@ export function lineRaster(grid: GridDefinition, a: [number, number], b: [number
 		const i = Math.round((px - origin.x) / spacing.x);
 		const j = Math.round((py - origin.y) / spacing.y);
 		if (i < 0 || j < 0 || i >= counts.x || j >= counts.y) continue;
-		for (let r = 0; r < rows; r++) cell[r * cols + c] = i + counts.x * (j + counts.y * (rows - 1 - r));
+		for (let r = 0; r < rows; r++) cell[r * cols + c] = i + counts.x * (j + counts.y * ez.k[r]);
 	}
-	return { cols, rows, cell, x: { from: 0, step: length / cols }, y: { from: origin.z - spacing.z / 2, step: spacing.z } };
+	return { cols, rows, cell, x: { from: 0, step: length / cols }, y: { from: ez.from, step: ez.step } };
 }
 
 /** A colour as [r, g, b] bytes. */

@@ -25,10 +25,67 @@ const axis = (label: string) =>
 		.object({ from: finite(`The ${label} start`), to: finite(`The ${label} end`), cell: positive(`The ${label} cell size`) })
 		.refine((a) => a.to > a.from, { error: `The ${label} end must be above its start.`, path: ['to'] });
 
-/** The target grid: chainage × elevation in 2D, a plan grid × elevation in 3D (project length unit). */
+/** Most elements of an uploaded mesh a recipe targets. */
+export const MAX_MESH_ELEMENTS = 2_000_000;
+
+/**
+ * Variable cell heights along the elevation axis: per unit (e.g. 0.25 m in a liquefiable unit, 1 m in the dense
+ * deposits below; each unit's band runs over the elevations it occupies along the grid), or as elevation bands.
+ * Elsewhere the axis's own `cell` applies; where bands overlap the finer height wins (elevationCells in $lib/site).
+ */
+export const cellHeightsSchema = z.union([
+	z
+		.object({
+			byUnit: z
+				.array(z.object({ unitId: z.string().min(1), cell: positive('A unit’s cell height') }).strict())
+				.min(1, { error: 'Give at least one unit a cell height.' })
+				.max(50)
+		})
+		.strict(),
+	z
+		.object({
+			bands: z
+				.array(
+					z
+						.object({ from: finite('A band’s bottom'), to: finite('A band’s top'), cell: positive('A band’s cell height') })
+						.strict()
+						.refine((b) => b.to > b.from, { error: 'A band’s top must be above its bottom.', path: ['to'] })
+				)
+				.min(1, { error: 'Give at least one band.' })
+				.max(100)
+		})
+		.strict()
+]);
+
+const elevationAxis = z
+	.object({ from: finite('The elevation start'), to: finite('The elevation end'), cell: positive('The elevation cell size'), heights: cellHeightsSchema.optional() })
+	.refine((a) => a.to > a.from, { error: 'The elevation end must be above its start.', path: ['to'] });
+
+/**
+ * The target grid: chainage × elevation in 2D, a plan grid × elevation in 3D (project length unit). Without
+ * `elevation.heights` it is the engine's regular grid; with them a rectilinear grid of variable cell heights.
+ */
 export const gridSpecSchema = z.discriminatedUnion('geometry', [
-	z.object({ geometry: z.literal('2d'), chainage: axis('chainage'), elevation: axis('elevation') }),
-	z.object({ geometry: z.literal('3d'), x: axis('easting'), y: axis('northing'), elevation: axis('elevation') })
+	z.object({ geometry: z.literal('2d'), chainage: axis('chainage'), elevation: elevationAxis }),
+	z.object({ geometry: z.literal('3d'), x: axis('easting'), y: axis('northing'), elevation: elevationAxis })
+]);
+
+/**
+ * An uploaded mesh as the targets: each element's domain read from the stratigraphy at its centroid, or from its
+ * group (each group mapped to a domain of the zonation, or null: not simulated).
+ */
+export const meshTargetSchema = z.union([
+	z.object({ meshId: z.string().min(1), assign: z.literal('stratigraphy') }).strict(),
+	z
+		.object({
+			meshId: z.string().min(1),
+			assign: z.literal('groups'),
+			groups: z
+				.array(z.object({ group: z.string().min(1), domainId: z.string().min(1).nullable() }).strict())
+				.min(1, { error: 'Map the mesh’s groups to domains.' })
+				.max(1000)
+		})
+		.strict()
 ]);
 
 const searchSchema = z.object({
@@ -91,10 +148,13 @@ export const sgsSetupSchema = z
 			.min(1, { error: 'Enter a seed.' })
 			.max(64, { error: 'Use at most 64 characters for the seed.' }),
 		realizations: count('The number of realizations', 1, MAX_REALIZATIONS),
-		grid: gridSpecSchema,
+		/** The targets: a grid over the site, or an uploaded mesh (exactly one of the two). */
+		grid: gridSpecSchema.optional(),
+		mesh: meshTargetSchema.optional(),
 		domains: z.array(domainSetupSchema).min(1, { error: 'Set up at least one domain.' }).max(200)
 	})
-	.strict();
+	.strict()
+	.refine((s) => (s.grid === undefined) !== (s.mesh === undefined), { error: 'Give either a grid or a mesh as the targets.', path: ['grid'] });
 
 /** Most percentiles of a uniform recipe (its realizations). */
 export const MAX_PERCENTILES = 50;
@@ -116,13 +176,16 @@ export const uniformSetupSchema = z
 			.max(MAX_PERCENTILES, { error: `Use at most ${MAX_PERCENTILES} percentiles.` })
 			.refine((ps) => new Set(ps).size === ps.length, { error: 'Give each percentile once.' })
 			.default(DEFAULT_PERCENTILES),
-		grid: gridSpecSchema,
+		/** The targets, as for sequential Gaussian simulation: a grid over the site, or an uploaded mesh. */
+		grid: gridSpecSchema.optional(),
+		mesh: meshTargetSchema.optional(),
 		domains: z
 			.array(z.object({ domainId: z.string().min(1), simulate: z.boolean() }).strict())
 			.min(1, { error: 'Set up at least one domain.' })
 			.max(200)
 	})
-	.strict();
+	.strict()
+	.refine((s) => (s.grid === undefined) !== (s.mesh === undefined), { error: 'Give either a grid or a mesh as the targets.', path: ['grid'] });
 
 /** A recipe's setup, by kind: sequential Gaussian simulation (the default) or uniform fields. */
 export const recipeSetupSchema = z.discriminatedUnion('kind', [sgsSetupSchema, uniformSetupSchema], { error: 'The kind is sgs or uniform.' });
@@ -133,6 +196,8 @@ export type SgsSetup = z.output<typeof sgsSetupSchema>;
 export type UniformSetup = z.output<typeof uniformSetupSchema>;
 export type DomainSetup = z.output<typeof domainSetupSchema>;
 export type SimulatedDomainSetup = Extract<DomainSetup, { simulate: true }>;
+export type GridSetup = z.output<typeof gridSpecSchema>;
+export type MeshTargetSetup = z.output<typeof meshTargetSchema>;
 
 /** GET …/summary?stat=…&threshold=…: the threshold is needed (and only read) for 'below'. */
 export const summaryQuerySchema = z

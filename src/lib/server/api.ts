@@ -56,6 +56,18 @@ export async function parseJson<S extends z.ZodType>(
 	return parsed.data;
 }
 
+/** Validates a value already read (upload options, a query): 422 with `message` and the issues when it does not match. */
+export function parseValue<S extends z.ZodType>(value: unknown, schema: S, message: string): z.output<S> {
+	const parsed = schema.safeParse(value);
+	if (!parsed.success) throw new ApiError(422, message, issuesOf(parsed.error));
+	return parsed.data;
+}
+
+/** Validates a request's query parameters (`?a=1&b=2` as an object of strings): 422 with the issues when they do not match. */
+export function parseQuery<S extends z.ZodType>(url: URL, schema: S, what = 'query'): z.output<S> {
+	return parseValue(Object.fromEntries(url.searchParams), schema, `The ${what} is not valid.`);
+}
+
 /**
  * Wraps a JSON endpoint so every refusal has the API's error shape: HttpErrors thrown by the
  * authorization helper, ServiceErrors from services, ApiErrors from parsing. Anything else is logged and answers 500.

@@ -15,3 +15,43 @@ export function csvResponse(chunks: Iterator<string>, filename: string): Respons
 		headers: { 'content-type': 'text/csv; charset=utf-8', 'content-disposition': `attachment; filename="${safe}"`, 'cache-control': 'no-store' }
 	});
 }
+
+/** A file name of letters, digits, dot, dash and underscore (others become dashes), never empty. */
+export function safeFileName(name: string, fallback = 'download'): string {
+	return name.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/-{2,}/g, '-').replace(/^-+|-+$/g, '') || fallback;
+}
+
+/**
+ * A streamed download of `chunks` under `filename`: each chunk is produced when the client is ready for it (the
+ * stream is pulled, so a slow reader holds the producer back), and a client that goes away cancels it: `abort`
+ * is aborted and the generator is closed, which stops the work behind it.
+ */
+export function streamResponse(
+	chunks: AsyncGenerator<Uint8Array | string>,
+	{ filename, contentType, abort, headers = {} }: { filename: string; contentType: string; abort: AbortController; headers?: Record<string, string> }
+): Response {
+	const encoder = new TextEncoder();
+	const body = new ReadableStream<Uint8Array>(
+		{
+			async pull(controller) {
+				try {
+					const next = await chunks.next();
+					if (next.done) controller.close();
+					else controller.enqueue(typeof next.value === 'string' ? encoder.encode(next.value) : next.value);
+				} catch (err) {
+					if (abort.signal.aborted) return;
+					console.error('[download]', err);
+					controller.error(err);
+				}
+			},
+			async cancel() {
+				abort.abort();
+				await chunks.return(undefined).catch(() => undefined);
+			}
+		},
+		{ highWaterMark: 1 }
+	);
+	return new Response(body, {
+		headers: { 'content-type': contentType, 'content-disposition': `attachment; filename="${safeFileName(filename)}"`, 'cache-control': 'no-store', ...headers }
+	});
+}

@@ -16,9 +16,10 @@ import { availableParallelism, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import type { Recipe } from '$lib/geostat';
+import { CancelledError } from '$lib/cancelled-error';
 import type { EnsembleStat, WeakZoneGrid, WeakZoneOptions, WeakZoneSummary } from '$lib/ensemble';
 import { createNodePool } from '$workers/node-pool';
-import type { RealizationPool } from '$workers/realization-pool';
+import type { RealizationPool, RunOptions } from '$workers/realization-pool';
 
 let pool: Promise<RealizationPool> | null = null;
 let queue: Promise<unknown> = Promise.resolve();
@@ -63,6 +64,91 @@ function enqueue<T>(job: () => Promise<T>): Promise<T> {
  */
 export function runRealizations(recipe: Recipe, realizations: number[], onEach?: (realization: number, values: Float64Array) => void): Promise<Map<number, Float64Array>> {
 	return enqueue(async () => (await thePool()).runRecipe(recipe, realizations, { onRealization: onEach }));
+}
+
+/**
+ * Realizations of a recipe streamed in the order asked, regenerated on the pool (as runRealizations, in the same
+ * queue): at most `ahead` realizations are made before the consumer has taken the ones before them, so memory
+ * holds a realization or two whatever the number asked, and a consumer that reads slowly holds the workers back
+ * (backpressure). Stopping early (return, throw, or `signal` aborting) cancels the run: its workers stop at once.
+ * `onProgress` reports the pool's progress (nodes simulated over all asked).
+ * @throws as runRealizations; CancelledError when `signal` aborts
+ */
+export async function* streamRealizations(
+	recipe: Recipe,
+	realizations: number[],
+	{ signal, ahead = 2, onProgress }: { signal?: AbortSignal; ahead?: number; onProgress?: (done: number, total: number) => void } = {}
+): AsyncGenerator<[number, Float64Array]> {
+	const position = new Map(realizations.map((r, k) => [r, k]));
+	const ready = new Map<number, Float64Array>();
+	let taken = 0;
+	let failure: unknown = null;
+	let finished = false;
+	let wake: (() => void) | null = null;
+	const changed = () => {
+		const w = wake;
+		wake = null;
+		w?.();
+	};
+	const waitForChange = () => new Promise<void>((resolve) => (wake = resolve));
+	// Admissions wait on their own list: several workers may wait at once.
+	const waiting: (() => void)[] = [];
+	const admitAll = () => {
+		for (const w of waiting.splice(0)) w();
+	};
+	const stop = new AbortController();
+	const onAbort = () => stop.abort();
+	signal?.addEventListener('abort', onAbort);
+	const run = runRealizationsWith(recipe, realizations, {
+		keep: false,
+		signal: stop.signal,
+		onProgress,
+		admit: async (r) => {
+			while (!stop.signal.aborted && position.get(r)! >= taken + ahead) await new Promise<void>((resolve) => waiting.push(resolve));
+		},
+		onRealization: (r, values) => {
+			ready.set(r, values);
+			changed();
+		}
+	}).then(
+		() => {
+			finished = true;
+			changed();
+		},
+		(err) => {
+			failure = err;
+			changed();
+		}
+	);
+	try {
+		for (const r of realizations) {
+			while (!ready.has(r)) {
+				if (failure) throw failure;
+				if (finished) throw stop.signal.aborted ? new CancelledError() : new Error(`realization ${r} did not arrive`);
+				await waitForChange();
+			}
+			const values = ready.get(r)!;
+			ready.delete(r);
+			taken++;
+			admitAll();
+			yield [r, values];
+		}
+	} finally {
+		signal?.removeEventListener('abort', onAbort);
+		if (!finished) {
+			stop.abort();
+			admitAll();
+		}
+		await run;
+	}
+}
+
+/** runRealizations with every option of the pool's run (admission, keeping, abort, progress). */
+function runRealizationsWith(recipe: Recipe, realizations: number[], opts: RunOptions): Promise<Map<number, Float64Array>> {
+	return enqueue(async () => {
+		if (opts.signal?.aborted) throw new CancelledError();
+		return (await thePool()).runRecipe(recipe, realizations, opts);
+	});
 }
 
 /** An ensemble map of realizations in realization order, computed on a worker of the pool. */

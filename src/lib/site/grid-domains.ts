@@ -16,11 +16,22 @@ export type GridSpec =
 	| { geometry: '2d'; chainage: GridAxis; elevation: GridAxis }
 	| { geometry: '3d'; x: GridAxis; y: GridAxis; elevation: GridAxis };
 
-/** A regular grid as the engine's recipe takes it: cell centres origin + index·spacing, x fastest, then y, then z. */
+/**
+ * A regular grid as the engine's recipe takes it: cell centres origin + index·spacing, x fastest, then y, then z.
+ * With variable cell heights (a rectilinear grid) `z` lists the centres and `zEdges` the cell edges along the
+ * elevation, ascending; origin.z and spacing.z then stand for the first centre and the smallest height.
+ */
 export interface GridDefinition {
 	origin: { x: number; y: number; z: number };
 	spacing: { x: number; y: number; z: number };
 	counts: { x: number; y: number; z: number };
+	z?: number[];
+	zEdges?: number[];
+}
+
+/** The elevation of a grid's cell row k: the listed centre of a rectilinear grid, else origin + k·spacing. */
+export function cellElevation(grid: GridDefinition, k: number): number {
+	return grid.z ? grid.z[k] : grid.origin.z + k * grid.spacing.z;
 }
 
 /** A sounding as the stratigraphy stands at it. */
@@ -74,31 +85,103 @@ export function gridDefinition(spec: GridSpec): GridDefinition {
 
 /**
  * The domain of every cell of a target grid (index into `domains`; −1: not simulated), in the engine's target
- * order, read from the stratigraphy as the section draws it:
- * - each unit's top and the ground surface are interpolated between the soundings — linearly along chainage
- *   in 2D (interpolateAlongChainage), linearly over the Delaunay triangles of the soundings in plan in 3D
- *   (triangulatedSurface) — at each column of cells, with coordinates computed as the engine computes its
- *   targets (origin + index·spacing);
- * - where a unit is absent at a sounding but a unit below it is present there, the unit pinches out at that
- *   sounding: its top is taken at the top of the next present unit below (zero thickness), so it thins out
- *   linearly towards that sounding instead of ending abruptly (common practice in drawing sections). A sounding
- *   with no unit present below an absent one (it stopped above it) does not constrain that unit;
- * - a cell takes the unit whose top is the nearest at or above its centre, as the CPT derivation assigns
- *   readings ($lib/cpt derive); its zone is zoneOf at its chainage and elevation; the zonation's members map
- *   (unit, zone) to a domain;
- * - a cell above the ground surface, above the first unit, in a unit or zone no domain takes, or (3D) in a
- *   zoned unit without a section line to count zones along, is not simulated (−1).
- * Soundings without a chainage (2D) or without easting/northing (3D) are left out and named in `warnings`.
- * Not mutating.
+ * order, read from the stratigraphy as the section draws it (see domainReader), at cell centres computed as the
+ * engine computes its targets (origin + index·spacing). Soundings without a chainage (2D) or without
+ * easting/northing (3D) are left out and named in `warnings`. Not mutating.
  * @throws {RangeError} as gridDefinition
  */
 export function gridDomains(strat: GridStratigraphy, domains: Member[][], spec: GridSpec): { grid: GridDefinition; domain: Int32Array; warnings: string[] } {
 	const grid = gridDefinition(spec);
 	const { origin, spacing, counts } = grid;
-	const domain = new Int32Array(counts.x * counts.y * counts.z).fill(-1);
+	const xs = Array.from({ length: counts.x }, (_, i) => origin.x + i * spacing.x);
+	const ys = Array.from({ length: counts.y }, (_, j) => origin.y + j * spacing.y);
+	const zs = Array.from({ length: counts.z }, (_, k) => origin.z + k * spacing.z);
+	const { domain, warnings } = axesDomains(strat, domains, spec.geometry, xs, ys, zs);
+	return { grid, domain, warnings };
+}
+
+/**
+ * The domain of every cell of a grid given by its cell centres per axis (ascending), x fastest, then y, then z,
+ * as gridDomains reads them (the rectilinear grids of variable cell heights). In 2D `ys` is [0]. Not mutating.
+ */
+export function axesDomains(
+	strat: GridStratigraphy,
+	domains: Member[][],
+	geometry: '2d' | '3d',
+	xs: ArrayLike<number>,
+	ys: ArrayLike<number>,
+	zs: ArrayLike<number>
+): { domain: Int32Array; warnings: string[] } {
+	const [nx, ny, nz] = [xs.length, ys.length, zs.length];
+	const domain = new Int32Array(nx * ny * nz).fill(-1);
+	const reader = domainReader(strat, domains, geometry);
+	for (let j = 0; j < ny; j++) {
+		for (let i = 0; i < nx; i++) {
+			const column = reader.column(xs[i], ys[j]);
+			if (!column) continue;
+			for (let k = 0; k < nz; k++) {
+				const z = zs[k];
+				if (z > column.ground) break;
+				domain[i + nx * (j + ny * k)] = column.domainAt(z);
+			}
+		}
+	}
+	return { domain, warnings: reader.warnings };
+}
+
+/**
+ * The domain of each point (x, y, z) as gridDomains reads a cell centre (an uploaded mesh's element centroids;
+ * in 2D x is the chainage and y is ignored). Not mutating.
+ */
+export function pointDomains(
+	strat: GridStratigraphy,
+	domains: Member[][],
+	geometry: '2d' | '3d',
+	points: { x: ArrayLike<number>; y: ArrayLike<number>; z: ArrayLike<number> }
+): { domain: Int32Array; warnings: string[] } {
+	const n = points.x.length;
+	const domain = new Int32Array(n).fill(-1);
+	const reader = domainReader(strat, domains, geometry);
+	for (let p = 0; p < n; p++) {
+		const column = reader.column(points.x[p], geometry === '2d' ? 0 : points.y[p]);
+		if (column && points.z[p] <= column.ground) domain[p] = column.domainAt(points.z[p]);
+	}
+	return { domain, warnings: reader.warnings };
+}
+
+/** The stratigraphy at one plan position: ground, each unit's top (NaN where absent) and the domain at an elevation. */
+export interface StratigraphyColumn {
+	ground: number;
+	/** Each unit's top here, in stacking order (NaN where the unit is absent), after pinching out. */
+	tops: Float64Array;
+	/** Domain index at elevation z (−1: not simulated); z above the ground is not checked. */
+	domainAt(z: number): number;
+}
+
+/**
+ * Reads the stratigraphy at any plan position, as the section draws it:
+ * - each unit's top and the ground surface are interpolated between the soundings — linearly along chainage
+ *   in 2D (interpolateAlongChainage), linearly over the Delaunay triangles of the soundings in plan in 3D
+ *   (triangulatedSurface);
+ * - where a unit is absent at a sounding but a unit below it is present there, the unit pinches out at that
+ *   sounding: its top is taken at the top of the next present unit below (zero thickness), so it thins out
+ *   linearly towards that sounding instead of ending abruptly (common practice in drawing sections). A sounding
+ *   with no unit present below an absent one (it stopped above it) does not constrain that unit;
+ * - a point takes the unit whose top is the nearest at or above it, as the CPT derivation assigns readings
+ *   ($lib/cpt derive); its zone is zoneOf at its chainage and elevation; the zonation's members map
+ *   (unit, zone) to a domain;
+ * - a point above the first unit, in a unit or zone no domain takes, or (3D) in a zoned unit without a section
+ *   line to count zones along, is not simulated (−1); `column` is null where there is no ground surface.
+ * `warnings` names soundings left out (no chainage in 2D, no easting/northing in 3D) and units without contacts.
+ */
+export function domainReader(
+	strat: GridStratigraphy,
+	domains: Member[][],
+	geometry: '2d' | '3d'
+): { warnings: string[]; column(x: number, y: number): StratigraphyColumn | null } {
 	const warnings: string[] = [];
 	const nu = strat.units.length;
-	const is2d = spec.geometry === '2d';
+	const is2d = geometry === '2d';
 	const stations = strat.stations.filter((s) => {
 		const placed = is2d ? s.chainage !== null && Number.isFinite(s.chainage) : s.x !== null && s.y !== null && Number.isFinite(s.x) && Number.isFinite(s.y);
 		if (!placed) warnings.push(`${s.name} has no ${is2d ? 'chainage' : 'easting/northing'} and does not shape the grid.`);
@@ -106,7 +189,7 @@ export function gridDomains(strat: GridStratigraphy, domains: Member[][], spec: 
 	});
 	if (stations.length === 0) {
 		warnings.push('No located sounding: no cell can be placed in a unit.');
-		return { grid, domain, warnings };
+		return { warnings, column: () => null };
 	}
 
 	const unitIndex = new Map(strat.units.map((u, k) => [u.id, k]));
@@ -153,47 +236,46 @@ export function gridDomains(strat: GridStratigraphy, domains: Member[][], spec: 
 
 	const zoned = strat.boundaries.map((b) => b.length > 0);
 	let warnedNoLine = false;
-	const tops = new Float64Array(nu);
-	const order: number[] = [];
-	for (let j = 0; j < counts.y; j++) {
-		const y = origin.y + j * spacing.y;
-		for (let i = 0; i < counts.x; i++) {
-			const x = origin.x + i * spacing.x;
+	return {
+		warnings,
+		column(x, y) {
 			const ground = surfaces[nu](x, y);
-			if (!Number.isFinite(ground)) continue;
+			if (!Number.isFinite(ground)) return null;
 			let chainage: number | null = is2d ? x : null;
 			if (!is2d && strat.sectionLine && strat.sectionLine.length >= 2) chainage = projectOntoPolyline(strat.sectionLine, x, y).chainage;
-			order.length = 0;
+			const tops = new Float64Array(nu);
+			const order: number[] = [];
 			for (let k = 0; k < nu; k++) {
 				tops[k] = surfaces[k](x, y);
 				if (Number.isFinite(tops[k])) order.push(k);
 			}
 			// Highest top first; equal tops keep the stacking order, so a unit of zero thickness takes no cell.
 			order.sort((a, b) => tops[b] - tops[a] || a - b);
-			for (let kz = 0; kz < counts.z; kz++) {
-				const z = origin.z + kz * spacing.z;
-				if (z > ground) break;
-				let unit = -1;
-				for (const k of order) {
-					if (tops[k] >= z) unit = k;
-					else break;
-				}
-				if (unit < 0) continue;
-				let d = whole[unit];
-				if (d < 0 && byZone[unit].size > 0) {
-					if (zoned[unit] && chainage === null) {
-						if (!warnedNoLine) warnings.push('Zoned units need a section line in 3D to count zones along; their cells are not simulated.');
-						warnedNoLine = true;
-						continue;
+			return {
+				ground,
+				tops,
+				domainAt(z) {
+					let unit = -1;
+					for (const k of order) {
+						if (tops[k] >= z) unit = k;
+						else break;
 					}
-					const zone = zoned[unit] ? zoneOf(strat.boundaries[unit], chainage!, z) : 0;
-					d = byZone[unit].get(zone) ?? -1;
+					if (unit < 0) return -1;
+					let d = whole[unit];
+					if (d < 0 && byZone[unit].size > 0) {
+						if (zoned[unit] && chainage === null) {
+							if (!warnedNoLine) warnings.push('Zoned units need a section line in 3D to count zones along; their cells are not simulated.');
+							warnedNoLine = true;
+							return -1;
+						}
+						const zone = zoned[unit] ? zoneOf(strat.boundaries[unit], chainage!, z) : 0;
+						d = byZone[unit].get(zone) ?? -1;
+					}
+					return d;
 				}
-				domain[i + counts.x * (j + counts.y * kz)] = d;
-			}
+			};
 		}
-	}
-	return { grid, domain, warnings };
+	};
 }
 
 /** Run-length encoding of domain indices in target order, as [domain, count] pairs (the recipe's domainRuns). */

@@ -43,7 +43,11 @@ export { domainStatistics } from './domain-statistics';
 export type { DomainStats } from './domain-statistics';
 
 // Target grids: the domain of each cell, read from the stratigraphy and a zonation.
-export { gridDomains, gridDefinition, axisCount, domainRuns, cellsPerDomain } from './grid-domains';
-export type { GridAxis, GridSpec, GridDefinition, GridStratigraphy, StratigraphyStation } from './grid-domains';
+export { gridDomains, cellElevation, axesDomains, pointDomains, domainReader, gridDefinition, axisCount, domainRuns, cellsPerDomain } from './grid-domains';
+export type { GridAxis, GridSpec, GridDefinition, GridStratigraphy, StratigraphyStation, StratigraphyColumn } from './grid-domains';
+export { elevationCells, unitHeightBands } from './elevation-cells';
+export { stressReader } from './element-stress';
+export type { GroundwaterStation } from './element-stress';
+export type { ElevationCells, HeightBand } from './elevation-cells';
 export { gridStratigraphy } from './grid-stratigraphy';
 export type { StratigraphyParts } from './grid-stratigraphy';

@@ -55,8 +55,8 @@ describe('recordAudit(tx, entry)', () => {
 	it('recordAudit names the person the work runs for (asActor), an explicit userId before it, and keeps their name if the account goes', () => {
 		asActor(ids.viewer, () => recordAudit(db, { projectId, kind: 'export', action: 'downloaded', subject: 'Test' }));
 		expect(newest().user).toEqual({ id: ids.viewer, name: 'Vera Viewer' });
-		asActor(ids.viewer, () => recordExportDownload(db, { projectId, subject: 'Split, CSV', userId: ids.reviewer }));
-		expect([newest().user?.name, newest().kind, newest().action]).toEqual(['Rui Reviewer', 'export', 'downloaded']);
+		asActor(ids.viewer, () => recordExportDownload({ projectId, recipe: { id: null, name: 'Split', hash: 'ab12' }, file: 'Split_r0.csv', userId: ids.reviewer }, db));
+		expect([newest().user?.name, newest().kind, newest().action, newest().subject, newest().detail]).toEqual(['Rui Reviewer', 'export', 'downloaded', 'Split', 'Split_r0.csv; SHA-256 ab12']);
 		recordAudit(db, { projectId, kind: 'export', action: 'downloaded', subject: 'Nobody' });
 		expect(newest().user).toBeNull();
 		const temp = db.insert(users).values({ email: 'temp@conefield.test', name: 'Tem Porary' }).returning().get();

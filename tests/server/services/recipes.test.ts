@@ -144,14 +144,14 @@ describe('createRecipe(projectId, userId, setup) — identity', () => {
 		const { recipe } = createRecipe(projectId, userId, setup({ name: 'Provenance' }), db);
 		const p = recipe.provenance;
 		expect(p.zonation).toEqual({ id: split.id, name: split.name });
-		expect(p.grid.counts).toEqual({ x: 40, y: 1, z: 17 });
+		expect(p.grid!.counts).toEqual({ x: 40, y: 1, z: 17 });
 		expect(p.domains.map((d) => d.name)).toEqual(split.domains.map((d) => d.name));
 		for (const d of p.domains) {
 			expect(d.variogram).toMatchObject({ name: d.name, version: expect.any(Number), transform: 'normal-score' });
 			expect(d.data?.rules).toMatchObject({ cellHeight: 0.2, averaging: 'mean' });
 			expect(d.cells).toBeGreaterThan(0);
 		}
-		expect(p.domains.reduce((a, d) => a + d.cells, 0)).toBe(p.grid.simulated);
+		expect(p.domains.reduce((a, d) => a + d.cells, 0)).toBe(p.grid!.simulated);
 		expect(getRecipe(projectId, recipe.id, db).createdBy?.name).toBe('Ana Analyst');
 	});
 
@@ -317,6 +317,28 @@ describe('uniform recipes (kind uniform)', () => {
 		await expect(recipeRealization(projectId, recipe.id, 3, db)).rejects.toMatchObject({ status: 404 });
 		const mean = await recipeSummary(projectId, recipe.id, 'mean', null, db);
 		expectSameBits(mean.values, ensembleMap([0, 1, 2].map((r) => regenerate(doc, r)), 'mean'));
+	});
+
+	it('on a grid of variable cell heights (rectilinear targets) each domain takes its percentile in every cell of it; a setup with neither grid nor mesh, or both, is refused', async () => {
+		const grid = { ...coarse, elevation: { ...coarse.elevation, heights: { bands: [{ from: -4, to: 0, cell: 0.25 }] } } };
+		const { recipe } = createRecipe(projectId, userId, uniform({ name: 'Baseline, fine band', grid }), db);
+		const doc = loadRecipe(projectId, recipe.id, db).recipe;
+		expect(doc.targets.kind).toBe('rectilinear');
+		expect(recipe.provenance.grid!.zEdges!.length).toBe(recipe.provenance.grid!.counts.z + 1);
+		const domainOf = expandRuns((doc.targets as { domainRuns: [number, number][] }).domainRuns);
+		for (let r = 0; r < 3; r++) {
+			const server = await recipeRealization(projectId, recipe.id, r, db);
+			expectSameBits(server.values, regenerate(doc, r), `realization ${r}`);
+			for (const p of recipe.provenance.domains) {
+				if (p.index === null) continue;
+				const cells = Array.from(domainOf).flatMap((d, i) => (d === p.index ? [server.values[i]] : []));
+				expect(cells.length, p.name).toBe(p.cells);
+				expect(new Set(cells), p.name).toEqual(new Set([p.values![r]]));
+			}
+		}
+		const { grid: _g, ...none } = uniform();
+		expect(recipeSetupSchema.safeParse(none).success).toBe(false);
+		expect(recipeSetupSchema.safeParse({ ...uniform(), mesh: { meshId: 'm', assign: 'stratigraphy' } }).success).toBe(false);
 	});
 
 	it('the same percentiles on the same grid are the same recipe; another order or percentile is another', () => {

@@ -84,6 +84,27 @@ export const gridTargetsSchema = z
 		path: ['domainRuns']
 	});
 
+const ascending = (v: number[]) => v.every((x, i) => i === 0 || x > v[i - 1]);
+
+/**
+ * A rectilinear grid: cell centres given per axis (strictly increasing lists), so cells may differ in size along
+ * each axis (e.g. 0.25 m tall in a liquefiable unit and 1 m tall below it). Targets (x[i], y[j], z[k]), x fastest,
+ * then y, then z, as a regular grid lists them. In 2D y is [0].
+ */
+export const rectilinearTargetsSchema = z
+	.object({
+		kind: z.literal('rectilinear'),
+		x: z.array(z.number()).min(1),
+		y: z.array(z.number()).min(1),
+		z: z.array(z.number()).min(1),
+		domainRuns
+	})
+	.refine((g) => ascending(g.x) && ascending(g.y) && ascending(g.z), { message: 'cell centres must increase along each axis' })
+	.refine((g) => g.domainRuns.reduce((s, r) => s + r[1], 0) === g.x.length * g.y.length * g.z.length, {
+		message: 'domain runs must cover the grid',
+		path: ['domainRuns']
+	});
+
 /** Explicit target points. */
 export const pointTargetsSchema = z
 	.object({
@@ -97,7 +118,7 @@ export const pointTargetsSchema = z
 		message: 'point columns must have equal lengths'
 	});
 
-export const targetDefinitionSchema = z.discriminatedUnion('kind', [gridTargetsSchema, pointTargetsSchema]);
+export const targetDefinitionSchema = z.discriminatedUnion('kind', [gridTargetsSchema, rectilinearTargetsSchema, pointTargetsSchema]);
 
 /**
  * How a recipe's realizations are made: sequential Gaussian simulation ('sgs'), or uniform fields ('uniform':
@@ -160,7 +181,7 @@ export const uniformRecipeSchema = z
 export const recipeSchema = z.union([sgsRecipeSchema, uniformRecipeSchema]).refine(
 	(r) => {
 		const n = r.input.domains.length;
-		const ds = r.targets.kind === 'grid' ? r.targets.domainRuns.map((x) => x[0]) : r.targets.domain;
+		const ds = r.targets.kind === 'points' ? r.targets.domain : r.targets.domainRuns.map((x) => x[0]);
 		return ds.every((d) => d < n);
 	},
 	{ message: 'target domain out of range', path: ['targets'] }

@@ -6,8 +6,9 @@ import { dirname, resolve } from 'node:path';
 import * as coreSchema from './schema';
 import * as siteSchema from './site-schema';
 import * as recipeSchema from './recipe-schema';
+import * as exportSchema from './export-schema';
 
-const schema = { ...coreSchema, ...siteSchema, ...recipeSchema };
+const schema = { ...coreSchema, ...siteSchema, ...recipeSchema, ...exportSchema };
 
 export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Database };
 

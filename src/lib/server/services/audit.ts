@@ -68,11 +68,23 @@ export function recordAudit(tx: DbOrTx, entry: AuditInput): void {
 }
 
 /**
- * For the exports work: records that someone downloaded an export of the project (kind 'export', action
- * 'downloaded'), in the caller's transaction when it has one.
+ * Records that someone downloaded an export of a recipe (kind 'export', action 'downloaded'): the file's name and
+ * the recipe's hash. The download routes call it once the request has passed its checks, as the file starts to
+ * stream; a download changes nothing, so there is no change's transaction for it to join.
  */
-export function recordExportDownload(tx: DbOrTx, entry: { projectId: string; subject: string; subjectId?: string | null; detail?: string; userId?: string | null }): void {
-	recordAudit(tx, { ...entry, kind: 'export', action: 'downloaded' });
+export function recordExportDownload(
+	entry: { projectId: string; recipe: { id: string | null; name: string | null; hash: string }; file: string; userId: string },
+	db: DbOrTx = getDb()
+): void {
+	recordAudit(db, {
+		projectId: entry.projectId,
+		kind: 'export',
+		action: 'downloaded',
+		subject: entry.recipe.name ?? 'a deleted recipe',
+		subjectId: entry.recipe.id,
+		detail: `${entry.file}; SHA-256 ${entry.recipe.hash}`,
+		userId: entry.userId
+	});
 }
 
 /** Filters of the log: a kind, a person, and paging back in time. */

@@ -5,14 +5,29 @@
  * percentiles, and the target grid with each cell's domain read from the stratigraphy. Everything is read from
  * the database; nothing is written here.
  */
-import { createRecipe, createUniformRecipe, trendResiduals, uniformValues, weightedMean, type DomainInput, type LinearTrend, type Recipe, type UniformDomainData } from '$lib/geostat';
+import { createRecipe, createUniformRecipe, trendResiduals, uniformValues, weightedMean, type DomainInput, type LinearTrend, type Recipe, type TargetDefinition, type UniformDomainData } from '$lib/geostat';
 import { domainTrend } from '$lib/variography';
 import { PROPERTY_INFO, type SimulatedProperty } from '$lib/properties';
 import { getDb } from '$lib/server/db';
 import type { DbOrTx } from '$lib/server/db/transaction';
 import { InvalidInput, type InputIssue } from '$lib/server/errors';
-import { MAX_CELLS, MAX_ENSEMBLE_VALUES, type RecipeSetup, type SgsSetup, type SimulatedDomainSetup, type UniformSetup } from '$lib/schemas/recipe';
-import { cellsPerDomain, domainRuns, gridDomains, gridStratigraphy, type GridSpec, type GridStratigraphy } from '$lib/site';
+import { MAX_CELLS, MAX_ENSEMBLE_VALUES, MAX_MESH_ELEMENTS, type GridSetup, type MeshTargetSetup, type RecipeSetup, type SgsSetup, type SimulatedDomainSetup, type UniformSetup } from '$lib/schemas/recipe';
+import {
+	axesDomains,
+	cellsPerDomain,
+	domainRuns,
+	elevationCells,
+	gridDefinition,
+	gridDomains,
+	gridStratigraphy,
+	pointDomains,
+	unitHeightBands,
+	type GridSpec,
+	type GridStratigraphy,
+	type HeightBand
+} from '$lib/site';
+import type { Member } from '$lib/site';
+import { getMesh, meshColumns } from './meshes';
 import { domainSamples, type DomainSamples } from './domains';
 import { getSite } from './site';
 import { listSoundings } from './soundings';
@@ -44,6 +59,27 @@ export interface ProvenanceDomain {
 	values?: number[];
 }
 
+/** The grid a recipe targets, as resolved: the spec, its counts and, with variable cell heights, the elevation cells. */
+export type ProvenanceGrid = GridSpec & {
+	counts: { x: number; y: number; z: number };
+	cells: number;
+	simulated: number;
+	/** Variable cell heights: the counts.z + 1 cell edges along the elevation, ascending (the engine holds the centres). */
+	zEdges?: number[];
+};
+
+/** The mesh a recipe targets. */
+export interface ProvenanceMesh {
+	id: string;
+	name: string;
+	elements: number;
+	simulated: number;
+	/** How elements take their domains: the stratigraphy at the centroid, or the element's group. */
+	assign: 'stratigraphy' | 'groups';
+	/** The group → domain mapping (domain names; null: not simulated). */
+	groups?: { group: string; domain: string | null }[];
+}
+
 /** What a recipe was resolved from, stored beside it (not hashed). */
 export interface RecipeProvenance {
 	/** Absent in recipes stored before kinds existed: 'sgs'. */
@@ -56,7 +92,10 @@ export interface RecipeProvenance {
 	realizations: number;
 	/** A uniform recipe's percentiles, realization by realization. */
 	percentiles?: number[];
-	grid: GridSpec & { counts: { x: number; y: number; z: number }; cells: number; simulated: number };
+	/** The grid targeted; null for a mesh. */
+	grid: ProvenanceGrid | null;
+	/** The mesh targeted (absent for a grid). */
+	mesh?: ProvenanceMesh;
 	domains: ProvenanceDomain[];
 	/** Remarks about the grid and the data (soundings left out, domains without cells …). */
 	warnings: string[];
@@ -130,7 +169,7 @@ function resolveZonation<S extends RecipeSetup>(projectId: string, setup: S, iss
 	}
 	const z = zonation!;
 	const site = getSite(projectId, db);
-	if (setup.grid.geometry !== site.geometry) {
+	if (setup.grid && setup.grid.geometry !== site.geometry) {
 		issues.push({ path: ['grid', 'geometry'], message: `The site is ${site.geometry.toUpperCase()}; the grid must be ${site.geometry.toUpperCase()} too.` });
 	}
 	const list = setup.domains as S['domains'][number][];
@@ -149,36 +188,44 @@ function fail(issues: InputIssue[]): never {
 }
 
 /**
- * The grid of a recipe, each cell's domain read from the stratigraphy (gridDomains) for the simulated domains of
- * `provenance` (index order), with its size checked against the limits for `n` realizations. Sets each simulated
- * domain's cell count and adds the grid's warnings.
+ * The targets of a recipe (the grid, a rectilinear grid of variable cell heights, or a mesh's centroids), each
+ * target's domain read from the stratigraphy (or a mesh element's group) for the simulated domains of
+ * `provenance` (index order), with their number checked against the limits for `n` realizations (a uniform
+ * recipe's percentiles). Sets each simulated domain's target count and gives the provenance's grid or mesh.
  */
-function resolveGrid(projectId: string, z: ZonationView, provenance: ProvenanceDomain[], nDomains: number, setup: RecipeSetup, n: number, issues: InputIssue[], db: DbOrTx) {
-	let grid: ReturnType<typeof gridDomains>;
+function resolveTargets(projectId: string, site: { geometry: '2d' | '3d' }, z: ZonationView, provenance: ProvenanceDomain[], nDomains: number, setup: RecipeSetup, n: number, issues: InputIssue[], db: DbOrTx) {
+	const members = provenance.filter((p) => p.index !== null).map((p) => z.domains.find((zd) => zd.id === p.domainId)!.members);
+	let resolved: ResolvedTargets;
 	try {
-		const members = provenance.filter((p) => p.index !== null).map((p) => z.domains.find((zd) => zd.id === p.domainId)!.members);
-		grid = gridDomains(projectStratigraphy(projectId, db), members, setup.grid);
+		resolved = setup.mesh
+			? meshTargets(projectId, site.geometry, setup.mesh, members, z.domains, provenance, db)
+			: gridTargets(projectStratigraphy(projectId, db), members, setup.grid!);
 	} catch (err) {
-		issues.push({ path: ['grid'], message: `The grid is not valid: ${(err as Error).message}.` });
+		if (err instanceof InvalidInput) throw err;
+		issues.push({ path: [setup.mesh ? 'mesh' : 'grid'], message: `The ${setup.mesh ? 'mesh' : 'grid'} is not valid: ${(err as Error).message}.` });
 		fail(issues);
 	}
-	const { grid: def, domain, warnings } = grid!;
+	const { targets, domain, warnings } = resolved!;
 	const cells = domain.length;
 	const counts = cellsPerDomain(domain, nDomains);
 	const simulated = counts.reduce((a, b) => a + b, 0);
-	const what = setup.kind === 'uniform' ? 'percentiles' : 'realizations';
-	if (cells > MAX_CELLS) issues.push({ path: ['grid'], message: `The grid has ${cells.toLocaleString('en')} cells; at most ${MAX_CELLS.toLocaleString('en')} are allowed. Use larger cells or a smaller extent.` });
-	else if (simulated === 0) issues.push({ path: ['grid'], message: 'No cell of the grid lies in a simulated domain: check the grid’s extent against the section.' });
+	const limit = setup.mesh ? MAX_MESH_ELEMENTS : MAX_CELLS;
+	const what = setup.mesh ? 'elements' : 'cells';
+	const many = setup.kind === 'uniform' ? 'percentiles' : 'realizations';
+	if (cells > limit) issues.push({ path: [setup.mesh ? 'mesh' : 'grid'], message: `The ${setup.mesh ? 'mesh' : 'grid'} has ${cells.toLocaleString('en')} ${what}; at most ${limit.toLocaleString('en')} are allowed.${setup.mesh ? '' : ' Use larger cells or a smaller extent.'}` });
+	else if (simulated === 0) issues.push({ path: [setup.mesh ? 'mesh' : 'grid'], message: setup.mesh ? 'No element of the mesh lies in a simulated domain: check the mesh’s coordinates against the section, or its groups.' : 'No cell of the grid lies in a simulated domain: check the grid’s extent against the section.' });
 	else if (simulated * n > MAX_ENSEMBLE_VALUES) {
 		issues.push({
-			path: [setup.kind === 'uniform' ? 'percentiles' : 'realizations'],
-			message: `${n} ${what} of ${simulated.toLocaleString('en')} simulated cells are more values than an ensemble map holds (${MAX_ENSEMBLE_VALUES.toLocaleString('en')}): use fewer ${what} or larger cells.`
+			path: [many],
+			message: `${n} ${many} of ${simulated.toLocaleString('en')} simulated ${what} are more values than an ensemble map holds (${MAX_ENSEMBLE_VALUES.toLocaleString('en')}): use fewer ${many}${setup.mesh ? '' : ' or larger cells'}.`
 		});
 	}
 	if (issues.length) fail(issues);
 	for (const p of provenance) if (p.index !== null) p.cells = counts[p.index];
-	for (const p of provenance) if (p.index !== null && p.cells === 0) warnings.push(`No cell of the grid lies in ${p.name}.`);
-	return { targets: { kind: 'grid' as const, ...def, domainRuns: domainRuns(domain) }, def, cells, simulated, warnings };
+	for (const p of provenance) if (p.index !== null && p.cells === 0) warnings.push(`No ${setup.mesh ? 'element of the mesh' : 'cell of the grid'} lies in ${p.name}.`);
+	const grid: ProvenanceGrid | null = resolved!.grid ? ({ ...resolved!.grid, cells, simulated } as ProvenanceGrid) : null;
+	const mesh = resolved!.mesh ? { ...resolved!.mesh, simulated } : undefined;
+	return { targets, warnings, grid, mesh };
 }
 
 /** The rules a domain's data were taken by, for the provenance. */
@@ -260,10 +307,10 @@ function resolveSgs(projectId: string, setup: SgsSetup, db: DbOrTx): { recipe: R
 		issues.push({ path: ['domains'], message: 'Simulate at least one domain.' });
 		fail(issues);
 	}
-	const grid = resolveGrid(projectId, z, provenance, inputs.length, setup, setup.realizations, issues, db);
+	const resolved = resolveTargets(projectId, site, z, provenance, inputs.length, setup, setup.realizations, issues, db);
 	let recipe: Recipe;
 	try {
-		recipe = createRecipe({ seed: setup.seed, domains: inputs }, grid.targets, { realizations: setup.realizations });
+		recipe = createRecipe({ seed: setup.seed, domains: inputs }, resolved.targets, { realizations: setup.realizations });
 	} catch (err) {
 		issues.push({ path: [], message: `The engine refused the recipe: ${(err as Error).message}.` });
 		fail(issues);
@@ -277,9 +324,10 @@ function resolveSgs(projectId: string, setup: SgsSetup, db: DbOrTx): { recipe: R
 			lengthUnit: site.lengthUnit,
 			seed: setup.seed,
 			realizations: setup.realizations,
-			grid: { ...setup.grid, counts: grid.def.counts, cells: grid.cells, simulated: grid.simulated },
+			grid: resolved.grid,
+			...(resolved.mesh ? { mesh: resolved.mesh } : {}),
 			domains: provenance,
-			warnings: grid.warnings
+			warnings: resolved.warnings
 		}
 	};
 }
@@ -319,10 +367,10 @@ function resolveUniform(projectId: string, setup: UniformSetup, db: DbOrTx): { r
 		issues.push({ path: ['domains'], message: 'Include at least one domain.' });
 		fail(issues);
 	}
-	const grid = resolveGrid(projectId, z, provenance, inputs.length, setup, setup.percentiles.length, issues, db);
+	const resolved = resolveTargets(projectId, site, z, provenance, inputs.length, setup, setup.percentiles.length, issues, db);
 	let recipe: Recipe;
 	try {
-		recipe = createUniformRecipe(setup.percentiles, inputs, grid.targets);
+		recipe = createUniformRecipe(setup.percentiles, inputs, resolved.targets);
 	} catch (err) {
 		issues.push({ path: [], message: `The engine refused the recipe: ${(err as Error).message}.` });
 		fail(issues);
@@ -337,9 +385,107 @@ function resolveUniform(projectId: string, setup: UniformSetup, db: DbOrTx): { r
 			seed: null,
 			realizations: setup.percentiles.length,
 			percentiles: setup.percentiles,
-			grid: { ...setup.grid, counts: grid.def.counts, cells: grid.cells, simulated: grid.simulated },
+			grid: resolved.grid,
+			...(resolved.mesh ? { mesh: resolved.mesh } : {}),
 			domains: provenance,
-			warnings: grid.warnings
+			warnings: resolved.warnings
 		}
+	};
+}
+
+interface ResolvedTargets {
+	targets: TargetDefinition;
+	domain: Int32Array;
+	warnings: string[];
+	grid: (GridSpec & { counts: { x: number; y: number; z: number }; zEdges?: number[] }) | null;
+	mesh: Omit<ProvenanceMesh, 'simulated'> | null;
+}
+
+/**
+ * A grid setup's targets: the engine's regular grid, or with variable cell heights a rectilinear grid whose
+ * elevation cells follow the units (unitHeightBands over the grid's columns) or the bands given (elevationCells).
+ */
+function gridTargets(strat: GridStratigraphy, members: Member[][], spec: GridSetup): ResolvedTargets {
+	const heights = spec.elevation.heights;
+	if (!heights) {
+		const { grid, domain, warnings } = gridDomains(strat, members, spec);
+		return { targets: { kind: 'grid', ...grid, domainRuns: domainRuns(domain) }, domain, warnings, grid: { ...spec, counts: grid.counts }, mesh: null };
+	}
+	const def = gridDefinition(spec);
+	const xs = Array.from({ length: def.counts.x }, (_, i) => def.origin.x + i * def.spacing.x);
+	const ys = Array.from({ length: def.counts.y }, (_, j) => def.origin.y + j * def.spacing.y);
+	const { from, to, cell } = spec.elevation;
+	let bands: HeightBand[];
+	if ('byUnit' in heights) {
+		const columns = ys.flatMap((y) => xs.map((x) => ({ x, y })));
+		bands = unitHeightBands(strat, spec.geometry, columns, heights.byUnit, from);
+	} else bands = heights.bands.map((b) => ({ bottom: b.from, top: b.to, cell: b.cell }));
+	const { edges, centres } = elevationCells(from, to, cell, bands);
+	// Counted before the domains are read, so a grid too large is refused without the work.
+	if (xs.length * ys.length * centres.length > MAX_CELLS) {
+		throw new InvalidInput(`The grid has ${(xs.length * ys.length * centres.length).toLocaleString('en')} cells; at most ${MAX_CELLS.toLocaleString('en')} are allowed. Use larger cells or a smaller extent.`, [
+			{ path: ['grid'], message: `The grid has ${(xs.length * ys.length * centres.length).toLocaleString('en')} cells; at most ${MAX_CELLS.toLocaleString('en')} are allowed. Use larger cells or a smaller extent.` }
+		]);
+	}
+	const { domain, warnings } = axesDomains(strat, members, spec.geometry, xs, ys, centres);
+	return {
+		targets: { kind: 'rectilinear', x: xs, y: ys, z: centres, domainRuns: domainRuns(domain) },
+		domain,
+		warnings,
+		grid: { ...spec, counts: { x: xs.length, y: ys.length, z: centres.length }, zEdges: edges },
+		mesh: null
+	};
+}
+
+/** A mesh setup's targets: the mesh's centroids as points, each in the domain of the stratigraphy there or of its group. */
+function meshTargets(
+	projectId: string,
+	geometry: '2d' | '3d',
+	setup: MeshTargetSetup,
+	members: Member[][],
+	zonationDomains: ZonationView['domains'],
+	provenance: ProvenanceDomain[],
+	db: DbOrTx
+): ResolvedTargets {
+	const mesh = getMesh(projectId, setup.meshId, db);
+	if (mesh.geometry !== geometry) throw new InvalidInput(`The mesh is ${mesh.geometry.toUpperCase()}; the site is ${geometry.toUpperCase()}.`, [{ path: ['mesh', 'meshId'], message: `The mesh is ${mesh.geometry.toUpperCase()}; the site is ${geometry.toUpperCase()}.` }]);
+	const cols = meshColumns(projectId, setup.meshId, db);
+	let domain: Int32Array;
+	let warnings: string[];
+	let groups: { group: string; domain: string | null }[] | undefined;
+	if (setup.assign === 'stratigraphy') {
+		({ domain, warnings } = pointDomains(projectStratigraphy(projectId, db), members, geometry, cols));
+	} else {
+		if (!cols.group) throw new InvalidInput('The mesh has no group column; assign its elements from the stratigraphy.', [{ path: ['mesh', 'assign'], message: 'The mesh has no group column; assign its elements from the stratigraphy.' }]);
+		const index = new Map<string, number>();
+		const issues: InputIssue[] = [];
+		groups = [];
+		setup.groups.forEach((g, k) => {
+			if (!mesh.groups.some((mg) => mg.name === g.group)) issues.push({ path: ['mesh', 'groups', k, 'group'], message: `The mesh has no group ${g.group}.` });
+			if (g.domainId === null) {
+				index.set(g.group, -1);
+				groups!.push({ group: g.group, domain: null });
+				return;
+			}
+			const zd = zonationDomains.find((d) => d.id === g.domainId);
+			const p = provenance.find((pd) => pd.domainId === g.domainId);
+			if (!zd || !p) issues.push({ path: ['mesh', 'groups', k, 'domainId'], message: `That domain is not in the zonation.` });
+			else {
+				index.set(g.group, p.index ?? -1);
+				groups!.push({ group: g.group, domain: zd.name });
+			}
+		});
+		for (const mg of mesh.groups) if (!index.has(mg.name)) issues.push({ path: ['mesh', 'groups'], message: `Say which domain group ${mg.name} is in (or none).` });
+		if (issues.length) throw new InvalidInput(issues.map((i) => i.message).join(' '), issues);
+		domain = Int32Array.from(cols.group, (g) => index.get(g) ?? -1);
+		warnings = [];
+	}
+	const y = geometry === '2d' ? new Array<number>(cols.x.length).fill(0) : Array.from(cols.y);
+	return {
+		targets: { kind: 'points', x: Array.from(cols.x), y, z: Array.from(cols.z), domain: Array.from(domain) },
+		domain,
+		warnings,
+		grid: null,
+		mesh: { id: mesh.id, name: mesh.name, elements: mesh.elements, assign: setup.assign, ...(groups ? { groups } : {}) }
 	};
 }

@@ -60,7 +60,14 @@ export class SimulationsPage {
 		this.opening = true;
 		await this.close();
 		try {
-			const [view, recipe] = await Promise.all([this.api.recipe(recipeId), this.api.recipeDocument(recipeId)]);
+			const view = await this.api.recipe(recipeId);
+			if (view.provenance.mesh) {
+				// A mesh's realizations are for its model: regenerated on the server as files (Exports); the page
+				// shows the recipe and does not pull a document of up to two million targets into the browser.
+				if (ticket === this.opened) this.view = view;
+				return;
+			}
+			const recipe = await this.api.recipeDocument(recipeId);
 			const property = view.provenance.domains.find((d) => d.index !== null)?.property ?? 'qc1Ncs';
 			const section = this.section ?? (await this.api.section(property));
 			if (ticket !== this.opened) return;

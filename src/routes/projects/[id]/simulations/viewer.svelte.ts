@@ -75,10 +75,24 @@ export class FieldViewer {
 		readonly run: EnsembleRun,
 		private readonly engine: EnsembleEngine
 	) {
-		if (recipe.targets.kind !== 'grid') throw new RangeError('the viewer draws grids');
-		const { origin, spacing, counts } = recipe.targets;
-		this.grid = { origin, spacing, counts };
-		this.domain = expandRuns(recipe.targets.domainRuns);
+		const t = recipe.targets;
+		if (t.kind === 'points') throw new RangeError('the viewer draws grids');
+		if (t.kind === 'grid') this.grid = { origin: t.origin, spacing: t.spacing, counts: t.counts };
+		else {
+			// A rectilinear grid of variable cell heights (uniform columns): its edges from the provenance.
+			const step = (a: number[]) => (a.length > 1 ? a[1] - a[0] : 1);
+			const zEdges = view.provenance.grid?.zEdges;
+			let smallest = Infinity;
+			for (let k = 1; k < t.z.length; k++) smallest = Math.min(smallest, t.z[k] - t.z[k - 1]);
+			this.grid = {
+				origin: { x: t.x[0], y: t.y[0], z: t.z[0] },
+				spacing: { x: step(t.x), y: step(t.y), z: Number.isFinite(smallest) ? smallest : 1 },
+				counts: { x: t.x.length, y: t.y.length, z: t.z.length },
+				z: t.z,
+				zEdges: zEdges ?? [t.z[0] - 0.5, ...t.z.map((z) => z + 0.5)]
+			};
+		}
+		this.domain = expandRuns(t.domainRuns);
 		this.domains = view.provenance.domains
 			.filter((d) => d.index !== null)
 			.sort((a, b) => a.index! - b.index!)

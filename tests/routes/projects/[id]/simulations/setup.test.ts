@@ -37,6 +37,7 @@ function memoryApi(fail = false) {
 		],
 		zoneBoundaries: async () => [],
 		recipes: async () => [{ id: 'old' }],
+		meshes: async () => [{ id: 'm1', name: 'Model mesh', geometry: '2d', elements: 3, groups: [{ name: 'fill', elements: 1 }, { name: 'foundation', elements: 2 }] }],
 		variograms: async (id: string) => (id === 'sand' ? [{ id: 'v1', name: 'Fit', version: 1, createdAt: '2026-01-01T00:00:00Z' }] : []),
 		domainSamples: async (id: string) => (id === 'sand' ? { samples: { value: [60, 80, 95] }, weights: [0.5, 0.25, 0.25] } : { samples: { value: [0.2, 0.3] }, weights: [0.5, 0.5] }),
 		section: async () => ({ soundings: [], units: [], contacts: [], boundaries: [] }),
@@ -97,6 +98,43 @@ describe('RecipeSetupForm', () => {
 		expect(body.grid).toEqual({ geometry: '2d', chainage: { from: 0, to: 100, cell: 0.25 }, elevation: { from: -7, to: 3, cell: 0.5 } });
 		// The API answered with a recipe that was already there (the same hash).
 		expect(opened).toEqual(['old', true]);
+	});
+
+	it('previews cell heights per unit: 0.25 m in the sand, 1 m below, and sends them as byUnit', async () => {
+		const { api, sent } = memoryApi();
+		const form = new RecipeSetupForm(api, () => undefined);
+		await form.start(null);
+		form.grid.chainage.cell = '10';
+		form.grid.elevation.cell = '1';
+		form.heightsMode = 'units';
+		form.unitHeights[0].cell = '0.25';
+		const p = form.preview!;
+		if (p.tooBig !== null) throw new Error('too big');
+		// Sand from the ground (3) down to −1 at every column: 16 cells of 0.25 m; below it 6 cells of 1 m from −7.
+		expect(p.grid.counts.z).toBe(22);
+		expect(p.grid.zEdges!.slice(5, 8)).toEqual([-2, -1, -0.75]);
+		expect(p.counts).toEqual([160]);
+		await form.create();
+		const body = recipeSetupSchema.parse(sent[0]);
+		expect(body.grid!.elevation).toEqual({ from: -7, to: 3, cell: 1, heights: { byUnit: [{ unitId: 'u-sand', cell: 0.25 }] } });
+	});
+
+	it('sends elevation bands, and a mesh with its groups mapped to domains', async () => {
+		const { api, sent } = memoryApi();
+		const form = new RecipeSetupForm(api, () => undefined);
+		await form.start(null);
+		form.heightsMode = 'bands';
+		form.bands = [{ from: '-2', to: '3', cell: '0.25' }];
+		await form.create();
+		expect(recipeSetupSchema.parse(sent[0]).grid!.elevation.heights).toEqual({ bands: [{ from: -2, to: 3, cell: 0.25 }] });
+		form.target = 'mesh';
+		expect(form.preview).toBeNull();
+		form.meshAssign = 'groups';
+		form.groupDomains = { foundation: 'sand' };
+		await form.create();
+		const body = recipeSetupSchema.parse(sent[1]);
+		expect(body.grid).toBeUndefined();
+		expect(body.mesh).toEqual({ meshId: 'm1', assign: 'groups', groups: [{ group: 'fill', domainId: null }, { group: 'foundation', domainId: 'sand' }] });
 	});
 
 	it('shows the API’s issues against their domain row', async () => {

@@ -1,7 +1,20 @@
-import { RequestFailed, type ApiIssue, type ProjectApi, type RecipeView, type SectionView, type SiteView, type SoundingSummary, type VariogramView, type ZonationView } from '$lib/api';
+import { RequestFailed, type ApiIssue, type MeshView, type ProjectApi, type RecipeView, type SectionView, type SiteView, type SoundingSummary, type VariogramView, type ZonationView } from '$lib/api';
 import { DEFAULT_PERCENTILES, DEFAULT_SEARCH, MAX_CELLS, type RecipeSetupInput } from '$lib/schemas/recipe';
 import { uniformValues } from '$lib/geostat';
-import { cellsPerDomain, gridDefinition, gridDomains, gridStratigraphy, polylineLength, type GridSpec, type GridStratigraphy } from '$lib/site';
+import {
+	axesDomains,
+	cellsPerDomain,
+	elevationCells,
+	gridDefinition,
+	gridDomains,
+	gridStratigraphy,
+	polylineLength,
+	unitHeightBands,
+	type GridDefinition,
+	type GridSpec,
+	type GridStratigraphy,
+	type HeightBand
+} from '$lib/site';
 
 /** One domain's row of the form; numbers as typed (empty: the default). */
 export interface DomainRow {
@@ -51,6 +64,23 @@ export interface GridFields {
 
 const num = (t: string): number | null => (t.trim() === '' ? null : Number(t));
 
+/** How cell heights are set along the elevation: one height, per unit, or per elevation band. */
+export type HeightsMode = 'uniform' | 'units' | 'bands';
+
+/** A unit's cell height as typed ('' for the grid's own height). */
+export interface UnitHeightRow {
+	unitId: string;
+	name: string;
+	cell: string;
+}
+
+/** An elevation band as typed. */
+export interface BandRow {
+	from: string;
+	to: string;
+	cell: string;
+}
+
 /** A fresh seed: nine random digits (shown and editable; any text will do). */
 export function freshSeed(random: () => number = Math.random): string {
 	return String(Math.floor(random() * 9e8) + 1e8);
@@ -87,6 +117,16 @@ export class RecipeSetupForm {
 		elevation: { from: '', to: '', cell: '' }
 	});
 	rows = $state<DomainRow[]>([]);
+	/** What the realizations are made at: a grid over the site, or an uploaded mesh's elements. */
+	target = $state<'grid' | 'mesh'>('grid');
+	heightsMode = $state<HeightsMode>('uniform');
+	unitHeights = $state<UnitHeightRow[]>([]);
+	bands = $state<BandRow[]>([{ from: '', to: '', cell: '' }]);
+	meshes = $state.raw<MeshView[]>([]);
+	meshId = $state('');
+	meshAssign = $state<'stratigraphy' | 'groups'>('stratigraphy');
+	/** Each mesh group's domain: a domain id, or '' for not simulated. */
+	groupDomains = $state<Record<string, string>>({});
 	zonations = $state.raw<ZonationView[]>([]);
 	site = $state.raw<SiteView | null>(null);
 	section = $state.raw<SectionView | null>(null);
@@ -149,30 +189,70 @@ export class RecipeSetupForm {
 		return x && y && e ? { geometry: '3d', x, y, elevation: e } : null;
 	});
 
+	/** The height bands typed (per unit or per elevation band), or null for one height; [] while a number is missing. */
+	readonly heightBands = $derived.by((): HeightBand[] | null => {
+		if (this.heightsMode === 'uniform' || !this.spec || !this.strat) return null;
+		if (this.heightsMode === 'bands') {
+			return this.bands.flatMap((b) => {
+				const [from, to, cell] = [num(b.from), num(b.to), num(b.cell)];
+				return from !== null && to !== null && cell !== null && to > from && cell > 0 ? [{ bottom: from, top: to, cell }] : [];
+			});
+		}
+		const def = gridDefinition(this.spec);
+		const columns: { x: number; y: number }[] = [];
+		for (let j = 0; j < def.counts.y; j++) for (let i = 0; i < def.counts.x; i++) columns.push({ x: def.origin.x + i * def.spacing.x, y: def.origin.y + j * def.spacing.y });
+		const heights = this.unitHeights.flatMap((u) => (num(u.cell) !== null && num(u.cell)! > 0 ? [{ unitId: u.unitId, cell: num(u.cell)! }] : []));
+		return unitHeightBands(this.strat, this.geometry, columns, heights, this.spec.elevation.from);
+	});
+
 	/** The grid with each cell's domain (index into the simulated rows), computed as the server will. */
 	readonly preview = $derived.by(() => {
-		if (!this.spec || !this.strat || !this.zonation) return null;
-		const { counts } = gridDefinition(this.spec);
-		const cells = counts.x * counts.y * counts.z;
+		if (this.target !== 'grid' || !this.spec || !this.strat || !this.zonation) return null;
+		const def = gridDefinition(this.spec);
+		let grid: GridDefinition = def;
+		if (this.heightBands) {
+			const { edges, centres } = elevationCells(this.spec.elevation.from, this.spec.elevation.to, this.spec.elevation.cell, this.heightBands);
+			grid = { ...def, counts: { ...def.counts, z: centres.length }, z: centres, zEdges: edges };
+		}
+		const cells = grid.counts.x * grid.counts.y * grid.counts.z;
 		if (cells > MAX_CELLS) return { tooBig: cells } as const;
 		const simulated = this.rows.filter((r) => r.simulate);
 		const members = simulated.map((r) => this.zonation!.domains.find((d) => d.id === r.domainId)!.members);
-		const result = gridDomains(this.strat, members, this.spec);
+		const result = grid.z
+			? {
+					grid,
+					...axesDomains(
+						this.strat,
+						members,
+						this.geometry,
+						Array.from({ length: grid.counts.x }, (_, i) => def.origin.x + i * def.spacing.x),
+						Array.from({ length: grid.counts.y }, (_, j) => def.origin.y + j * def.spacing.y),
+						grid.z
+					)
+				}
+			: gridDomains(this.strat, members, this.spec);
 		return { ...result, names: simulated.map((r) => r.name), counts: cellsPerDomain(result.domain, simulated.length), tooBig: null };
 	});
+
+	/** The mesh chosen, if any. */
+	readonly mesh = $derived(this.meshes.find((m) => m.id === this.meshId) ?? null);
 
 	/** Loads zonations, site, soundings and stratigraphy; prefills from an existing recipe when `from` is given. */
 	async start(from: string | null): Promise<void> {
 		try {
-			const [zonations, site, soundings, units, contacts, boundaries, recipes] = await Promise.all([
+			const [zonations, site, soundings, units, contacts, boundaries, recipes, meshes] = await Promise.all([
 				this.api.zonations(),
 				this.api.site(),
 				this.api.soundings(),
 				this.api.units(),
 				this.api.contacts(),
 				this.api.zoneBoundaries(),
-				this.api.recipes()
+				this.api.recipes(),
+				this.api.meshes()
 			]);
+			this.meshes = meshes;
+			this.meshId = meshes[0]?.id ?? '';
+			this.unitHeights = units.map((u) => ({ unitId: u.id, name: u.name, cell: '' }));
 			this.zonations = zonations;
 			this.site = site;
 			this.soundings = soundings;
@@ -267,12 +347,29 @@ export class RecipeSetupForm {
 			this.realizations = String(s.realizations);
 		}
 		const text = (a: { from: number; to: number; cell: number }) => ({ from: String(a.from), to: String(a.to), cell: String(a.cell) });
-		if (s.grid.geometry === '2d') this.grid.chainage = text(s.grid.chainage);
-		else {
-			this.grid.x = text(s.grid.x);
-			this.grid.y = text(s.grid.y);
+		if (s.grid) {
+			this.target = 'grid';
+			if (s.grid.geometry === '2d') this.grid.chainage = text(s.grid.chainage);
+			else {
+				this.grid.x = text(s.grid.x);
+				this.grid.y = text(s.grid.y);
+			}
+			this.grid.elevation = text(s.grid.elevation);
+			const h = s.grid.elevation.heights;
+			if (h && 'byUnit' in h) {
+				this.heightsMode = 'units';
+				for (const u of this.unitHeights) u.cell = String(h.byUnit.find((b) => b.unitId === u.unitId)?.cell ?? '');
+			} else if (h) {
+				this.heightsMode = 'bands';
+				this.bands = h.bands.map((b) => ({ from: String(b.from), to: String(b.to), cell: String(b.cell) }));
+			}
 		}
-		this.grid.elevation = text(s.grid.elevation);
+		if (s.mesh) {
+			this.target = 'mesh';
+			this.meshId = s.mesh.meshId;
+			this.meshAssign = s.mesh.assign;
+			if (s.mesh.assign === 'groups') this.groupDomains = Object.fromEntries(s.mesh.groups.map((g) => [g.group, g.domainId ?? '']));
+		}
 		for (const row of this.rows) {
 			const found = s.domains.find((x) => x.domainId === row.domainId);
 			if (!found) continue;
@@ -293,21 +390,44 @@ export class RecipeSetupForm {
 		}
 	}
 
+	/** The elevation axis as the API takes it, with the cell heights per unit or band when chosen. */
+	private elevationBody() {
+		const n = (t: string) => num(t) ?? NaN;
+		const e = this.grid.elevation;
+		const axis = { from: n(e.from), to: n(e.to), cell: n(e.cell) };
+		if (this.heightsMode === 'units') {
+			const byUnit = this.unitHeights.filter((u) => u.cell.trim() !== '').map((u) => ({ unitId: u.unitId, cell: n(u.cell) }));
+			return byUnit.length ? { ...axis, heights: { byUnit } } : axis;
+		}
+		if (this.heightsMode === 'bands') return { ...axis, heights: { bands: this.bands.map((b) => ({ from: n(b.from), to: n(b.to), cell: n(b.cell) })) } };
+		return axis;
+	}
+
 	/** The request body as the API takes it (numbers as typed; the server checks them). */
 	body(): RecipeSetupInput {
 		const n = (t: string) => num(t) ?? NaN;
 		const axis = (a: { from: string; to: string; cell: string }) => ({ from: n(a.from), to: n(a.to), cell: n(a.cell) });
-		const grid =
-			this.geometry === '2d'
-				? ({ geometry: '2d', chainage: axis(this.grid.chainage), elevation: axis(this.grid.elevation) } as const)
-				: ({ geometry: '3d', x: axis(this.grid.x), y: axis(this.grid.y), elevation: axis(this.grid.elevation) } as const);
+		const targets: Pick<RecipeSetupInput, 'grid' | 'mesh'> =
+			this.target === 'mesh'
+				? {
+						mesh:
+							this.meshAssign === 'groups'
+								? { meshId: this.meshId, assign: 'groups', groups: (this.mesh?.groups ?? []).map((g) => ({ group: g.name, domainId: this.groupDomains[g.name] || null })) }
+								: { meshId: this.meshId, assign: 'stratigraphy' }
+					}
+				: {
+						grid:
+							this.geometry === '2d'
+								? { geometry: '2d', chainage: axis(this.grid.chainage), elevation: this.elevationBody() }
+								: { geometry: '3d', x: axis(this.grid.x), y: axis(this.grid.y), elevation: this.elevationBody() }
+					};
 		if (this.kind === 'uniform') {
 			return {
 				kind: 'uniform',
 				name: this.name,
 				zonationId: this.zonationId,
 				percentiles: parsePercentiles(this.percentiles) ?? [NaN],
-				grid,
+				...targets,
 				domains: this.rows.map((r) => ({ domainId: r.domainId, simulate: r.simulate }))
 			};
 		}
@@ -317,7 +437,7 @@ export class RecipeSetupForm {
 			zonationId: this.zonationId,
 			seed: this.seed,
 			realizations: n(this.realizations),
-			grid,
+			...targets,
 			domains: this.rows.map((r) =>
 				r.simulate
 					? {

@@ -1,5 +1,5 @@
 import { json } from '@sveltejs/kit';
-import { ApiError, endpoint } from '$lib/server/api';
+import { endpoint, parseValue } from '$lib/server/api';
 import { requireProjectRole } from '$lib/server/auth/guard';
 import { CAPABILITIES } from '$lib/server/auth/roles';
 import { ImportRejected, importSoundingsOffThread, planImportOffThread } from '$lib/server/services/import';
@@ -20,12 +20,9 @@ export const GET = endpoint((event) => {
 export const POST = endpoint(async (event) => {
 	const { project, user } = requireProjectRole(event, event.params.id, CAPABILITIES.editData);
 	const form = await readMultipart(event.request);
-	const parsed = uploadOptionsSchema.safeParse(jsonField(form, 'options') ?? {});
-	if (!parsed.success) {
-		throw new ApiError(422, 'The upload options are not valid.', parsed.error.issues.map((i) => ({ path: i.path.map(String), message: i.message })));
-	}
+	const options = parseValue(jsonField(form, 'options') ?? {}, uploadOptionsSchema, 'The upload options are not valid.');
 	const files = await filesOf(form, 'files');
-	const { dryRun, ...request } = parsed.data;
+	const { dryRun, ...request } = options;
 	try {
 		if (dryRun) return json({ plan: await planImportOffThread(project.id, { files, ...request }) });
 		return json(await importSoundingsOffThread(project.id, user.id, { files, ...request }), { status: 201 });

@@ -1,5 +1,5 @@
 import { json } from '@sveltejs/kit';
-import { ApiError, endpoint } from '$lib/server/api';
+import { endpoint, parseQuery } from '$lib/server/api';
 import { requireProjectRole } from '$lib/server/auth/guard';
 import { CAPABILITIES } from '$lib/server/auth/roles';
 import { readingsPageSchema } from '$lib/server/services/sounding-readings';
@@ -11,9 +11,8 @@ import { deleteSounding, soundingDetailView } from '$lib/server/services/soundin
  */
 export const GET = endpoint((event) => {
 	const { project } = requireProjectRole(event, event.params.id, CAPABILITIES.read);
-	const page = readingsPageSchema.safeParse(Object.fromEntries(event.url.searchParams));
-	if (!page.success) throw new ApiError(422, 'The readings page is not valid.', page.error.issues.map((i) => ({ path: i.path.map(String), message: i.message })));
-	return json(soundingDetailView(project.id, event.params.sid ?? '', page.data, event.url));
+	const page = parseQuery(event.url, readingsPageSchema, 'readings page');
+	return json(soundingDetailView(project.id, event.params.sid ?? '', page, event.url));
 });
 
 export const DELETE = endpoint((event) => {

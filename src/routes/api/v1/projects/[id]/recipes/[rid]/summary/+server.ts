@@ -1,5 +1,5 @@
 import { json } from '@sveltejs/kit';
-import { ApiError, endpoint } from '$lib/server/api';
+import { endpoint, parseQuery } from '$lib/server/api';
 import { requireProjectRole } from '$lib/server/auth/guard';
 import { CAPABILITIES } from '$lib/server/auth/roles';
 import { summaryQuerySchema } from '$lib/schemas/recipe';
@@ -9,10 +9,7 @@ import { recipeSummary } from '$lib/server/services/summaries';
 /** An ensemble map over the recipe's N realizations: ?stat=mean|sd|p10|p50|p90|below&threshold=… */
 export const GET = endpoint(async (event) => {
 	const { project } = requireProjectRole(event, event.params.id, CAPABILITIES.read);
-	const query = summaryQuerySchema.safeParse(Object.fromEntries(event.url.searchParams));
-	if (!query.success) {
-		throw new ApiError(422, 'The summary query is not valid.', query.error.issues.map((i) => ({ path: i.path.map(String), message: i.message })));
-	}
-	const s = await recipeSummary(project.id, event.params.rid ?? '', query.data.stat, query.data.threshold);
+	const query = parseQuery(event.url, summaryQuerySchema, 'summary query');
+	const s = await recipeSummary(project.id, event.params.rid ?? '', query.stat, query.threshold);
 	return json({ hash: s.hash, stat: s.stat, threshold: s.threshold, realizations: s.realizations, values: jsonColumn(s.values) });
 });

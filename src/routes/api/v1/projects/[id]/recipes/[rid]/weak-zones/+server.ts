@@ -1,5 +1,5 @@
 import { json } from '@sveltejs/kit';
-import { ApiError, endpoint } from '$lib/server/api';
+import { endpoint, parseQuery } from '$lib/server/api';
 import { requireProjectRole } from '$lib/server/auth/guard';
 import { CAPABILITIES } from '$lib/server/auth/roles';
 import { weakZonesQuerySchema } from '$lib/schemas/recipe';
@@ -9,11 +9,8 @@ import { recipeWeakZonesOf } from '$lib/server/services/weak-zones';
 /** Weak-zone continuity over the recipe's N realizations: ?property=…&threshold=…&minLength=…&boundary=… */
 export const GET = endpoint(async (event) => {
 	const { project } = requireProjectRole(event, event.params.id, CAPABILITIES.read);
-	const query = weakZonesQuerySchema.safeParse(Object.fromEntries(event.url.searchParams));
-	if (!query.success) {
-		throw new ApiError(422, 'The weak-zones query is not valid.', query.error.issues.map((i) => ({ path: i.path.map(String), message: i.message })));
-	}
-	const w = await recipeWeakZonesOf(project.id, event.params.rid ?? '', query.data);
+	const query = parseQuery(event.url, weakZonesQuerySchema, 'weak-zones query');
+	const w = await recipeWeakZonesOf(project.id, event.params.rid ?? '', query);
 	return json({
 		property: w.property,
 		threshold: w.threshold,
