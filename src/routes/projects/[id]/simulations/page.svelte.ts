@@ -78,7 +78,7 @@ export class SimulationsPage {
 			this.run = run;
 			this.viewer = new FieldViewer(view, recipe, run, this.engine);
 			this.review = new RecipeReview(this.api, recipeId, (changed) => this.changed(changed));
-			this.weak = new WeakZoneStudy(this.api, [recipeId], this.viewer.properties, this.boundaries, this.lengthUnit);
+			this.weak = new WeakZoneStudy(this.api, [recipeId], this.viewer.properties, this.boundaries, this.lengthUnit, { [recipeId]: view.provenance.percentiles });
 			void this.review.load();
 		} catch (err) {
 			if (ticket === this.opened) this.problem = (err as Error).message;

@@ -29,6 +29,11 @@ export interface WeakZoneFigures {
 	crossings: number;
 	/** The probability map, NaN where the property is not simulated. */
 	map: Float64Array;
+	/**
+	 * A uniform baseline's figures field by field, one a percentile (its realizations are not a sample of a
+	 * distribution, so P10/P50/P90 over them would mislead); absent for a stochastic recipe.
+	 */
+	byPercentile?: { percentile: number; extent: number; zones: number; area: number; crosses: boolean | null }[];
 }
 
 const median = (v: number[]) => {
@@ -59,7 +64,9 @@ export class WeakZoneStudy {
 		readonly recipeIds: string[],
 		readonly properties: SimulatedProperty[],
 		readonly boundaries: BoundaryChoice[],
-		lengthUnit: 'm' | 'ft'
+		lengthUnit: 'm' | 'ft',
+		/** The percentiles of the uniform baselines among the recipes, by recipe id. */
+		private readonly percentiles: Record<string, number[] | undefined> = {}
 	) {
 		this.property = properties.includes('qc1Ncs') ? 'qc1Ncs' : properties[0];
 		// A round screening figure for clean sands as the issue's example puts it; others start empty.
@@ -93,7 +100,7 @@ export class WeakZoneStudy {
 		const query = { property: this.property, threshold: Number(this.threshold), minLength: this.minLength.trim() === '' ? 0 : Number(this.minLength), boundary: this.boundaryId || null };
 		const out: Record<string, WeakZoneFigures> = {};
 		try {
-			for (const id of this.recipeIds) out[id] = figuresOf(await this.api.weakZones(id, query));
+			for (const id of this.recipeIds) out[id] = figuresOf(await this.api.weakZones(id, query), this.percentiles[id]);
 			this.results = out;
 		} catch (err) {
 			this.problem = (err as Error).message;
@@ -104,10 +111,15 @@ export class WeakZoneStudy {
 	}
 }
 
-/** The table's figures of one weak-zones answer. */
-export function figuresOf(w: WeakZonesJson): WeakZoneFigures {
+/** The table's figures of one weak-zones answer; with `percentiles` (a uniform baseline's) also field by field. */
+export function figuresOf(w: WeakZonesJson, percentiles?: number[]): WeakZoneFigures {
 	const r = w.realizations;
+	const byPercentile =
+		percentiles && percentiles.length === r.length
+			? r.map((x, k) => ({ percentile: percentiles[k], extent: x.largestExtent, zones: x.zones, area: x.largestArea, crosses: x.crossesBoundary }))
+			: undefined;
 	return {
+		...(byPercentile ? { byPercentile } : {}),
 		realizations: r.length,
 		extent: largestExtentQuantiles(r),
 		zones: median(r.map((x) => x.zones)),

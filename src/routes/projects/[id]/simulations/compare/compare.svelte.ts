@@ -129,7 +129,7 @@ export class RecipeComparison {
 			const props = this.properties;
 			if (!props.includes(this.property)) this.property = props[0];
 			this.section ??= await this.api.section(this.property);
-			this.weak = new WeakZoneStudy(this.api, ids, props, boundaryChoices(this.boundaries, this.units, this.lengthUnit), this.lengthUnit);
+			this.weak = new WeakZoneStudy(this.api, ids, props, boundaryChoices(this.boundaries, this.units, this.lengthUnit), this.lengthUnit, Object.fromEntries(items.map((it) => [it.id, it.view.provenance.percentiles])));
 			await this.fetchMaps(['mean', 'sd', 'p10', 'p50', 'p90'], ticket);
 			if (this.threshold.trim() !== '') await this.fetchBelow(ticket);
 		} catch (err) {
