@@ -201,6 +201,22 @@ describe('weakZoneFigures(labels, grid, side)', () => {
 		});
 	});
 
+	it('weakZoneFigures with variable cell heights: the largest area sums its cells’ heights × Δx; labels and extents are those of the regular grid', () => {
+		// Rows from the bottom 2, 0.5, 0.25 high: the 2-cell tall zone low down outweighs the 5-cell one near the top.
+		const s = section(['.#####.', '.......', '##.....'], 3, 1);
+		const heights = [2, 0.5, 0.25];
+		const varied: WeakZoneGrid = { ...s.grid, heights };
+		const regular = labelWeakZones(s.values, s.grid, 100, s.eligible);
+		const z = labelWeakZones(s.values, varied, 100, s.eligible);
+		expect(Array.from(z.labels)).toEqual(Array.from(regular.labels));
+		expect(Array.from(z.extent)).toEqual(Array.from(regular.extent));
+		expect(Array.from(z.heightSum!)).toEqual([2 + 2, 5 * 0.25]);
+		expect(regular.heightSum).toBeUndefined();
+		expect(weakZoneFigures(z, varied)).toEqual({ zones: 2, largestExtent: 15, largestArea: 4 * 3, crossesBoundary: null });
+		expect(weakZoneFigures(regular, s.grid).largestArea).toBe(5 * 3 * 1);
+		expect(() => labelWeakZones(s.values, { ...s.grid, heights: [1, 1] }, 100, s.eligible)).toThrow('heights need one entry a row of cells');
+	});
+
 	it('weakZoneFigures gives a volume in 3D (cells × Δx × Δy × Δz)', () => {
 		const grid: WeakZoneGrid = { counts: { x: 2, y: 2, z: 1 }, spacing: { x: 2, y: 3, z: 0.5 } };
 		const z = labelWeakZones(Float64Array.from([1, 1, 1, 9]), grid, 5, new Uint8Array(4).fill(1));

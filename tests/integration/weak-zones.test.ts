@@ -199,6 +199,28 @@ describe('GET /api/v1/projects/:id/recipes/:rid/weak-zones', () => {
 		expect((await errorOf(res)).issues!.map((i) => i.path.join('.'))).toEqual(['boundary']);
 	});
 
+	it('a uniform baseline on an uploaded mesh: its values per element are the domains’ percentiles; weak zones are refused (422: not a grid)', async () => {
+		const rows = ['element,x,y'];
+		for (let c = 0; c < 20; c++) for (let k = 0; k < 10; k++) rows.push(`E${c}-${k},${10 + 20 * c},${(-0.5 - k).toFixed(1)}`);
+		const body = new FormData();
+		body.append('file', new Blob([rows.join('\n') + '\n']), 'baseline-mesh.csv');
+		body.append('options', JSON.stringify({ name: `Baseline mesh ${crypto.randomUUID().slice(0, 6)}`, mapping: { id: 'element', x: 'x', z: 'y' } }));
+		const up = await analyst.fetch(`/api/v1/projects/${projectId}/meshes`, { method: 'POST', body });
+		expect(up.status).toBe(201);
+		const mesh = (await up.json()).mesh;
+		const made = await created({ kind: 'uniform', name: 'Baseline on the mesh', zonationId: grouped.id, percentiles: [50], mesh: { meshId: mesh.id, assign: 'stratigraphy' }, domains: grouped.domains.map((d) => ({ domainId: d.id, simulate: true })) });
+		const doc = JSON.parse(await (await viewer.fetch(`${base}/${made.id}/recipe.json`)).text());
+		expect(doc.targets.kind).toBe('points');
+		const values = (await (await viewer.json('GET', `${base}/${made.id}/realizations/0`)).json()).values as (number | null)[];
+		doc.targets.domain.forEach((d: number, e: number) => {
+			const p = made.provenance.domains.find((x) => x.index === d);
+			expect(values[e]).toBe(p ? p.values![0] : null);
+		});
+		const res = await viewer.json('GET', `${base}/${made.id}/weak-zones?property=qc1Ncs&threshold=100`);
+		expect(res.status).toBe(422);
+		expect((await errorOf(res)).message).toMatch(/elements of a mesh/);
+	});
+
 	it('a viewer may read it (reading is the viewer capability); the same query twice is the same answer from the cache', async () => {
 		const q = `?property=qc1Ncs&threshold=90&minLength=10&boundary=${boundary.id}`;
 		const [a, b] = await Promise.all([viewer.json('GET', url + q), analyst.json('GET', url + q)]);

@@ -37,4 +37,15 @@ describe('boundarySides(grid, line, section)', () => {
 			}
 		expect(new Set(boundarySides(block, vertical, { geometry: '3d', sectionLine: null }))).toEqual(new Set([-1]));
 	});
+
+	it('boundarySides on a rectilinear grid reads each row at its listed elevation, not origin + k·spacing', () => {
+		// Rows centred at −3.5, −1 and −0.25, as a rectilinear grid lists them.
+		const rect = { ...grid, counts: { x: 10, y: 1, z: 3 }, z: [-3.5, -1, -0.25] };
+		const sides = boundarySides(rect, line, { geometry: '2d', sectionLine: null });
+		for (let k = 0; k < 3; k++)
+			for (let i = 0; i < 10; i++) expect(sides[i + 10 * k], `cell ${i},${k}`).toBe(zoneOf([line], grid.origin.x + i * grid.spacing.x, rect.z[k]));
+		// At −1 the line is at 4.7: cells from 5.5 on are east; at −0.25 at 4.325: from 4.5.
+		expect(Array.from(sides.subarray(10, 20))).toEqual([0, 0, 0, 0, 0, 1, 1, 1, 1, 1]);
+		expect(Array.from(sides.subarray(20, 30))).toEqual([0, 0, 0, 0, 1, 1, 1, 1, 1, 1]);
+	});
 });

@@ -1,9 +1,14 @@
 import { midpointQuantile } from './ensemble-map';
 
-/** The grid the realizations are on: cell counts and sizes, x fastest, then y, then z (the engine's target order). */
+/**
+ * The grid the realizations are on: cell counts and sizes, x fastest, then y, then z (the engine's target order).
+ * A rectilinear grid of variable cell heights (uniform columns, as the recipe setup makes them) gives `heights`, the
+ * height of each row of cells from the bottom (counts.z entries); spacing.z is then not used.
+ */
 export interface WeakZoneGrid {
 	counts: { x: number; y: number; z: number };
 	spacing: { x: number; y: number; z: number };
+	heights?: ArrayLike<number>;
 }
 
 /** The weak zones of one realization, labelled. */
@@ -15,6 +20,8 @@ export interface WeakZoneLabels {
 	cells: Int32Array;
 	/** Horizontal extent of each zone: its span of columns × the cell width (the larger of x and y in 3D). */
 	extent: Float64Array;
+	/** With variable cell heights: the sum of the heights of each zone's cells (its area ÷ Δx, or volume ÷ ΔxΔy). */
+	heightSum?: Float64Array;
 }
 
 /** What the weak zones of one realization come to (see weakZoneFigures). */
@@ -64,16 +71,21 @@ export interface WeakZoneSummary {
  * from each unlabelled weak cell in grid order, which gives the same components as any labelling algorithm.
  * A zone's horizontal extent is its span of columns, (i_max − i_min + 1)·Δx; in 3D the larger of that and
  * (j_max − j_min + 1)·Δy. A face-connected zone covers every column of its span, so this is also its number of
- * columns × the cell width. Arithmetic only. Does not mutate its inputs.
- * @throws {RangeError} when values or eligible do not have one entry a cell, or the threshold is not finite
+ * columns × the cell width. With variable cell heights (grid.heights) each zone also sums its cells' heights.
+ * Arithmetic only. Does not mutate its inputs.
+ * @throws {RangeError} when values or eligible do not have one entry a cell, heights not one a row, or the threshold
+ *   is not finite
  */
 export function labelWeakZones(values: ArrayLike<number>, grid: WeakZoneGrid, threshold: number, eligible: Uint8Array): WeakZoneLabels {
 	const { x: nx, y: ny, z: nz } = grid.counts;
 	const n = nx * ny * nz;
 	if (values.length !== n || eligible.length !== n) throw new RangeError('values and eligible need one entry a cell');
 	if (!Number.isFinite(threshold)) throw new RangeError('the threshold must be finite');
+	const heights = grid.heights;
+	if (heights && heights.length !== nz) throw new RangeError('heights need one entry a row of cells');
 	const labels = new Int32Array(n).fill(-1);
 	const cells: number[] = [];
+	const heightSums: number[] = [];
 	const extent: number[] = [];
 	const stack = new Int32Array(n);
 	const plane = nx * ny;
@@ -86,6 +98,7 @@ export function labelWeakZones(values: ArrayLike<number>, grid: WeakZoneGrid, th
 		stack[top++] = start;
 		labels[start] = zone;
 		let count = 0;
+		let heightSum = 0;
 		let iMin = nx;
 		let iMax = -1;
 		let jMin = ny;
@@ -96,6 +109,7 @@ export function labelWeakZones(values: ArrayLike<number>, grid: WeakZoneGrid, th
 			const i = c % nx;
 			const j = Math.floor(c / nx) % ny;
 			const k = Math.floor(c / plane);
+			if (heights) heightSum += heights[k];
 			if (i < iMin) iMin = i;
 			if (i > iMax) iMax = i;
 			if (j < jMin) jMin = j;
@@ -114,27 +128,31 @@ export function labelWeakZones(values: ArrayLike<number>, grid: WeakZoneGrid, th
 			if (k < nz - 1) visit(c + plane);
 		}
 		cells.push(count);
+		heightSums.push(heightSum);
 		const ex = (iMax - iMin + 1) * grid.spacing.x;
 		const ey = ny > 1 ? (jMax - jMin + 1) * grid.spacing.y : 0;
 		extent.push(ex >= ey ? ex : ey);
 	}
-	return { labels, zones, cells: Int32Array.from(cells), extent: Float64Array.from(extent) };
+	return { labels, zones, cells: Int32Array.from(cells), extent: Float64Array.from(extent), ...(heights ? { heightSum: Float64Array.from(heightSums) } : {}) };
 }
 
 /**
  * The figures of one labelled realization: the number of weak zones, the greatest horizontal extent and the
- * greatest area (section: cells × Δx × Δz) or volume (block: cells × Δx × Δy × Δz) of any zone — the longest
- * zone and the largest may be different zones; the longest is what continuity is about — and whether a weak zone
- * crosses the boundary: it holds at least one cell with side 0 and one with side 1. Since a zone is face-
+ * greatest area (section: cells × Δx × Δz) or volume (block: cells × Δx × Δy × Δz) of any zone (with variable cell
+ * heights: the sum of its cells' heights × Δx, × Δy in a block) — the longest zone and the largest may be
+ * different zones; the longest is what continuity is about — and whether a weak zone crosses the boundary: it holds at least one cell with side 0 and one with side 1. Since a zone is face-
  * connected, such a zone has two face-neighbouring cells on either side of the boundary line.
  */
 export function weakZoneFigures(z: WeakZoneLabels, grid: WeakZoneGrid, side?: Int8Array, section = grid.counts.y === 1): RealizationWeakZones {
-	const cellSize = section ? grid.spacing.x * grid.spacing.z : grid.spacing.x * grid.spacing.y * grid.spacing.z;
+	const column = section ? grid.spacing.x : grid.spacing.x * grid.spacing.y;
+	// Regular rows: whole cells × the cell size (exact for the counts); variable rows: the zone's summed heights.
+	const size = z.heightSum ? z.heightSum : z.cells;
+	const unit = z.heightSum ? column : column * grid.spacing.z;
 	let largestExtent = 0;
-	let largestCells = 0;
+	let largestSize = 0;
 	for (let k = 0; k < z.zones; k++) {
 		if (z.extent[k] > largestExtent) largestExtent = z.extent[k];
-		if (z.cells[k] > largestCells) largestCells = z.cells[k];
+		if (size[k] > largestSize) largestSize = size[k];
 	}
 	let crossesBoundary: boolean | null = null;
 	if (side) {
@@ -149,7 +167,7 @@ export function weakZoneFigures(z: WeakZoneLabels, grid: WeakZoneGrid, side?: In
 			if (seen[zone] === 3) crossesBoundary = true;
 		}
 	}
-	return { zones: z.zones, largestExtent, largestArea: largestCells * cellSize, crossesBoundary };
+	return { zones: z.zones, largestExtent, largestArea: largestSize * unit, crossesBoundary };
 }
 
 /**

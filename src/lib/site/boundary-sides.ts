@@ -1,6 +1,6 @@
 import { projectOntoPolyline, type Polyline } from './project-onto-polyline';
 import { boundaryChainageAt, type BoundaryLine } from './zone-of';
-import type { GridDefinition } from './grid-domains';
+import { cellElevation, type GridDefinition } from './grid-domains';
 
 /**
  * Which side of a zone boundary each cell centre of a grid lies on, in the engine's target order (x fastest,
@@ -8,7 +8,8 @@ import type { GridDefinition } from './grid-domains';
  * (the side zoneOf counts as the next zone), 0 when east of it; the line is taken as extending above and below
  * its end points across the whole grid, as zoneOf takes it. A cell's chainage is its x in a section (2D), its
  * projection onto the section line in plan in 3D; −1 where it cannot be told (3D without a section line, or a
- * non-finite projection). Coordinates are computed as the engine computes its targets (origin + index·spacing).
+ * non-finite projection). Coordinates are computed as the engine computes its targets (origin + index·spacing;
+ * the listed elevations of a rectilinear grid's rows, `z`).
  */
 export function boundarySides(grid: GridDefinition, line: BoundaryLine, section: { geometry: '2d' | '3d'; sectionLine: Polyline | null }): Int8Array {
 	const { origin, spacing, counts } = grid;
@@ -26,7 +27,7 @@ export function boundarySides(grid: GridDefinition, line: BoundaryLine, section:
 		}
 	}
 	for (let k = 0; k < counts.z; k++) {
-		const at = boundaryChainageAt(line, origin.z + k * spacing.z);
+		const at = boundaryChainageAt(line, cellElevation(grid, k));
 		for (let p = 0; p < plane; p++) {
 			const c = chainages[p];
 			out[p + plane * k] = Number.isFinite(c) && Number.isFinite(at) ? (at <= c ? 1 : 0) : -1;

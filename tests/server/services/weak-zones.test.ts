@@ -13,7 +13,7 @@ import { stopRealizations } from '../../../src/lib/server/realizations';
 import { regenerate, type Recipe } from '../../../src/lib/geostat/index';
 import { boundarySides } from '../../../src/lib/site/index';
 import { expandRuns } from '../../../src/lib/plots/raster';
-import { expectSameBits } from '../../asserts';
+import { expectAbsClose, expectSameBits } from '../../asserts';
 import { recipeSetupSchema } from '../../../src/lib/schemas/recipe';
 
 let db: Db;
@@ -108,6 +108,50 @@ describe('recipeWeakZonesOf(projectId, recipeId, query)', () => {
 			w.probabilityMap,
 			Float64Array.from(hits, (h, c) => (eligible[c] ? h / 4 : NaN))
 		);
+	});
+
+	it('on a grid of variable cell heights: the same labelling, areas summing the rows’ heights (the provenance’s cell edges), sides at the listed elevations', async () => {
+		const userId = db.select({ id: users.id }).from(users).where(eq(users.email, 'analyst@conefield.test')).get()!.id;
+		const grouped = listZonations(projectId, db).find((z) => z.name === 'Sand grouped')!;
+		const grid = { ...coarse, elevation: { ...coarse.elevation, heights: { bands: [{ from: -6, to: 2, cell: 0.25 }] } } };
+		const made = createRecipe(
+			projectId,
+			userId,
+			recipeSetupSchema.parse({ name: 'Weak, fine band', zonationId: grouped.id, seed: 'weak-rect', realizations: 3, grid, domains: grouped.domains.map((d) => ({ domainId: d.id, simulate: true })) }),
+			db
+		).recipe;
+		const rect = loadRecipe(projectId, made.id, db).recipe;
+		if (rect.targets.kind !== 'rectilinear') throw new Error('expected a rectilinear recipe');
+		const t = rect.targets;
+		const edges = made.provenance.grid!.zEdges!;
+		const heights = t.z.map((_, k) => edges[k + 1] - edges[k]);
+		expect(new Set(heights).size).toBeGreaterThan(1);
+		const boundary = listZoneBoundaries(projectId, db)[0];
+		const w = await recipeWeakZonesOf(projectId, made.id, { property: 'qc1Ncs', threshold: 100, minLength: 20, boundary: boundary.id }, db);
+		const domainOf = expandRuns(t.domainRuns);
+		const eligible = Uint8Array.from(domainOf, (d) => (w.domains.includes(d) ? 1 : 0));
+		const nx = t.x.length;
+		const dx = t.x[1] - t.x[0];
+		// The side of each cell centre, from the boundary line at the row's own elevation (written here).
+		const side = Array.from(domainOf, (_, c) => {
+			const z = t.z[Math.floor(c / nx)];
+			const f = (boundary.elevationTop - z) / (boundary.elevationTop - boundary.elevationBottom);
+			return boundary.chainageTop + f * (boundary.chainageBottom - boundary.chainageTop) <= t.x[c % nx] ? 1 : 0;
+		});
+		for (let r = 0; r < 3; r++) {
+			const { zones } = bfsZones(regenerate(rect, r), eligible, nx, t.z.length, 100);
+			const area = (cells: number[]) => cells.reduce((a, c) => a + heights[Math.floor(c / nx)], 0) * dx;
+			const extent = zones.map((z) => {
+				const cols = z.cells.map((c) => c % nx);
+				return (Math.max(...cols) - Math.min(...cols) + 1) * dx;
+			});
+			expect(w.realizations[r].zones).toBe(zones.length);
+			expect(w.realizations[r].largestExtent).toBe(Math.max(0, ...extent));
+			// Summed in another order here: equal to a few ulps.
+			expectAbsClose(w.realizations[r].largestArea, Math.max(0, ...zones.map((z) => area(z.cells))), 1e-9, `realization ${r} area`);
+			expect(w.realizations[r].crossesBoundary).toBe(zones.some((z) => z.cells.some((c) => side[c] === 0) && z.cells.some((c) => side[c] === 1)));
+		}
+		expect(w.realizations.some((x) => x.zones > 0)).toBe(true);
 	});
 
 	it('is cached by hash, property, threshold, minimum length and boundary line, and computed identically after the cache is deleted', async () => {

@@ -6,9 +6,10 @@
  * liquefaction triggering or deformation analysis.
  */
 import { and, eq } from 'drizzle-orm';
-import type { RealizationWeakZones } from '$lib/ensemble';
+import type { RealizationWeakZones, WeakZoneGrid } from '$lib/ensemble';
+import type { Recipe } from '$lib/geostat';
 import { PROPERTY_INFO, type SimulatedProperty } from '$lib/properties';
-import { boundarySides } from '$lib/site';
+import { boundarySides, type GridDefinition } from '$lib/site';
 import { getDb } from '$lib/server/db';
 import { fromFloat64Blob, toFloat64Blob } from '$lib/server/db/float64';
 import { recipeWeakZones } from '$lib/server/db/recipe-schema';
@@ -48,8 +49,10 @@ const computing = new Map<string, Promise<{ figures: CachedFigures; map: Float64
  * or computed on the worker pool and cached. Weak cells are those of the domains simulating `property` with a
  * value strictly below `threshold`; zones join across those domains. With a zone boundary, crossesBoundary tells
  * whether a weak zone holds cells on both sides of its line (boundarySides: the line extended across the grid).
+ * On a grid of variable cell heights (rectilinear targets) the zones are labelled the same way and their areas
+ * sum the heights of their rows (the provenance's cell edges).
  * @throws ServiceError 404 for a recipe not in the project; InvalidInput (422) for a property the recipe does
- *   not simulate, a boundary not in the project, targets that are not a regular grid, or a 3D boundary without
+ *   not simulate, a boundary not in the project, targets that are not a grid (a mesh), or a 3D boundary without
  *   a section line
  */
 export async function recipeWeakZonesOf(projectId: string, recipeId: string, query: WeakZonesQuery, db: DbOrTx = getDb()): Promise<WeakZonesResult> {
@@ -61,10 +64,10 @@ export async function recipeWeakZonesOf(projectId: string, recipeId: string, que
 		const has = [...new Set(view.provenance.domains.filter((d) => d.index !== null).map((d) => PROPERTY_INFO[d.property].label))];
 		throw new InvalidInput(`${view.name} does not simulate ${PROPERTY_INFO[property].label}; it simulates ${has.join(', ')}.`, [{ path: ['property'], message: `Choose one of: ${has.join(', ')}.` }]);
 	}
-	if (recipe.targets.kind !== 'grid') {
-		throw new InvalidInput('Weak zones are labelled on a regular grid; this recipe’s targets are not one.', [{ path: [], message: 'Not a grid.' }]);
+	const grid = labelledGrid(recipe, view.provenance.grid?.zEdges);
+	if (!grid) {
+		throw new InvalidInput('Weak zones are labelled on a grid of cells; this recipe’s targets are the elements of a mesh.', [{ path: [], message: 'Not a grid.' }]);
 	}
-	const targets = recipe.targets;
 	let line: { chainageTop: number; elevationTop: number; chainageBottom: number; elevationBottom: number } | null = null;
 	if (query.boundary) {
 		const found = listZoneBoundaries(projectId, db).find((b) => b.id === query.boundary);
@@ -94,11 +97,11 @@ export async function recipeWeakZonesOf(projectId: string, recipeId: string, que
 	if (cached) return { property, threshold, minLength, ...(cached.figures as CachedFigures), probabilityMap: fromFloat64Blob(cached.map) };
 
 	checkEngine(recipe);
-	const { counts, spacing } = targets;
+	const { counts, spacing, heights } = grid;
 	const site = getSite(projectId, db);
 	let side: Int8Array | undefined;
 	if (line) {
-		side = boundarySides({ origin: targets.origin, spacing, counts }, line, { geometry: site.geometry, sectionLine: site.sectionLine });
+		side = boundarySides(grid.definition, line, { geometry: site.geometry, sectionLine: site.sectionLine });
 		if (side.every((s) => s < 0)) throw new InvalidInput('A boundary in 3D needs the section line to place it: set one under Stratigraphy.', [{ path: ['boundary'], message: 'No section line.' }]);
 	}
 	const id = Object.values(key).join('|');
@@ -107,13 +110,13 @@ export async function recipeWeakZonesOf(projectId: string, recipeId: string, que
 		const eligible = new Uint8Array(counts.x * counts.y * counts.z);
 		let p = 0;
 		const wanted = new Set(domains);
-		for (const [d, len] of targets.domainRuns) {
+		for (const [d, len] of recipe.targets.kind === 'points' ? [] : recipe.targets.domainRuns) {
 			if (wanted.has(d)) eligible.fill(1, p, p + len);
 			p += len;
 		}
 		job = ensembleOf(hash, recipe)
 			.then((realizations) =>
-				weakZonesOffThread(realizations, { counts, spacing }, { threshold, eligible, minLength, side, section: site.geometry === '2d' })
+				weakZonesOffThread(realizations, { counts, spacing, ...(heights ? { heights } : {}) }, { threshold, eligible, minLength, side, section: site.geometry === '2d' })
 			)
 			.then((sum) => {
 				const figures: CachedFigures = {
@@ -129,4 +132,24 @@ export async function recipeWeakZonesOf(projectId: string, recipeId: string, que
 	}
 	const { figures, map } = await job;
 	return { property, threshold, minLength, ...figures, probabilityMap: map };
+}
+
+/**
+ * The grid a recipe's zones are labelled on: a regular grid as it is; a rectilinear one (uniform columns, variable
+ * cell heights) with its rows' heights from the cell edges the setup resolved (`zEdges` of the provenance) and its
+ * rows' listed elevations for the boundary sides; null for a mesh's points.
+ * @throws InvalidInput (422) for a rectilinear recipe without its cell edges
+ */
+function labelledGrid(recipe: Recipe, zEdges: number[] | undefined): { counts: WeakZoneGrid['counts']; spacing: WeakZoneGrid['spacing']; heights?: number[]; definition: GridDefinition } | null {
+	const t = recipe.targets;
+	if (t.kind === 'grid') return { counts: t.counts, spacing: t.spacing, definition: { origin: t.origin, spacing: t.spacing, counts: t.counts } };
+	if (t.kind !== 'rectilinear') return null;
+	const step = (a: number[]) => (a.length > 1 ? a[1] - a[0] : 1);
+	const counts = { x: t.x.length, y: t.y.length, z: t.z.length };
+	if (!zEdges || zEdges.length !== t.z.length + 1) {
+		throw new InvalidInput('This recipe does not record its cells’ heights, which the zones’ areas need.', [{ path: [], message: 'No cell edges.' }]);
+	}
+	const heights = t.z.map((_, k) => zEdges[k + 1] - zEdges[k]);
+	const spacing = { x: step(t.x), y: step(t.y), z: NaN };
+	return { counts, spacing, heights, definition: { origin: { x: t.x[0], y: t.y[0], z: t.z[0] }, spacing, counts, z: t.z } };
 }
