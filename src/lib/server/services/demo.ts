@@ -7,6 +7,7 @@ import { seedDemoStratigraphy } from './demo-stratigraphy';
 import { seedDemoVariograms } from './demo-variograms';
 import { seedDemoRecipes } from './demo-simulations';
 import { asActor } from './audit';
+import { seedDemoTransfers } from './demo-transfers';
 
 /** The demo accounts. Their passwords are printed in the README: for a local demo only. */
 export const DEMO_ACCOUNTS: ReadonlyArray<{
@@ -33,8 +34,8 @@ export const DEMO_PROJECT = {
 /**
  * Seeds the demo accounts and project into an empty database (no users yet); does nothing otherwise: the
  * accounts, the project, its soundings and stratigraphy in one transaction, then a saved variogram for every
- * domain (seedDemoVariograms) and the recipes (seedDemoRecipes), by the analyst. Returns the demo project's id
- * when it seeded. Later stages add their demo data here.
+ * domain (seedDemoVariograms), the recipes (seedDemoRecipes) by the analyst, and a transfer set (seedDemoTransfers).
+ * Returns the demo project's id when it seeded. Later stages add their demo data here.
  */
 export async function seedDemo(db: Db): Promise<string | null> {
 	const existing = db.select({ n: count() }).from(users).get()?.n ?? 0;
@@ -64,5 +65,6 @@ export async function seedDemo(db: Db): Promise<string | null> {
 	// Computed outside the first transaction (the variograms are computed asynchronously, as in the workspace).
 	await seedDemoVariograms(db, seeded.projectId, seeded.analystId);
 	seedDemoRecipes(db, seeded.projectId, seeded.analystId);
+	seedDemoTransfers(db, seeded.projectId, seeded.analystId);
 	return seeded.projectId;
 }
