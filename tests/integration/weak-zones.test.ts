@@ -174,7 +174,7 @@ describe('GET /api/v1/projects/:id/recipes/:rid/weak-zones', () => {
 	});
 
 	it('refuses a missing or non-numeric threshold, a negative minLength, an unknown property, one the recipe does not simulate, and a foreign boundary (422)', async () => {
-		for (const q of ['property=qc1Ncs', 'property=qc1Ncs&threshold=abc', 'property=qc1Ncs&threshold=100&minLength=-1', 'property=nope&threshold=1', 'property=Dr&threshold=50', 'property=qc1Ncs&threshold=100&boundary=nope']) {
+		for (const q of ['property=qc1Ncs', 'property=qc1Ncs&threshold=abc', 'property=qc1Ncs&threshold=Infinity', 'property=qc1Ncs&threshold=100&minLength=-1', 'property=qc1Ncs&threshold=100&minLength=1e999', 'property=nope&threshold=1', 'property=Dr&threshold=50', 'property=qc1Ncs&threshold=100&boundary=nope']) {
 			const res = await viewer.json('GET', `${url}?${q}`);
 			expect(res.status, q).toBe(422);
 			expect((await errorOf(res)).code).toBe('invalid');
