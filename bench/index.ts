@@ -17,7 +17,8 @@ const MODULES: (() => Promise<{ default: BenchCase[] }>)[] = [
 	() => import('./import-latency'),
 	() => import('./demo-run'),
 	() => import('./browser-run'),
-	() => import('./exports')
+	() => import('./exports'),
+	() => import('./weak-zones')
 ];
 
 const only = process.argv[2];
