@@ -18,6 +18,7 @@ const MODULES: (() => Promise<{ default: BenchCase[] }>)[] = [
 	() => import('./demo-run'),
 	() => import('./browser-run'),
 	() => import('./exports'),
+	() => import('./weak-zones'),
 	() => import('./queue')
 ];
 

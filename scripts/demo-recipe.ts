@@ -17,7 +17,7 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { derive, parseGef, type ParsedSounding } from '../src/lib/cpt/index';
-import { cellDeclusterWeights, createRecipe, type DomainInput, type Recipe, type Sample, type SearchOptions, type VariogramModel } from '../src/lib/geostat/index';
+import { cellDeclusterWeights, createRecipe, type DomainInput, type SgsRecipe, type Sample, type SearchOptions, type VariogramModel } from '../src/lib/geostat/index';
 import {
 	BOTTOM_ELEVATION,
 	CHANNEL_AXIS,
@@ -99,7 +99,7 @@ export function demoDomainSamples(): Sample[][] {
  * The demo-like recipe: five normal-score domains with simple kriging, declustered data, one model and search
  * for all (see DemoRecipeOptions), on the section grid (cells above the ground are not simulated).
  */
-export function demoRecipe(options: DemoRecipeOptions = {}): Recipe {
+export function demoRecipe(options: DemoRecipeOptions = {}): SgsRecipe {
 	const {
 		seed = 'demo-section',
 		model = { azimuth: 90, structures: [{ type: 'exponential', sill: 1, rangeMajor: 40, rangeMinor: 40, rangeVertical: 0.9 }] },

@@ -16,6 +16,7 @@ import { initialAdminEmail, seedDemoEnabled } from '$lib/server/config';
 import { crossSiteRefusal, refuseUnread } from '$lib/server/csrf';
 import { userForApiToken } from '$lib/server/services/tokens';
 import { apiError } from '$lib/server/api';
+import { asActor } from '$lib/server/services/audit';
 
 /**
  * Opens and migrates the database, starts mail, seeds the demo into an empty database when SEED_DEMO is on,
@@ -59,7 +60,8 @@ const csrf: Handle = async ({ event, resolve }) => {
  * considered (a bad token is a 401 even with a session cookie). Otherwise the Auth.js session: its JWT must
  * name an active server-side session (checked, and touched at most once a minute, in the jwt callback that
  * `locals.auth()` runs) and its user must still be enabled, so sign-out, password changes, disabling and
- * ended sessions take effect at the next request.
+ * ended sessions take effect at the next request. The rest of the request acts for that user (asActor): the
+ * audit log names them for the changes it makes.
  */
 const identify: Handle = async ({ event, resolve }) => {
 	event.locals.user = null;
@@ -73,7 +75,7 @@ const identify: Handle = async ({ event, resolve }) => {
 		if (!owner) return refuseUnread(event.request, apiError(401, 'The API token is missing, unknown, expired or revoked.'));
 		event.locals.user = { id: owner.id, email: owner.email, name: owner.name, siteRole: owner.siteRole };
 		event.locals.authVia = 'token';
-		return resolve(event);
+		return asActor(owner.id, () => resolve(event));
 	}
 	const session = await event.locals.auth();
 	const row = session?.user?.id ? findUser(session.user.id) : undefined;
@@ -82,7 +84,7 @@ const identify: Handle = async ({ event, resolve }) => {
 		event.locals.authVia = 'session';
 		event.locals.sessionId = session!.sessionId;
 	}
-	return resolve(event);
+	return asActor(event.locals.user?.id ?? null, () => resolve(event));
 };
 
 const PUBLIC_PREFIXES = ['/signin', '/auth/', '/invitations/', '/reset-password/', '/api/'];

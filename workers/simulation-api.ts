@@ -9,7 +9,7 @@
 import * as Comlink from 'comlink';
 import { prepareRecipe, prepareSimulation, simulatePrepared } from '../src/lib/geostat/index';
 import type { Recipe, SimulationInput, TargetPoints } from '../src/lib/geostat/index';
-import { ensembleMap, type EnsembleStat } from '../src/lib/ensemble/index';
+import { ensembleMap, weakZones, type EnsembleStat, type WeakZoneGrid, type WeakZoneOptions } from '../src/lib/ensemble/index';
 
 type Realize = (realization: number, onProgress?: (done: number, total: number) => void) => Float64Array;
 
@@ -57,6 +57,11 @@ export function createSimulationApi() {
 		ensembleMap(realizations: Float64Array[], stat: EnsembleStat, threshold?: number): Float64Array {
 			const out = ensembleMap(realizations, stat, threshold);
 			return Comlink.transfer(out, [out.buffer]);
+		},
+		/** Weak-zone continuity of realizations given in realization order (see weakZones). */
+		weakZones(realizations: Float64Array[], grid: WeakZoneGrid, opts: WeakZoneOptions) {
+			const out = weakZones(realizations, grid, opts);
+			return Comlink.transfer(out, [out.probabilityMap.buffer]);
 		}
 	};
 }

@@ -57,6 +57,10 @@ const TOPICS: Record<string, string[]> = {
 		'rectilinearTargetsSchema',
 		'targetDefinitionSchema',
 		'recipeSchema',
+		'sgsRecipeSchema',
+		'uniformRecipeSchema',
+		'uniformDomainSchema',
+		'uniformInputSchema',
 		'recipeKindSchema',
 		'targetsFromDefinition',
 		'createRecipe',
@@ -69,7 +73,10 @@ const TOPICS: Record<string, string[]> = {
 		'isCurrentEngine',
 		'engineVersionOf',
 		'prepareRecipe',
-		'regenerate'
+		'regenerate',
+		'uniformValues',
+		'createUniformRecipe',
+		'prepareUniform'
 	],
 	validation: ['dataReproduction', 'histogramReproduction', 'variogramReproduction']
 };

@@ -21,6 +21,7 @@ const EXPORTS = [
 	'stressReader',
 	'gridStratigraphy',
 	'boundaryChainageAt',
+	'boundarySides',
 	'checkPolyline',
 	'contactLines',
 	'declusterWeights',

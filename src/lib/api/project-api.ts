@@ -23,15 +23,19 @@ import type {
 	CommentView,
 	ContactView,
 	DomainSamples,
+	AuditPage,
+	Notified,
+	RealizationJson,
+	RecipeNoteView,
 	ExportJobView,
 	MeshPreview,
 	MeshView,
-	RealizationJson,
 	ResolvedTransferSet,
 	TransferSetView,
 	TransferTableView,
 	RecipeSummaryView,
 	RecipeView,
+	WeakZonesJson,
 	SummaryJson,
 	DomainView,
 	SectionView,
@@ -110,6 +114,20 @@ export function projectApi(projectId: string) {
 		realization: (recipeId: string, r: number) => getJson<RealizationJson>(at('recipes', recipeId, 'realizations', String(r))),
 		summary: (recipeId: string, stat: EnsembleStat, threshold?: number) =>
 			getJson<SummaryJson>(`${at('recipes', recipeId, 'summary')}?stat=${stat}${stat === 'below' && threshold !== undefined ? `&threshold=${encodeURIComponent(String(threshold))}` : ''}`),
+		/** Weak-zone continuity over the recipe's realizations (computed on the server, cached). */
+		weakZones: (recipeId: string, q: { property: string; threshold: number; minLength?: number; boundary?: string | null }) => {
+			const params = new URLSearchParams({ property: q.property, threshold: String(q.threshold) });
+			if (q.minLength !== undefined) params.set('minLength', String(q.minLength));
+			if (q.boundary) params.set('boundary', q.boundary);
+			return getJson<WeakZonesJson>(`${at('recipes', recipeId, 'weak-zones')}?${params}`);
+		},
+		recipeNotes: async (recipeId: string) => (await getJson<{ comments: RecipeNoteView[] }>(at('recipes', recipeId, 'comments'))).comments,
+		commentOnRecipe: (recipeId: string, body: string) => send<{ comment: RecipeNoteView } & Notified>('POST', at('recipes', recipeId, 'comments'), { body }),
+		requestReview: (recipeId: string, note: string) => send<{ recipe: RecipeView } & Notified>('POST', at('recipes', recipeId, 'review'), { note }),
+		approveRecipe: (recipeId: string, comment: string) => send<{ recipe: RecipeView } & Notified>('POST', at('recipes', recipeId, 'approval'), { comment }),
+
+		audit: (q: { kind?: string | null; user?: string | null; before?: number | null } = {}) => getJson<AuditPage>(`${at('audit')}?${auditParams(q)}`),
+
 		meshes: async () => (await getJson<{ meshes: MeshView[] }>(at('meshes'))).meshes,
 		/** The mapping step of a mesh upload: header, first rows and a guessed mapping. */
 		previewMesh: (file: File) => {
@@ -148,12 +166,21 @@ export function projectApi(projectId: string) {
 		},
 		/** Addresses of the CSV downloads, for links. */
 		csv: {
+			audit: (q: { kind?: string | null; user?: string | null } = {}) => `${at('audit.csv')}?${auditParams(q)}`,
 			contacts: at('contacts.csv'),
 			readings: (soundingIds: string[]) => `${at('soundings', 'readings.csv')}?s=${soundingIds.map(encodeURIComponent).join(',')}`,
 			domainStatistics: (domainId: string) => at('domains', domainId, 'statistics.csv'),
 			zonationStatistics: (zonationId: string) => at('zonations', zonationId, 'statistics.csv')
 		}
 	};
+}
+
+function auditParams(q: { kind?: string | null; user?: string | null; before?: number | null }): string {
+	const p = new URLSearchParams();
+	if (q.kind) p.set('kind', q.kind);
+	if (q.user) p.set('user', q.user);
+	if (q.before) p.set('before', String(q.before));
+	return p.toString();
 }
 
 /** The calls of one project's API; pages create it once and hand it to their components. */

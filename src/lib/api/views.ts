@@ -12,7 +12,8 @@ export type { SoundingSummary, SoundingDetailView, JsonColumn } from '$lib/serve
 export type { UnitAtSoundingView } from '$lib/server/services/derived';
 export type { ImportResult, FileProblem } from '$lib/server/services/import';
 export type { VariogramView, CommentView, PersonView } from '$lib/server/services/variograms';
-export type { RecipeSummaryView, RecipeView, RecipeProvenance, ProvenanceDomain } from '$lib/server/services/recipes';
+export type { RecipeSummaryView, RecipeView, RecipeProvenance, ProvenanceDomain, ApprovalView, RecipeNoteView, Notified } from '$lib/server/services/recipes';
+export type { AuditEntryView } from '$lib/server/services/audit';
 export type { MeshView } from '$lib/server/services/meshes';
 export type { MeshPreview } from '$lib/mesh';
 export type { TransferTableView, TransferSetView, ResolvedTransferSet } from '$lib/server/services/transfers';
@@ -33,4 +34,22 @@ export interface SummaryJson {
 	threshold: number | null;
 	realizations: number;
 	values: (number | null)[];
+}
+
+/** GET …/recipes/:rid/weak-zones: weak-zone continuity over the N realizations (the contract's shape). */
+export interface WeakZonesJson {
+	property: import('$lib/properties').SimulatedProperty;
+	threshold: number;
+	minLength: number;
+	domains: number[];
+	realizations: { realization: number; zones: number; largestExtent: number; largestArea: number; crossesBoundary: boolean | null }[];
+	crossingProbability: number | null;
+	probabilityMap: (number | null)[];
+}
+
+/** GET …/audit: a page of the log, the id to page back from (null at the end), and the people in it. */
+export interface AuditPage {
+	entries: import('$lib/server/services/audit').AuditEntryView[];
+	next: number | null;
+	people: { id: string; name: string }[];
 }

@@ -101,10 +101,12 @@ const PROBABILITIES = Array.from({ length: 49 }, (_, k) => (k + 1) / 50);
  * grows with the range relative to the domain (Deutsch & Journel 1998; Goovaerts 1997), so the verdicts read
  * medians and means over the realizations, with tolerances stated in each message.
  * Does not mutate its inputs.
- * @throws {RangeError} with no realizations or one whose length differs from the recipe's targets
+ * A uniform recipe has none of these (checkUniform checks it).
+ * @throws {RangeError} with no realizations, one whose length differs from the recipe's targets, or a uniform recipe
  */
 export function checkRealizations(recipe: Recipe, realizations: Float64Array[], opts: CheckOptions = {}): DomainCheck[] {
 	const { variogramRealizations = 20, maxLags = 16 } = opts;
+	if (recipe.kind === 'uniform') throw new RangeError('a uniform recipe is checked by checkUniform');
 	if (realizations.length === 0) throw new RangeError('no realizations');
 	const targets = targetsFromDefinition(recipe.targets);
 	const n = targets.domain.length;

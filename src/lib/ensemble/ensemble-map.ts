@@ -63,8 +63,12 @@ export function ensembleMap(realizations: ArrayLike<number>[], stat: EnsembleSta
 	return out;
 }
 
-/** Quantile p of sorted values at the plotting positions (j + ½)/n (j from 0), linear between them. */
-function midpointQuantile(sorted: Float64Array, p: number): number {
+/**
+ * Quantile p of sorted values at the plotting positions (j + ½)/n (j from 0), linear between them, tied values
+ * keeping their own positions (Hyndman & Fan 1996, definition 5); the ensemble's quantiles, used by ensembleMap
+ * and weakZones.
+ */
+export function midpointQuantile(sorted: Float64Array, p: number): number {
 	const n = sorted.length;
 	const f = p * n - 0.5;
 	if (f <= 0) return sorted[0];

@@ -71,9 +71,13 @@ export {
 	rectilinearTargetsSchema,
 	targetDefinitionSchema,
 	recipeSchema,
+	sgsRecipeSchema,
+	uniformRecipeSchema,
+	uniformDomainSchema,
+	uniformInputSchema,
 	recipeKindSchema
 } from './recipe/schema';
-export type { Recipe, RecipeKind, TargetDefinition } from './recipe/schema';
+export type { Recipe, SgsRecipe, UniformRecipe, UniformInput, RecipeKind, TargetDefinition } from './recipe/schema';
 export { targetsFromDefinition } from './recipe/targets-from-definition';
 export { createRecipe, recipeInput } from './recipe/create-recipe';
 export type { EnsembleOptions } from './recipe/create-recipe';
@@ -84,6 +88,8 @@ export { ENGINE_VERSION, ENGINE_VERSIONS, isCurrentEngine, engineVersionOf } fro
 export { prepareRecipe } from './recipe/prepare-recipe';
 export type { PreparedRecipe } from './recipe/prepare-recipe';
 export { regenerate } from './recipe/regenerate';
+export { uniformValues, createUniformRecipe, prepareUniform } from './recipe/uniform';
+export type { UniformDomainData } from './recipe/uniform';
 
 // --- Checking realizations against their data and model ---
 export { dataReproduction } from './validation/data-reproduction';

@@ -1,5 +1,5 @@
 import { CptParseError } from '../cpt/errors';
-import { isMissingCell, splitQuoted } from '../cpt/text';
+import { Column, isMissingCell, splitQuoted } from '../cpt/text';
 import { locateHeader, parseCell, trimTrailing, type Delimiter } from '../cpt/delimitedText';
 import { COORDINATE_LIMIT, ELEVATION_LIMIT } from '../schemas/bounds';
 
@@ -80,14 +80,14 @@ export function parseMeshCsv(
 	const kg = col(mapping.group, 'group', false);
 
 	const ids: string[] = [];
-	const x = new Growing();
-	const y = new Growing();
-	const z = new Growing();
+	const x = new Column();
+	const y = new Column();
+	const z = new Column();
 	const group: string[] | null = kg >= 0 ? [] : null;
 	// Duplicate ids are looked for at the end: numerically when every id is a plain whole number (a sort of
 	// numbers is many times faster than a set of two million strings), else with a set.
-	const numericIds = new Growing();
-	const lineOf = new Growing();
+	const numericIds = new Column();
+	const lineOf = new Column();
 	let allNumeric = true;
 	const rest = head.slice(header + 1);
 	let lineNo = header + 1;
@@ -173,22 +173,5 @@ class LineScanner {
 		const line = t.slice(this.at, end);
 		this.at = end < t.length && t.charCodeAt(end) === 13 && t.charCodeAt(end + 1) === 10 ? end + 2 : end + 1;
 		return line;
-	}
-}
-
-/** An append-only Float64Array that doubles its capacity. */
-class Growing {
-	private data = new Float64Array(1024);
-	length = 0;
-	push(v: number): void {
-		if (this.length === this.data.length) {
-			const next = new Float64Array(this.data.length * 2);
-			next.set(this.data);
-			this.data = next;
-		}
-		this.data[this.length++] = v;
-	}
-	toArray(): Float64Array {
-		return this.data.slice(0, this.length);
 	}
 }

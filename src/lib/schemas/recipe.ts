@@ -1,6 +1,7 @@
 /** Request bodies and queries of the recipe endpoints: the setup a recipe is resolved from, and summary queries. */
 import { z } from 'zod';
 import { ENSEMBLE_STATS } from '$lib/ensemble';
+import { simulatedProperty } from './stratigraphy';
 
 const finite = (label: string) => z.number({ error: `${label} must be a number.` }).refine(Number.isFinite, { error: `${label} must be finite.` });
 const positive = (label: string) => finite(label).refine((v) => v > 0, { error: `${label} must be greater than 0.` });
@@ -128,14 +129,19 @@ export const domainSetupSchema = z.discriminatedUnion('simulate', [
 		})
 ]);
 
-export const recipeSetupSchema = z
+const recipeName = z
+	.string({ error: 'Give the recipe a name.' })
+	.trim()
+	.min(1, { error: 'Give the recipe a name.' })
+	.max(80, { error: 'Use at most 80 characters.' });
+const zonationId = z.string({ error: 'Choose a zonation.' }).min(1, { error: 'Choose a zonation.' });
+
+/** The setup of a recipe of sequential Gaussian simulation (no kind given means this one). */
+export const sgsSetupSchema = z
 	.object({
-		name: z
-			.string({ error: 'Give the recipe a name.' })
-			.trim()
-			.min(1, { error: 'Give the recipe a name.' })
-			.max(80, { error: 'Use at most 80 characters.' }),
-		zonationId: z.string({ error: 'Choose a zonation.' }).min(1, { error: 'Choose a zonation.' }),
+		kind: z.literal('sgs').default('sgs'),
+		name: recipeName,
+		zonationId,
 		seed: z
 			.string({ error: 'Enter a seed.' })
 			.trim()
@@ -150,8 +156,44 @@ export const recipeSetupSchema = z
 	.strict()
 	.refine((s) => (s.grid === undefined) !== (s.mesh === undefined), { error: 'Give either a grid or a mesh as the targets.', path: ['grid'] });
 
+/** Most percentiles of a uniform recipe (its realizations). */
+export const MAX_PERCENTILES = 50;
+/** The percentiles of a uniform baseline unless others are asked for: the median. */
+export const DEFAULT_PERCENTILES = [50];
+
+const percentile = finite('A percentile').refine((p) => p > 0 && p < 100, { error: 'A percentile lies between 0 and 100 (exclusive).' });
+
+/** The setup of a uniform recipe: each domain at a declustered percentile of its data, one realization a percentile. */
+export const uniformSetupSchema = z
+	.object({
+		kind: z.literal('uniform'),
+		name: recipeName,
+		zonationId,
+		/** Realization r takes percentile r of this list (P50 alone by default; e.g. 33, 50, 67 for a sensitivity study). */
+		percentiles: z
+			.array(percentile)
+			.min(1, { error: 'Give at least one percentile.' })
+			.max(MAX_PERCENTILES, { error: `Use at most ${MAX_PERCENTILES} percentiles.` })
+			.refine((ps) => new Set(ps).size === ps.length, { error: 'Give each percentile once.' })
+			.default(DEFAULT_PERCENTILES),
+		/** The targets, as for sequential Gaussian simulation: a grid over the site, or an uploaded mesh. */
+		grid: gridSpecSchema.optional(),
+		mesh: meshTargetSchema.optional(),
+		domains: z
+			.array(z.object({ domainId: z.string().min(1), simulate: z.boolean() }).strict())
+			.min(1, { error: 'Set up at least one domain.' })
+			.max(200)
+	})
+	.strict()
+	.refine((s) => (s.grid === undefined) !== (s.mesh === undefined), { error: 'Give either a grid or a mesh as the targets.', path: ['grid'] });
+
+/** A recipe's setup, by kind: sequential Gaussian simulation (the default) or uniform fields. */
+export const recipeSetupSchema = z.discriminatedUnion('kind', [sgsSetupSchema, uniformSetupSchema], { error: 'The kind is sgs or uniform.' });
+
 export type RecipeSetup = z.output<typeof recipeSetupSchema>;
 export type RecipeSetupInput = z.input<typeof recipeSetupSchema>;
+export type SgsSetup = z.output<typeof sgsSetupSchema>;
+export type UniformSetup = z.output<typeof uniformSetupSchema>;
 export type DomainSetup = z.output<typeof domainSetupSchema>;
 export type SimulatedDomainSetup = Extract<DomainSetup, { simulate: true }>;
 export type GridSetup = z.output<typeof gridSpecSchema>;
@@ -176,3 +218,61 @@ export const summaryQuerySchema = z
 	})
 	.refine((q) => q.stat !== 'below' || q.threshold !== null, { error: 'P(below) needs a threshold.', path: ['threshold'] })
 	.transform((q) => ({ stat: q.stat, threshold: q.stat === 'below' ? q.threshold : null }));
+
+const numberParam = (label: string) =>
+	z
+		.string({ error: `Give ${label}.` })
+		.trim()
+		.min(1, { error: `Give ${label}.` })
+		.transform((t, ctx) => {
+			const v = Number(t);
+			if (!Number.isFinite(v)) {
+				ctx.addIssue({ code: 'custom', message: `${label[0].toUpperCase()}${label.slice(1)} must be a number.` });
+				return z.NEVER;
+			}
+			return v;
+		});
+
+/**
+ * GET …/weak-zones?property=…&threshold=…&minLength=…&boundary=…: a simulated property, the threshold below which a
+ * cell is weak (in the property's unit), the least horizontal extent of the zones the probability map counts
+ * (project length unit, default 0), and a zone boundary's id (optional).
+ */
+export const weakZonesQuerySchema = z.object({
+	property: simulatedProperty,
+	threshold: numberParam('a threshold'),
+	minLength: z
+		.string()
+		.optional()
+		.transform((t, ctx) => {
+			if (t === undefined || t.trim() === '') return 0;
+			const v = Number(t);
+			if (!Number.isFinite(v) || v < 0) {
+				ctx.addIssue({ code: 'custom', message: 'The least length must be a number ≥ 0.' });
+				return z.NEVER;
+			}
+			return v;
+		}),
+	boundary: z
+		.string()
+		.optional()
+		.transform((b) => (b === undefined || b.trim() === '' ? null : b.trim()))
+});
+export type WeakZonesQuery = z.output<typeof weakZonesQuerySchema>;
+
+/** POST …/review: an optional note to the reviewers. */
+export const reviewRequestSchema = z
+	.object({ note: z.string({ error: 'The note is text.' }).trim().max(4000, { error: 'Use at most 4000 characters.' }).default('') })
+	.strict();
+
+/** POST …/approval: the reviewer's comment, required (what was checked, on what basis). */
+export const approvalSchema = z
+	.object({
+		comment: z.string({ error: 'Say what you checked.' }).trim().min(1, { error: 'Say what you checked.' }).max(4000, { error: 'Use at most 4000 characters.' })
+	})
+	.strict();
+
+/** POST …/comments on a recipe. */
+export const recipeCommentSchema = z
+	.object({ body: z.string({ error: 'Write a comment.' }).trim().min(1, { error: 'Write a comment.' }).max(4000, { error: 'Use at most 4000 characters.' }) })
+	.strict();

@@ -2,7 +2,7 @@
  * The server's realizations: regeneration and ensemble maps on a worker_threads pool (workers/node-pool.ts),
  * so long work never blocks other requests. One run at a time, in the order asked (a queue), with all cores
  * working on it. A small interface that summaries use now and exports and job runners can use later:
- * `runRealizations(recipe, list, onEach)`, `ensembleOf(hash, recipe)`, `ensembleMapOffThread(…)`.
+ * `runRealizations(recipe, list, onEach)`, `ensembleOf(hash, recipe)`, `ensembleMapOffThread(…)`, `weakZonesOffThread(…)`.
  *
  * The workers run workers/simulation.node-worker.ts bundled by the `?server-worker` plugin (vite.config.ts), the
  * same in the built server, the dev server and vitest; a script run by tsx (the benchmarks) passes its own pool
@@ -17,7 +17,7 @@ import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import type { Recipe } from '$lib/geostat';
 import { CancelledError } from '$lib/cancelled-error';
-import type { EnsembleStat } from '$lib/ensemble';
+import type { EnsembleStat, WeakZoneGrid, WeakZoneOptions, WeakZoneSummary } from '$lib/ensemble';
 import { createNodePool } from '$workers/node-pool';
 import type { RealizationPool, RunOptions } from '$workers/realization-pool';
 import type { QueueRealizations } from './queue/realizations';
@@ -198,6 +198,11 @@ function runRealizationsWith(recipe: Recipe, realizations: number[], opts: RunOp
 /** An ensemble map of realizations in realization order, computed on a worker of the pool. */
 export function ensembleMapOffThread(realizations: Float64Array[], stat: EnsembleStat, threshold?: number): Promise<Float64Array> {
 	return enqueue(async () => (await thePool()).call((w) => w.ensembleMap(realizations, stat, threshold)));
+}
+
+/** Weak-zone continuity of realizations in realization order, computed on a worker of the pool. */
+export function weakZonesOffThread(realizations: Float64Array[], grid: WeakZoneGrid, opts: WeakZoneOptions): Promise<WeakZoneSummary> {
+	return enqueue(async () => (await thePool()).call((w) => w.weakZones(realizations, grid, opts)));
 }
 
 /** How long the last ensemble's realizations stay in memory after their last use. */

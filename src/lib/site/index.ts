@@ -22,6 +22,7 @@ export type { PlanPoint } from './triangulated-surface';
 // Zones and domain members.
 export { zoneOf, boundaryChainageAt } from './zone-of';
 export type { BoundaryLine } from './zone-of';
+export { boundarySides } from './boundary-sides';
 export { zoneNamesOf } from './zone-names';
 export { membersOverlap, WHOLE_UNIT } from './members-overlap';
 export type { Member } from './members-overlap';

@@ -5,7 +5,9 @@ import {
 	can,
 	capabilitiesOf,
 	decideAccess,
+	describeRequirement,
 	hasRole,
+	meets,
 	isProjectRole,
 	roleRank,
 	type Capability,
@@ -15,9 +17,10 @@ import {
 /** The capability table of the README and roles.ts, written out by hand: role → what it may do. */
 const TABLE: Record<ProjectRole, Capability[]> = {
 	viewer: ['read', 'download'],
-	reviewer: ['read', 'download', 'comment', 'approve'],
+	reviewer: ['read', 'download', 'comment', 'approve', 'readAudit'],
+	// The audit log is for oversight: reviewers and owners read it, the analysts whose work it records do not.
 	analyst: ['read', 'download', 'comment', 'approve', 'editData', 'editModels', 'editRecipes'],
-	owner: ['read', 'download', 'comment', 'approve', 'editData', 'editModels', 'editRecipes', 'editProject', 'manageMembers', 'deleteProject']
+	owner: ['read', 'download', 'comment', 'approve', 'readAudit', 'editData', 'editModels', 'editRecipes', 'editProject', 'manageMembers', 'deleteProject']
 };
 
 describe('project roles', () => {
@@ -43,7 +46,7 @@ describe('project roles', () => {
 
 	it('can(role, capability) matches the documented table for every role × capability', () => {
 		const all = Object.keys(CAPABILITIES) as Capability[];
-		expect(all.sort()).toEqual([...TABLE.owner].sort());
+		expect(all.sort()).toEqual([...new Set(Object.values(TABLE).flat())].sort());
 		for (const role of PROJECT_ROLES) {
 			for (const cap of all) expect(can(role, cap), `${role} ${cap}`).toBe(TABLE[role].includes(cap));
 		}
@@ -75,5 +78,23 @@ describe('decideAccess(signedIn, membershipRole, minRole)', () => {
 				expect(decideAccess(true, role, min)).toBe(roleRank(role) >= roleRank(min) ? 'allow' : 'forbidden');
 			}
 		}
+	});
+});
+
+describe('a requirement that lists roles (meets, decideAccess, describeRequirement)', () => {
+	it('meets(role, list) holds for exactly the listed roles, not for the roles between them', () => {
+		for (const role of PROJECT_ROLES) expect(meets(role, ['reviewer', 'owner']), role).toBe(role === 'reviewer' || role === 'owner');
+		expect(PROJECT_ROLES.filter((r) => meets(r, []))).toEqual([]);
+	});
+
+	it('decideAccess with a list: allow for a listed role, forbidden for another member, not_found and unauthenticated as before', () => {
+		expect(PROJECT_ROLES.map((r) => decideAccess(true, r, CAPABILITIES.readAudit))).toEqual(['forbidden', 'allow', 'forbidden', 'allow']);
+		expect(decideAccess(true, null, CAPABILITIES.readAudit)).toBe('not_found');
+		expect(decideAccess(false, 'owner', CAPABILITIES.readAudit)).toBe('unauthenticated');
+	});
+
+	it('describeRequirement words a least role and a list for the 403 message', () => {
+		expect(describeRequirement('analyst')).toBe('the analyst role or higher');
+		expect(describeRequirement(['reviewer', 'owner'])).toBe('the reviewer or owner role');
 	});
 });

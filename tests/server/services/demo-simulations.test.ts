@@ -1,17 +1,18 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openDatabase, type Db } from '../../../src/lib/server/db';
 import { seedDemo } from '../../../src/lib/server/services/demo';
-import { DEMO_GRID, DEMO_REALIZATIONS, DEMO_SEED } from '../../../src/lib/server/services/demo-simulations';
+import { DEMO_BASELINE_ZONATION, DEMO_GRID, DEMO_PERCENTILES, DEMO_REALIZATIONS, DEMO_SEED } from '../../../src/lib/server/services/demo-simulations';
+import { domainSamples } from '../../../src/lib/server/services/domains';
 import { getRecipe, listRecipes, loadRecipe } from '../../../src/lib/server/services/recipes';
 import { listVariograms } from '../../../src/lib/server/services/variograms';
 import { listZonations } from '../../../src/lib/server/services/zonations';
 import { ensembleOf, stopRealizations } from '../../../src/lib/server/realizations';
 import { checkRealizations, type DomainCheck } from '../../../src/lib/ensemble/index';
-import type { Recipe } from '../../../src/lib/geostat/index';
+import type { SgsRecipe } from '../../../src/lib/geostat/index';
 
 let db: Db;
 let projectId: string;
-let recipe: Recipe;
+let recipe: SgsRecipe;
 let checks: DomainCheck[];
 
 beforeAll(async () => {
@@ -19,7 +20,7 @@ beforeAll(async () => {
 	projectId = (await seedDemo(db))!;
 	const split = listRecipes(projectId, db).find((r) => r.name.startsWith('Sand split at channel'))!;
 	const loaded = loadRecipe(projectId, split.id, db);
-	recipe = loaded.recipe;
+	recipe = loaded.recipe as SgsRecipe;
 	// The 20 realizations on the server's worker pool, as the summary endpoint makes them.
 	checks = checkRealizations(recipe, await ensembleOf(loaded.hash, recipe));
 }, 600_000);
@@ -29,14 +30,31 @@ describe('the demo’s simulations', () => {
 	it('every demo domain has a saved variogram, and each zonation a recipe on one grid with one seed and 20 realizations', () => {
 		const zonations = listZonations(projectId, db);
 		for (const z of zonations) for (const d of z.domains) expect(listVariograms(projectId, d.id, db).length, d.name).toBeGreaterThan(0);
-		const recipes = listRecipes(projectId, db);
+		const recipes = listRecipes(projectId, db).filter((r) => r.kind === 'sgs');
 		expect(recipes.map((r) => r.zonationId).sort()).toEqual(zonations.map((z) => z.id).sort());
 		for (const r of recipes) {
 			const view = getRecipe(projectId, r.id, db);
+			expect(view.setup.kind).toBe('sgs');
+			if (view.setup.kind !== 'sgs') continue;
 			expect([view.realizations, view.setup.seed, view.setup.grid]).toEqual([DEMO_REALIZATIONS, DEMO_SEED, DEMO_GRID]);
 			expect(view.provenance.domains.every((d) => d.cells > 0)).toBe(true);
 		}
-		expect(recipes[0].name).toMatch(/^Sand split at channel/);
+		expect(listRecipes(projectId, db)[0].name).toMatch(/^Sand split at channel/);
+	});
+
+	it('ships a uniform baseline of the grouped zonation at P33, P50 and P67 on the same grid, each value the declustered percentile the domain page shows', () => {
+		const uniform = listRecipes(projectId, db).filter((r) => r.kind === 'uniform');
+		expect(uniform).toHaveLength(1);
+		const view = getRecipe(projectId, uniform[0].id, db);
+		expect(view.zonationId).toBe(listZonations(projectId, db).find((z) => z.name === DEMO_BASELINE_ZONATION)!.id);
+		expect([view.realizations, view.provenance.percentiles, view.setup.grid]).toEqual([3, DEMO_PERCENTILES, DEMO_GRID]);
+		for (const d of view.provenance.domains) {
+			expect(d.cells, d.name).toBeGreaterThan(0);
+			// The P50 of the domain's statistics (the samples endpoint, the domain page) is the value of realization 1.
+			expect(d.values![1], d.name).toBe(domainSamples(projectId, d.domainId, db).stats.p50);
+			expect(d.values![0]).toBeLessThanOrEqual(d.values![1]);
+			expect(d.values![1]).toBeLessThanOrEqual(d.values![2]);
+		}
 	});
 
 	// Statistics of the 20 realizations of the split recipe, domain by domain. Sequential Gaussian simulation

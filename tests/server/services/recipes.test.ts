@@ -13,7 +13,8 @@ import { listVariograms, saveVariogram } from '../../../src/lib/server/services/
 import { createZonation, listZonations, updateDomain, type ZonationView } from '../../../src/lib/server/services/zonations';
 import { stopRealizations } from '../../../src/lib/server/realizations';
 import { recipeSetupSchema, type RecipeSetupInput } from '../../../src/lib/schemas/recipe';
-import { canonicalJson, regenerate, sha256 } from '../../../src/lib/geostat/index';
+import { canonicalJson, regenerate, sha256, weightedQuantiles, type SgsRecipe } from '../../../src/lib/geostat/index';
+import { expandRuns } from '../../../src/lib/plots/raster';
 import { ensembleMap } from '../../../src/lib/ensemble/index';
 import { listUnits } from '../../../src/lib/server/services/stratigraphy';
 import { expectSameBits } from '../../asserts';
@@ -90,7 +91,7 @@ describe('createRecipe(projectId, userId, setup) — identity', () => {
 		const hashes = variants.map((v) => createRecipe(projectId, userId, v, db).recipe.hash);
 		expect(new Set([base, ...hashes]).size).toBe(6);
 		const path = createRecipe(projectId, userId, variants[4], db).recipe;
-		const doc = loadRecipe(projectId, path.id, db).recipe;
+		const doc = loadRecipe(projectId, path.id, db).recipe as SgsRecipe;
 		expect(doc.input.domains.map((d) => d.search.path)).toEqual(['multigrid', undefined, undefined, undefined, undefined]);
 	});
 
@@ -163,7 +164,7 @@ describe('createRecipe(projectId, userId, setup) — identity', () => {
 		const p = recipe.provenance.domains.find((d) => d.domainId === dense.id)!;
 		expect(p.trend).not.toBeNull();
 		expect(p.trend!.gradient.z).not.toBe(0);
-		const doc = loadRecipe(projectId, recipe.id, db).recipe;
+		const doc = loadRecipe(projectId, recipe.id, db).recipe as SgsRecipe;
 		expect(doc.input.domains[p.index!].trend).toEqual(p.trend);
 		expect(doc.input.domains.filter((d) => d.trend).length).toBe(1);
 		// The tails default to the residuals' extremes, which straddle 0.
@@ -273,3 +274,101 @@ describe('recipeRealization and recipeSummary (the server’s worker pool)', () 
 		expect(() => deleteRecipe(projectId, recipe.id, db)).toThrow(ServiceError);
 	}, 120_000);
 });
+
+describe('uniform recipes (kind uniform)', () => {
+	const uniform = (over: Record<string, unknown> = {}, z: ZonationView = split) =>
+		recipeSetupSchema.parse({
+			kind: 'uniform',
+			name: 'Baseline',
+			zonationId: z.id,
+			percentiles: [33, 50, 67],
+			grid: coarse,
+			domains: z.domains.map((d) => ({ domainId: d.id, simulate: true })),
+			...over
+		});
+
+	it('each domain’s values are the declustered percentiles of its kept data (domain-samples: weighted plotting positions), P50 the domain page’s P50', () => {
+		const { recipe } = createRecipe(projectId, userId, uniform(), db);
+		expect([recipe.kind, recipe.realizations, recipe.provenance.kind, recipe.provenance.percentiles, recipe.provenance.seed]).toEqual(['uniform', 3, 'uniform', [33, 50, 67], null]);
+		const doc = loadRecipe(projectId, recipe.id, db).recipe;
+		expect(doc.kind).toBe('uniform');
+		if (doc.kind !== 'uniform') return;
+		for (const p of recipe.provenance.domains) {
+			const s = domainSamples(projectId, p.domainId, db);
+			const [p33, p50, p67] = weightedQuantiles(s.samples.value, s.weights, [0.33, 0.5, 0.67]);
+			expect(p.values, p.name).toEqual([p33, p50, p67]);
+			expect(p.values![1]).toBe(s.stats.p50);
+			expect(doc.input.domains[p.index!].values).toEqual(p.values);
+			expect(doc.input.domains[p.index!].samples.map((x) => x.value)).toEqual(s.samples.value);
+			expect(doc.input.domains[p.index!].weights).toEqual(s.weights);
+		}
+	});
+
+	it('a sensitivity list gives one realization per percentile, regenerated on the server as here; r ≥ N is a 404', async () => {
+		const { recipe } = createRecipe(projectId, userId, uniform(), db);
+		const doc = loadRecipe(projectId, recipe.id, db).recipe;
+		const domainOf = expandRuns((doc.targets as { domainRuns: [number, number][] }).domainRuns);
+		const dense = recipe.provenance.domains.find((d) => d.name === 'Dense sand')!;
+		for (let r = 0; r < 3; r++) {
+			const server = await recipeRealization(projectId, recipe.id, r, db);
+			expectSameBits(server.values, regenerate(doc, r), `realization ${r}`);
+			for (let i = 0; i < domainOf.length; i++) if (domainOf[i] === dense.index) expect(server.values[i]).toBe(dense.values![r]);
+		}
+		await expect(recipeRealization(projectId, recipe.id, 3, db)).rejects.toMatchObject({ status: 404 });
+		const mean = await recipeSummary(projectId, recipe.id, 'mean', null, db);
+		expectSameBits(mean.values, ensembleMap([0, 1, 2].map((r) => regenerate(doc, r)), 'mean'));
+	});
+
+	it('on a grid of variable cell heights (rectilinear targets) each domain takes its percentile in every cell of it; a setup with neither grid nor mesh, or both, is refused', async () => {
+		const grid = { ...coarse, elevation: { ...coarse.elevation, heights: { bands: [{ from: -4, to: 0, cell: 0.25 }] } } };
+		const { recipe } = createRecipe(projectId, userId, uniform({ name: 'Baseline, fine band', grid }), db);
+		const doc = loadRecipe(projectId, recipe.id, db).recipe;
+		expect(doc.targets.kind).toBe('rectilinear');
+		expect(recipe.provenance.grid!.zEdges!.length).toBe(recipe.provenance.grid!.counts.z + 1);
+		const domainOf = expandRuns((doc.targets as { domainRuns: [number, number][] }).domainRuns);
+		for (let r = 0; r < 3; r++) {
+			const server = await recipeRealization(projectId, recipe.id, r, db);
+			expectSameBits(server.values, regenerate(doc, r), `realization ${r}`);
+			for (const p of recipe.provenance.domains) {
+				if (p.index === null) continue;
+				const cells = Array.from(domainOf).flatMap((d, i) => (d === p.index ? [server.values[i]] : []));
+				expect(cells.length, p.name).toBe(p.cells);
+				expect(new Set(cells), p.name).toEqual(new Set([p.values![r]]));
+			}
+		}
+		const { grid: _g, ...none } = uniform();
+		expect(recipeSetupSchema.safeParse(none).success).toBe(false);
+		expect(recipeSetupSchema.safeParse({ ...uniform(), mesh: { meshId: 'm', assign: 'stratigraphy' } }).success).toBe(false);
+	});
+
+	it('the same percentiles on the same grid are the same recipe; another order or percentile is another', () => {
+		const a = createRecipe(projectId, userId, uniform(), db).recipe;
+		expect(createRecipe(projectId, userId, uniform({ name: 'Baseline again' }), db).recipe.id).toBe(a.id);
+		expect(createRecipe(projectId, userId, uniform({ name: 'Reordered', percentiles: [50, 33, 67] }), db).recipe.hash).not.toBe(a.hash);
+		expect(createRecipe(projectId, userId, uniform({ name: 'P50 only', percentiles: undefined }), db).recipe.realizations).toBe(1);
+	});
+
+	it('refuses a percentile outside (0, 100), a repeated one, and a domain without data (422), and a domain left unsaid', () => {
+		expect(recipeSetupSchema.safeParse({ ...uniform(), percentiles: [0, 50] }).success).toBe(false);
+		expect(recipeSetupSchema.safeParse({ ...uniform(), percentiles: [50, 50] }).success).toBe(false);
+		expect(recipeSetupSchema.safeParse({ ...uniform(), seed: '1' }).success).toBe(false);
+		const empty = updateDomainRulesToNothing();
+		const err = invalid(() => createRecipe(projectId, userId, uniform({ name: 'Empty' }), db));
+		expect(err.message).toMatch(new RegExp(`${empty} has no conditioning data`));
+		restoreRules();
+		const unsaid = invalid(() => createRecipe(projectId, userId, uniform({ name: 'Unsaid', domains: split.domains.slice(1).map((d) => ({ domainId: d.id, simulate: true })) }), db));
+		expect(unsaid.message).toMatch(/Say whether Overbank clay is included/);
+	});
+});
+
+let savedRules: unknown;
+/** Leaves the first domain of the split zonation without data (a minimum depth below every sounding); returns its name. */
+function updateDomainRulesToNothing(): string {
+	const d = split.domains[0];
+	savedRules = d.rules;
+	updateDomain(projectId, d.id, { rules: { ...d.rules, minDepth: 500 } }, db);
+	return d.name;
+}
+function restoreRules(): void {
+	updateDomain(projectId, split.domains[0].id, { rules: savedRules as never }, db);
+}

@@ -3,6 +3,7 @@ import { recipeInput } from './create-recipe';
 import { targetsFromDefinition } from './targets-from-definition';
 import { recipeSchema } from './schema';
 import type { Recipe, RecipeKind } from './schema';
+import { prepareUniform } from './uniform';
 import { prepareSimulation } from '../simulation/prepare-simulation';
 import { simulatePrepared } from '../simulation/simulate';
 
@@ -23,9 +24,12 @@ export interface PreparedRecipe {
 
 /**
  * Validates a recipe and prepares what does not depend on the realization number, by its kind: 'sgs' (the
- * default) prepares a sequential Gaussian simulation of its input at its targets (prepareSimulation).
+ * default) prepares a sequential Gaussian simulation of its input at its targets (prepareSimulation); 'uniform'
+ * checks its values against its data and fills each domain with its value at the realization's percentile
+ * (prepareUniform).
  * Does not mutate the recipe.
- * @throws {RangeError} 'invalid recipe: …' if the recipe does not pass recipeSchema; and as prepareSimulation
+ * @throws {RangeError} 'invalid recipe: …' if the recipe does not pass recipeSchema; and as prepareSimulation or
+ *   prepareUniform
  * @throws {Error} 'recipe is from engine version …' for a recipe of another engine version
  */
 export function prepareRecipe(recipe: Recipe): PreparedRecipe {
@@ -40,19 +44,29 @@ export function prepareRecipe(recipe: Recipe): PreparedRecipe {
 		if (!Number.isSafeInteger(realization) || realization < 0) throw new RangeError('realization must be an integer >= 0');
 		if (n !== null && realization >= n) throw new RangeError(`realization ${realization} is beyond the recipe's ${n} realizations`);
 	};
-	const kind: RecipeKind = r.kind ?? 'sgs';
-	switch (kind) {
-		case 'sgs': {
-			const prepared = prepareSimulation(recipeInput(r), targetsFromDefinition(r.targets));
-			return {
-				kind,
-				active: prepared.active,
-				realizations: n,
-				realize(realization, onProgress) {
-					inRange(realization);
-					return simulatePrepared(prepared, realization, onProgress);
-				}
-			};
-		}
+	if (r.kind === 'uniform') {
+		const prepared = prepareUniform(r);
+		return {
+			kind: 'uniform',
+			active: prepared.active,
+			realizations: n,
+			realize(realization, onProgress) {
+				inRange(realization);
+				const out = prepared.realize(realization);
+				onProgress?.(prepared.active, prepared.active);
+				return out;
+			}
+		};
 	}
+	// No kind means 'sgs' (recipes written before kinds existed).
+	const prepared = prepareSimulation(recipeInput(r), targetsFromDefinition(r.targets));
+	return {
+		kind: 'sgs',
+		active: prepared.active,
+		realizations: n,
+		realize(realization, onProgress) {
+			inRange(realization);
+			return simulatePrepared(prepared, realization, onProgress);
+		}
+	};
 }

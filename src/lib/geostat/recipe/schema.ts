@@ -120,34 +120,76 @@ export const pointTargetsSchema = z
 
 export const targetDefinitionSchema = z.discriminatedUnion('kind', [gridTargetsSchema, rectilinearTargetsSchema, pointTargetsSchema]);
 
-/** How a recipe's realizations are made: sequential Gaussian simulation (the only kind so far). */
-export const recipeKindSchema = z.enum(['sgs']);
+/**
+ * How a recipe's realizations are made: sequential Gaussian simulation ('sgs'), or uniform fields ('uniform':
+ * each domain takes one declustered percentile of its data in each realization; see uniformValues).
+ */
+export const recipeKindSchema = z.enum(['sgs', 'uniform']);
 
 /**
- * A recipe: everything a realization depends on — the resolved simulation input, the targets' definition
- * and the engine version. Realization r of a recipe is a pure function of (recipe, r).
+ * One domain of a uniform recipe: its conditioning data (as an SGS domain holds them) with their declustering
+ * weights, and the value it takes in each realization, one per percentile of the recipe.
+ */
+export const uniformDomainSchema = z
+	.object({
+		samples: z.array(sampleSchema).min(1, { message: 'a uniform domain needs samples' }),
+		weights: z.array(z.number().positive()),
+		values: z.array(z.number())
+	})
+	.refine((d) => d.weights.length === d.samples.length, { message: 'weights must match samples', path: ['weights'] });
+
+/** The input of a uniform recipe: the percentiles (0 < p < 100), one realization each, and the domains. */
+export const uniformInputSchema = z
+	.object({
+		percentiles: z.array(z.number().gt(0).lt(100)).min(1),
+		domains: z.array(uniformDomainSchema)
+	})
+	.refine((u) => u.domains.every((d) => d.values.length === u.percentiles.length), { message: 'each domain needs one value a percentile', path: ['domains'] });
+
+const recipeHead = {
+	engineVersion: z.string(),
+	targets: targetDefinitionSchema
+};
+
+/** A recipe of sequential Gaussian simulation; no kind means 'sgs' (recipes written before kinds existed). */
+export const sgsRecipeSchema = z.object({
+	...recipeHead,
+	kind: z.literal('sgs').optional(),
+	realizations: z.number().int().positive().optional(),
+	input: simulationInputSchema
+});
+
+/** A recipe of uniform fields: N = the number of percentiles, realization r at percentile r of the list. */
+export const uniformRecipeSchema = z
+	.object({
+		...recipeHead,
+		kind: z.literal('uniform'),
+		realizations: z.number().int().positive(),
+		input: uniformInputSchema
+	})
+	.refine((r) => r.realizations === r.input.percentiles.length, { message: 'a uniform recipe has one realization a percentile', path: ['realizations'] });
+
+/**
+ * A recipe: everything a realization depends on — the resolved input, the targets' definition and the engine
+ * version. Realization r of a recipe is a pure function of (recipe, r).
  *
  * An ensemble's recipe also names its `kind` and its number of `realizations` N, so its hash identifies the
- * whole ensemble (realizations 0 … N − 1). Both are optional and left out of the canonical JSON when absent,
- * so the hash of a recipe written without them is what it always was; no kind means 'sgs'.
+ * whole ensemble (realizations 0 … N − 1). For 'sgs' both are optional and left out of the canonical JSON when
+ * absent, so the hash of a recipe written without them is what it always was; no kind means 'sgs'. A 'uniform'
+ * recipe always states both.
  */
-export const recipeSchema = z
-	.object({
-		engineVersion: z.string(),
-		kind: recipeKindSchema.optional(),
-		realizations: z.number().int().positive().optional(),
-		input: simulationInputSchema,
-		targets: targetDefinitionSchema
-	})
-	.refine(
-		(r) => {
-			const n = r.input.domains.length;
-			const ds = r.targets.kind === 'points' ? r.targets.domain : r.targets.domainRuns.map((x) => x[0]);
-			return ds.every((d) => d < n);
-		},
-		{ message: 'target domain out of range', path: ['targets'] }
-	);
+export const recipeSchema = z.union([sgsRecipeSchema, uniformRecipeSchema]).refine(
+	(r) => {
+		const n = r.input.domains.length;
+		const ds = r.targets.kind === 'points' ? r.targets.domain : r.targets.domainRuns.map((x) => x[0]);
+		return ds.every((d) => d < n);
+	},
+	{ message: 'target domain out of range', path: ['targets'] }
+);
 
 export type Recipe = z.infer<typeof recipeSchema>;
+export type SgsRecipe = z.infer<typeof sgsRecipeSchema>;
+export type UniformRecipe = z.infer<typeof uniformRecipeSchema>;
+export type UniformInput = z.infer<typeof uniformInputSchema>;
 export type TargetDefinition = z.infer<typeof targetDefinitionSchema>;
 export type RecipeKind = z.infer<typeof recipeKindSchema>;

@@ -2,7 +2,7 @@ import { error, type RequestEvent } from '@sveltejs/kit';
 import { and, eq } from 'drizzle-orm';
 import { getDb } from '$lib/server/db';
 import { memberships, projects, type Project } from '$lib/server/db/schema';
-import { decideAccess, type ProjectRole } from './roles';
+import { decideAccess, describeRequirement, type ProjectRole, type RoleRequirement } from './roles';
 
 export interface ProjectAccess {
 	user: NonNullable<App.Locals['user']>;
@@ -27,12 +27,12 @@ export function requireAdmin(event: Pick<RequestEvent, 'locals'>): NonNullable<A
 /**
  * Guards every project-scoped load, action and endpoint.
  * 401 when nobody is signed in, 404 when the user is not a member (whether or not the project exists),
- * 403 when the user's role is below `minRole`.
+ * 403 when the user's role does not meet `required` (a CAPABILITIES entry: a least role, or a list of roles).
  */
 export function requireProjectRole(
 	event: Pick<RequestEvent, 'locals'>,
 	projectId: string | undefined,
-	minRole: ProjectRole
+	required: RoleRequirement
 ): ProjectAccess {
 	const user = event.locals.user;
 	const row =
@@ -44,13 +44,13 @@ export function requireProjectRole(
 					.where(eq(projects.id, projectId))
 					.get()
 			: undefined;
-	switch (decideAccess(user != null, row?.role, minRole)) {
+	switch (decideAccess(user != null, row?.role, required)) {
 		case 'unauthenticated':
 			error(401, 'Sign in to continue.');
 		case 'not_found':
 			error(404, 'Project not found.');
 		case 'forbidden':
-			error(403, `This needs the ${minRole} role or higher on the project.`);
+			error(403, `This needs ${describeRequirement(required)} on the project.`);
 		case 'allow':
 			return { user: user!, project: row!.project, role: row!.role };
 	}

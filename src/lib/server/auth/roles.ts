@@ -3,27 +3,33 @@ import { PROJECT_ROLES, type ProjectRole } from '$lib/server/db/schema';
 export { PROJECT_ROLES, type ProjectRole };
 
 /**
- * What each project role may do. A role may do everything the roles below it may do.
+ * What each project role may do: a role (that role or any above it) or a list (exactly those roles). A role may
+ * do everything the roles below it may do, except what a list names: the audit log is for oversight, read by the
+ * project's reviewers and its owners, not by the analysts whose work it records (issue 13).
  *
- * | role     | may                                              |
- * |----------|--------------------------------------------------|
- * | viewer   | read, download                                   |
- * | reviewer | + comment, approve                               |
- * | analyst  | + edit data, models and recipes                  |
- * | owner    | + edit project settings, manage members, delete  |
+ * | role     | may                                                        |
+ * |----------|------------------------------------------------------------|
+ * | viewer   | read, download                                             |
+ * | reviewer | + comment, approve, read the audit log                     |
+ * | analyst  | + edit data, models and recipes (the audit log: no)        |
+ * | owner    | + edit project settings, manage members, delete; audit log |
  */
 export const CAPABILITIES = {
 	read: 'viewer',
 	download: 'viewer',
 	comment: 'reviewer',
 	approve: 'reviewer',
+	readAudit: ['reviewer', 'owner'],
 	editData: 'analyst',
 	editModels: 'analyst',
 	editRecipes: 'analyst',
 	editProject: 'owner',
 	manageMembers: 'owner',
 	deleteProject: 'owner'
-} as const satisfies Record<string, ProjectRole>;
+} as const satisfies Record<string, RoleRequirement>;
+
+/** Who may do something: a role and those above it, or exactly the roles listed. */
+export type RoleRequirement = ProjectRole | readonly ProjectRole[];
 
 export type Capability = keyof typeof CAPABILITIES;
 
@@ -43,9 +49,19 @@ export function hasRole(role: ProjectRole, minRole: ProjectRole): boolean {
 	return roleRank(role) >= roleRank(minRole);
 }
 
+/** True when `role` meets `required`: at or above it, or one of the roles it lists. */
+export function meets(role: ProjectRole, required: RoleRequirement): boolean {
+	return typeof required === 'string' ? hasRole(role, required) : required.includes(role);
+}
+
+/** In words, for a refusal: "the analyst role or higher", "the reviewer or owner role". */
+export function describeRequirement(required: RoleRequirement): string {
+	return typeof required === 'string' ? `the ${required} role or higher` : `the ${required.join(' or ')} role`;
+}
+
 /** True when `role` may exercise `capability`. */
 export function can(role: ProjectRole, capability: Capability): boolean {
-	return hasRole(role, CAPABILITIES[capability]);
+	return meets(role, CAPABILITIES[capability]);
 }
 
 /** Every capability of a role, for the client to show or hide controls (the server still checks). */
@@ -59,14 +75,14 @@ export type AccessDecision = 'allow' | 'unauthenticated' | 'not_found' | 'forbid
 
 /**
  * The whole access rule in one place: no user → unauthenticated; not a member → not_found
- * (the project's existence is not revealed); member below `minRole` → forbidden.
+ * (the project's existence is not revealed); member who does not meet `required` → forbidden.
  */
 export function decideAccess(
 	signedIn: boolean,
 	membershipRole: ProjectRole | null | undefined,
-	minRole: ProjectRole
+	required: RoleRequirement
 ): AccessDecision {
 	if (!signedIn) return 'unauthenticated';
 	if (!membershipRole) return 'not_found';
-	return hasRole(membershipRole, minRole) ? 'allow' : 'forbidden';
+	return meets(membershipRole, required) ? 'allow' : 'forbidden';
 }

@@ -1,5 +1,6 @@
 import { sql } from 'drizzle-orm';
 import { index, integer, primaryKey, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { AUDIT_KINDS } from '../../audit';
 
 /** Epoch-millisecond timestamps; SQLite has no date type. */
 export const timestamp = (name: string) => integer(name, { mode: 'timestamp_ms' });
@@ -197,9 +198,37 @@ export const signInAttempts = sqliteTable(
 	]
 );
 
+/**
+ * The project's audit log: who did what and when. Each entry is written in the same transaction as the change
+ * it records (recordAudit), so a change that fails leaves no entry. The person's name is kept beside the
+ * reference, so the log still reads after an account is deleted.
+ */
+export const auditLog = sqliteTable(
+	'audit_log',
+	{
+		id: integer('id').primaryKey({ autoIncrement: true }),
+		projectId: text('project_id')
+			.notNull()
+			.references(() => projects.id, { onDelete: 'cascade' }),
+		at: timestamp('at').notNull().default(now),
+		userId: text('user_id').references(() => users.id, { onDelete: 'set null' }),
+		userName: text('user_name'),
+		kind: text('kind', { enum: AUDIT_KINDS }).notNull(),
+		/** A past-tense verb: uploaded, deleted, created, changed, approved … */
+		action: text('action').notNull(),
+		/** What it was done to, by name (a sounding, a unit, a recipe …). */
+		subject: text('subject').notNull(),
+		subjectId: text('subject_id'),
+		/** Particulars in words ("3 soundings", "role analyst → reviewer", the recipe's hash …). */
+		detail: text('detail').notNull().default('')
+	},
+	(t) => [index('audit_log_project_idx').on(t.projectId, t.at)]
+);
+
 export type User = typeof users.$inferSelect;
 export type Project = typeof projects.$inferSelect;
 export type Membership = typeof memberships.$inferSelect;
 export type Invitation = typeof invitations.$inferSelect;
 export type ApiToken = typeof apiTokens.$inferSelect;
 export type OutboxMessage = typeof outbox.$inferSelect;
+export type AuditEntry = typeof auditLog.$inferSelect;

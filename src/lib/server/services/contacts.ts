@@ -2,6 +2,7 @@ import { and, asc, eq, inArray } from 'drizzle-orm';
 import { csvLine, roundedCell } from '$lib/csv';
 import { getDb } from '$lib/server/db';
 import { inTransaction, type DbOrTx } from '$lib/server/db/transaction';
+import { recordAudit } from './audit';
 import { contacts, soundings, units } from '$lib/server/db/site-schema';
 import { ServiceError } from '$lib/server/errors';
 import type { ContactPut, ContactsPatch } from '$lib/schemas/stratigraphy';
@@ -110,6 +111,9 @@ export function editContacts(projectId: string, edit: ContactsPatch, db: DbOrTx 
 	}
 
 	return inTransaction(db, (tx) => {
+		// Recorded first: a later failure (a contact to remove that does not exist) rolls the entry back with the rest.
+		const entry = contactsEntry(projectId, edit, byId, unitNames);
+		if (entry) recordAudit(tx, entry);
 		let removed = 0;
 		for (const c of edit.remove) {
 			const r = tx.delete(contacts).where(and(eq(contacts.soundingId, c.soundingId), eq(contacts.unitId, c.unitId))).run();
@@ -131,6 +135,31 @@ export function editContacts(projectId: string, edit: ContactsPatch, db: DbOrTx 
 		refreshInterpolatedContacts(projectId, tx);
 		return { set: edit.set.length, removed, interpolated: interpolate.size };
 	});
+}
+
+/** The audit entry of a contacts edit: what was set, removed and left to interpolation, by sounding and unit; null for none. */
+function contactsEntry(
+	projectId: string,
+	edit: ContactsPatch,
+	soundingsById: Map<string, { name: string }>,
+	unitNames: Map<string, string>
+): Parameters<typeof recordAudit>[1] | null {
+	if (edit.set.length + edit.remove.length + edit.interpolate.length === 0) return null;
+	const named = (c: { soundingId: string; unitId: string }) => `${unitNames.get(c.unitId)} at ${soundingsById.get(c.soundingId)!.name}`;
+	const parts: string[] = [];
+	if (edit.set.length) parts.push(`set ${edit.set.slice(0, 10).map((c) => `${named(c)} = ${c.topElevation}`).join(', ')}${edit.set.length > 10 ? ` and ${edit.set.length - 10} more` : ''}`);
+	if (edit.remove.length) parts.push(`removed ${edit.remove.slice(0, 10).map(named).join(', ')}${edit.remove.length > 10 ? ` and ${edit.remove.length - 10} more` : ''}`);
+	if (edit.interpolate.length) parts.push(`interpolated at ${edit.interpolate.map((id) => soundingsById.get(id)!.name).join(', ')}`);
+	const soundingNames = [...new Set([...edit.set, ...edit.remove].map((c) => c.soundingId).concat(edit.interpolate))].map((id) => soundingsById.get(id)!.name);
+	const n = edit.set.length + edit.remove.length + edit.interpolate.length;
+	return {
+		projectId,
+		kind: 'contact',
+		action: 'changed',
+		subject: soundingNames.length === 1 ? `Contacts at ${soundingNames[0]}` : `${n} contact edits at ${soundingNames.length} soundings`,
+		subjectId: soundingNames.length === 1 ? [...edit.set, ...edit.remove].map((c) => c.soundingId).concat(edit.interpolate)[0] : null,
+		detail: parts.join('; ')
+	};
 }
 
 /**

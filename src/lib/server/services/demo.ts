@@ -6,6 +6,8 @@ import { seedDemoSoundings } from './demo-soundings';
 import { seedDemoStratigraphy } from './demo-stratigraphy';
 import { seedDemoVariograms } from './demo-variograms';
 import { seedDemoRecipes } from './demo-simulations';
+import { asActor } from './audit';
+import { seedDemoTransfers } from './demo-transfers';
 
 /** The demo accounts. Their passwords are printed in the README: for a local demo only. */
 export const DEMO_ACCOUNTS: ReadonlyArray<{
@@ -32,7 +34,8 @@ export const DEMO_PROJECT = {
 /**
  * Seeds the demo accounts and project into an empty database (no users yet); does nothing otherwise: the
  * accounts, the project, its soundings and stratigraphy in one transaction, then a saved variogram for every
- * domain (seedDemoVariograms). Returns the demo project's id when it seeded. Later stages add their demo data here.
+ * domain (seedDemoVariograms), the recipes (seedDemoRecipes) by the analyst, and a transfer set (seedDemoTransfers).
+ * Returns the demo project's id when it seeded. Later stages add their demo data here.
  */
 export async function seedDemo(db: Db): Promise<string | null> {
 	const existing = db.select({ n: count() }).from(users).get()?.n ?? 0;
@@ -51,13 +54,17 @@ export async function seedDemo(db: Db): Promise<string | null> {
 		DEMO_ACCOUNTS.forEach((a, i) => {
 			if (a.projectRole) tx.insert(memberships).values({ projectId: project.id, userId: created[i].id, role: a.projectRole }).run();
 		});
-		seedDemoSoundings(tx, project.id, owner.id);
-		seedDemoStratigraphy(tx, project.id);
+		// The owner uploads the soundings and lays out the stratigraphy (so the audit log names them).
+		asActor(owner.id, () => {
+			seedDemoSoundings(tx, project.id, owner.id);
+			seedDemoStratigraphy(tx, project.id);
+		});
 		const analyst = created[DEMO_ACCOUNTS.findIndex((a) => a.projectRole === 'analyst')];
 		return { projectId: project.id, analystId: analyst.id };
 	});
 	// Computed outside the first transaction (the variograms are computed asynchronously, as in the workspace).
 	await seedDemoVariograms(db, seeded.projectId, seeded.analystId);
 	seedDemoRecipes(db, seeded.projectId, seeded.analystId);
+	seedDemoTransfers(db, seeded.projectId, seeded.analystId);
 	return seeded.projectId;
 }

@@ -235,11 +235,11 @@ async function notify(row: ExportJobRow, request: StoredRequest, project: string
  * A finished job's file, to stream as its download.
  * @throws ServiceError 404 for a job not in the project; 409 while it is not done (or its file expired)
  */
-export function exportFile(projectId: string, exportId: string, db: DbOrTx = getDb()): { fileName: string; bytes: number; open: () => NodeJS.ReadableStream } {
+export function exportFile(projectId: string, exportId: string, db: DbOrTx = getDb()): { job: ExportJobView; fileName: string; bytes: number; open: () => NodeJS.ReadableStream } {
 	const job = getExport(projectId, exportId, db);
 	if (job.status !== 'done') throw new ServiceError(409, job.status === 'expired' ? 'This export’s file was deleted at the end of its retention; start it again.' : `This export is ${job.status}; its file is not ready.`);
 	const path = fileOf(exportId);
-	return { fileName: job.fileName, bytes: job.bytes ?? 0, open: () => createReadStream(path) };
+	return { job, fileName: job.fileName, bytes: job.bytes ?? 0, open: () => createReadStream(path) };
 }
 
 /**

@@ -10,6 +10,7 @@ import { refreshInterpolatedContacts } from './contacts';
 import { geologyOffer, writeGeologyContacts, type GeologyOffer, type GeologyRequest, type GeologySource, type WrittenSounding } from './import-geology';
 import { planSoundings, type ClashResolution, type PlannedSounding } from './import-plan';
 import { mappingFor, maxFinite, parseUpload, problemOf, type FileProblem, type ParsedUpload, type ParseRequest, type UploadedFile } from './import-parse';
+import { recordAudit } from './audit';
 
 export { sha256Hex, type FileProblem, type SoundingDefaults, type UploadedFile } from './import-parse';
 
@@ -213,6 +214,17 @@ function writeImport(projectId: string, userId: string | null, prepared: Prepare
 			return { id, name: q.finalName!, readings: s.depth.length, action, ...(action === 'rename' ? { originalName: s.id } : {}), notes: q.notes };
 		});
 		files.push({ id: row.id, name: p.file.name, format: p.format, soundings: created, skipped });
+		const verbs = (a: string) => created.filter((c) => c.action === a).map((c) => (c.originalName ? `${c.originalName} as ${c.name}` : c.name));
+		const detail = [
+			['imported', verbs('import')],
+			['replaced', verbs('replace')],
+			['renamed', verbs('rename')],
+			['skipped', skipped]
+		]
+			.filter(([, names]) => names.length)
+			.map(([verb, names]) => `${verb} ${(names as string[]).join(', ')}`)
+			.join('; ');
+		recordAudit(tx, { projectId, kind: 'sounding', action: 'uploaded', subject: p.file.name, subjectId: row.id, detail: `${created.length} sounding${created.length === 1 ? '' : 's'}: ${detail}`, userId });
 	}
 	for (const id of oldSources) {
 		const left = tx.select({ n: count() }).from(soundings).where(eq(soundings.sourceFileId, id)).get()?.n ?? 0;

@@ -6,6 +6,7 @@ import { hashPassword } from '$lib/server/auth/password';
 import { actionMail, sendMail } from '$lib/server/mail';
 import { ServiceError } from '$lib/server/errors';
 import type { DbOrTx } from '$lib/server/db/transaction';
+import { recordAudit } from './audit';
 
 const INVITATION_LIFETIME_MS = 7 * 24 * 3600 * 1000;
 
@@ -70,7 +71,7 @@ export async function inviteMember(
 		tx.delete(invitations)
 			.where(and(eq(invitations.projectId, project.id), eq(invitations.email, email), isNull(invitations.acceptedAt)))
 			.run();
-		return tx
+		const row = tx
 			.insert(invitations)
 			.values({
 				projectId: project.id,
@@ -82,6 +83,8 @@ export async function inviteMember(
 			})
 			.returning()
 			.get();
+		recordAudit(tx, { projectId: project.id, kind: 'member', action: 'invited', subject: email, subjectId: row.id, detail: `as ${role}`, userId: invitedBy.id });
+		return row;
 	});
 	await sendMail(
 		actionMail(
@@ -98,11 +101,15 @@ export async function inviteMember(
 }
 
 export function revokeInvitation(projectId: string, invitationId: string): void {
-	const result = getDb()
-		.delete(invitations)
-		.where(and(eq(invitations.projectId, projectId), eq(invitations.id, invitationId), isNull(invitations.acceptedAt)))
-		.run();
-	if (result.changes === 0) throw new ServiceError(404, 'Invitation not found.');
+	getDb().transaction((tx) => {
+		const row = tx
+			.delete(invitations)
+			.where(and(eq(invitations.projectId, projectId), eq(invitations.id, invitationId), isNull(invitations.acceptedAt)))
+			.returning({ email: invitations.email, role: invitations.role })
+			.get();
+		if (!row) throw new ServiceError(404, 'Invitation not found.');
+		recordAudit(tx, { projectId, kind: 'member', action: 'withdrew the invitation of', subject: row.email, subjectId: invitationId, detail: `as ${row.role}` });
+	});
 }
 
 export interface PendingInvitation {
@@ -162,7 +169,8 @@ export function acceptInvitation(token: string, user: { id: string; email: strin
 	}
 	getDb().transaction((tx) => {
 		claimInvitation(tx, tokenHash, new Date());
-		tx.insert(memberships).values({ projectId: row.project.id, userId: user.id, role }).onConflictDoNothing().run();
+		const added = tx.insert(memberships).values({ projectId: row.project.id, userId: user.id, role }).onConflictDoNothing().run().changes;
+		recordAudit(tx, { projectId: row.project.id, kind: 'member', action: 'joined', subject: user.email, subjectId: user.id, detail: added ? `as ${role}, by invitation` : 'by invitation (already a member)', userId: user.id });
 	});
 	return { id, email, role, project: { id: row.project.id, name: row.project.name } };
 }
@@ -194,6 +202,7 @@ export async function registerFromInvitation(token: string, input: { name: strin
 				.returning()
 				.get();
 			tx.insert(memberships).values({ projectId: claimed.projectId, userId: user.id, role: claimed.role }).run();
+			recordAudit(tx, { projectId: claimed.projectId, kind: 'member', action: 'joined', subject: user.email, subjectId: user.id, detail: `as ${claimed.role}, by invitation (new account)`, userId: user.id });
 			const project = tx.select({ id: projects.id, name: projects.name }).from(projects).where(eq(projects.id, claimed.projectId)).get()!;
 			return { user, invitation: { id: claimed.id, email: claimed.email, role: claimed.role, project } };
 		});
@@ -232,11 +241,13 @@ export function changeMemberRole(projectId: string, userId: string, role: Projec
 	if (current.role === 'owner' && role !== 'owner' && ownerCount(projectId) <= 1) {
 		throw new ServiceError(409, 'A project needs at least one owner. Make someone else owner first.');
 	}
-	getDb()
-		.update(memberships)
-		.set({ role })
-		.where(and(eq(memberships.projectId, projectId), eq(memberships.userId, userId)))
-		.run();
+	getDb().transaction((tx) => {
+		tx.update(memberships)
+			.set({ role })
+			.where(and(eq(memberships.projectId, projectId), eq(memberships.userId, userId)))
+			.run();
+		recordAudit(tx, { projectId, kind: 'member', action: 'changed the role of', subject: emailOf(tx, userId), subjectId: userId, detail: `${current.role} → ${role}` });
+	});
 }
 
 /** Removes a member; the last owner cannot be removed. */
@@ -245,8 +256,14 @@ export function removeMember(projectId: string, userId: string): void {
 	if (current.role === 'owner' && ownerCount(projectId) <= 1) {
 		throw new ServiceError(409, 'A project needs at least one owner. Make someone else owner first.');
 	}
-	getDb()
-		.delete(memberships)
-		.where(and(eq(memberships.projectId, projectId), eq(memberships.userId, userId)))
-		.run();
+	getDb().transaction((tx) => {
+		tx.delete(memberships)
+			.where(and(eq(memberships.projectId, projectId), eq(memberships.userId, userId)))
+			.run();
+		recordAudit(tx, { projectId, kind: 'member', action: 'removed', subject: emailOf(tx, userId), subjectId: userId, detail: `was ${current.role}` });
+	});
+}
+
+function emailOf(tx: DbOrTx, userId: string): string {
+	return tx.select({ email: users.email }).from(users).where(eq(users.id, userId)).get()?.email ?? userId;
 }

@@ -2,6 +2,7 @@ import { asc, eq } from 'drizzle-orm';
 import { getDb } from '$lib/server/db';
 import { memberships, projects, type Project, type ProjectRole } from '$lib/server/db/schema';
 import type { ProjectCreate, ProjectUpdate } from '$lib/schemas';
+import { recordAudit } from './audit';
 
 /** The fields of a project that may leave the server, with the caller's role on it. */
 export interface ProjectView {
@@ -47,18 +48,27 @@ export function createProject(userId: string, input: ProjectCreate): ProjectView
 			.returning()
 			.get();
 		tx.insert(memberships).values({ projectId: project.id, userId, role: 'owner' }).run();
+		recordAudit(tx, { projectId: project.id, kind: 'site', action: 'created', subject: `Project ${input.name}`, detail: 'as its owner', userId });
 		return projectView(project, 'owner');
 	});
 }
 
 export function updateProject(project: Project, role: ProjectRole, input: ProjectUpdate): ProjectView {
 	const values = Object.fromEntries(Object.entries(input).filter(([, v]) => v !== undefined));
-	const updated = getDb()
-		.update(projects)
-		.set({ ...values, updatedAt: new Date() })
-		.where(eq(projects.id, project.id))
-		.returning()
-		.get();
+	const updated = getDb().transaction((tx) => {
+		const row = tx
+			.update(projects)
+			.set({ ...values, updatedAt: new Date() })
+			.where(eq(projects.id, project.id))
+			.returning()
+			.get();
+		const detail = Object.entries(values)
+			.filter(([k, v]) => v !== project[k as keyof Project])
+			.map(([k, v]) => `${k}: ${JSON.stringify(project[k as keyof Project])} → ${JSON.stringify(v)}`)
+			.join('; ');
+		recordAudit(tx, { projectId: project.id, kind: 'site', action: 'changed', subject: 'Project settings', detail });
+		return row;
+	});
 	return projectView(updated, role);
 }
 

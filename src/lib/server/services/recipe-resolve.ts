@@ -1,16 +1,17 @@
 /**
  * Resolving a recipe setup into the engine's recipe: the zonation's domains, each domain's conditioning data
- * (through the domain-samples service, so the domain's data rules apply), declustering weights, the chosen
- * saved variogram version, kriging, search and tail bounds, and the target grid with each cell's domain read
- * from the stratigraphy. Everything is read from the database; nothing is written here.
+ * (through the domain-samples service, so the domain's data rules apply), declustering weights, for SGS the
+ * chosen saved variogram version, kriging, search and tail bounds, for uniform fields the values at the
+ * percentiles, and the target grid with each cell's domain read from the stratigraphy. Everything is read from
+ * the database; nothing is written here.
  */
-import { createRecipe, trendResiduals, weightedMean, type DomainInput, type LinearTrend, type Recipe, type TargetDefinition } from '$lib/geostat';
+import { createRecipe, createUniformRecipe, trendResiduals, uniformValues, weightedMean, type DomainInput, type LinearTrend, type Recipe, type TargetDefinition, type UniformDomainData } from '$lib/geostat';
 import { domainTrend } from '$lib/variography';
 import { PROPERTY_INFO, type SimulatedProperty } from '$lib/properties';
 import { getDb } from '$lib/server/db';
 import type { DbOrTx } from '$lib/server/db/transaction';
 import { InvalidInput, type InputIssue } from '$lib/server/errors';
-import { MAX_CELLS, MAX_ENSEMBLE_VALUES, MAX_MESH_ELEMENTS, type GridSetup, type MeshTargetSetup, type RecipeSetup, type SimulatedDomainSetup } from '$lib/schemas/recipe';
+import { MAX_CELLS, MAX_ENSEMBLE_VALUES, MAX_MESH_ELEMENTS, type GridSetup, type MeshTargetSetup, type RecipeSetup, type SgsSetup, type SimulatedDomainSetup, type UniformSetup } from '$lib/schemas/recipe';
 import {
 	axesDomains,
 	cellsPerDomain,
@@ -54,6 +55,8 @@ export interface ProvenanceDomain {
 	trend: LinearTrend | null;
 	/** The conditioning data: how many, from how many soundings, by which of the domain's rules. */
 	data: { samples: number; soundings: number; rules: Omit<DomainSamples['domain'], 'id' | 'name' | 'zonationId' | 'zonationName' | 'property'> } | null;
+	/** A uniform recipe's value of the domain at each of its percentiles (absent for 'sgs'). */
+	values?: number[];
 }
 
 /** The grid a recipe targets, as resolved: the spec, its counts and, with variable cell heights, the elevation cells. */
@@ -79,11 +82,16 @@ export interface ProvenanceMesh {
 
 /** What a recipe was resolved from, stored beside it (not hashed). */
 export interface RecipeProvenance {
+	/** Absent in recipes stored before kinds existed: 'sgs'. */
+	kind?: 'sgs' | 'uniform';
 	zonation: { id: string; name: string };
 	geometry: '2d' | '3d';
 	lengthUnit: 'm' | 'ft';
-	seed: string;
+	/** Null for a uniform recipe (nothing random). */
+	seed: string | null;
 	realizations: number;
+	/** A uniform recipe's percentiles, realization by realization. */
+	percentiles?: number[];
 	/** The grid targeted; null for a mesh. */
 	grid: ProvenanceGrid | null;
 	/** The mesh targeted (absent for a grid). */
@@ -142,34 +150,96 @@ export function domainInput(samples: DomainSamples, variogram: VariogramView, se
 }
 
 /**
- * Resolves a setup into the engine's recipe (kind 'sgs', N realizations) and its provenance.
+ * Resolves a setup into the engine's recipe and its provenance, by kind: sequential Gaussian simulation (kind
+ * 'sgs', N realizations) or uniform fields (kind 'uniform', one realization a percentile).
  * @throws InvalidInput (422, with issues) for a zonation not in the project, a grid of the other geometry, a
- *   domain left out or foreign, a simulated domain without data or saved variogram (or with a variogram of
- *   another domain), tail bounds inside the data, a grid too large, or no simulated cell at all
+ *   domain left out or foreign, a simulated domain without data (or, for 'sgs', without saved variogram, with a
+ *   variogram of another domain or tail bounds inside the data), a grid too large, or no simulated cell at all
  */
 export function resolveRecipe(projectId: string, setup: RecipeSetup, db: DbOrTx = getDb()): { recipe: Recipe; provenance: RecipeProvenance } {
-	const issues: InputIssue[] = [];
-	const fail = (): never => {
-		throw new InvalidInput(issues.map((i) => i.message).join(' '), issues);
-	};
+	return setup.kind === 'uniform' ? resolveUniform(projectId, setup, db) : resolveSgs(projectId, setup, db);
+}
+
+/** What every kind checks first: the zonation, the grid's geometry, and each domain set up once. */
+function resolveZonation<S extends RecipeSetup>(projectId: string, setup: S, issues: InputIssue[], db: DbOrTx) {
 	const zonation: ZonationView | undefined = listZonations(projectId, db).find((z) => z.id === setup.zonationId);
 	if (!zonation) {
 		issues.push({ path: ['zonationId'], message: 'That zonation is not in this project.' });
-		fail();
+		fail(issues);
 	}
 	const z = zonation!;
 	const site = getSite(projectId, db);
 	if (setup.grid && setup.grid.geometry !== site.geometry) {
 		issues.push({ path: ['grid', 'geometry'], message: `The site is ${site.geometry.toUpperCase()}; the grid must be ${site.geometry.toUpperCase()} too.` });
 	}
-	const byId = new Map(setup.domains.map((d, k) => [d.domainId, { d, k }]));
-	setup.domains.forEach((d, k) => {
+	const list = setup.domains as S['domains'][number][];
+	const byId = new Map(list.map((d, k) => [d.domainId, { d, k }]));
+	list.forEach((d, k) => {
 		if (!z.domains.some((zd) => zd.id === d.domainId)) issues.push({ path: ['domains', k, 'domainId'], message: `Domain ${d.domainId} is not in ${z.name}.` });
 	});
 	if (new Set(setup.domains.map((d) => d.domainId)).size !== setup.domains.length) {
 		issues.push({ path: ['domains'], message: 'A domain is set up twice.' });
 	}
+	return { z, site, byId };
+}
 
+function fail(issues: InputIssue[]): never {
+	throw new InvalidInput(issues.map((i) => i.message).join(' '), issues);
+}
+
+/**
+ * The targets of a recipe (the grid, a rectilinear grid of variable cell heights, or a mesh's centroids), each
+ * target's domain read from the stratigraphy (or a mesh element's group) for the simulated domains of
+ * `provenance` (index order), with their number checked against the limits for `n` realizations (a uniform
+ * recipe's percentiles). Sets each simulated domain's target count and gives the provenance's grid or mesh.
+ */
+function resolveTargets(projectId: string, site: { geometry: '2d' | '3d' }, z: ZonationView, provenance: ProvenanceDomain[], nDomains: number, setup: RecipeSetup, n: number, issues: InputIssue[], db: DbOrTx) {
+	const members = provenance.filter((p) => p.index !== null).map((p) => z.domains.find((zd) => zd.id === p.domainId)!.members);
+	let resolved: ResolvedTargets;
+	try {
+		resolved = setup.mesh
+			? meshTargets(projectId, site.geometry, setup.mesh, members, z.domains, provenance, db)
+			: gridTargets(projectStratigraphy(projectId, db), members, setup.grid!);
+	} catch (err) {
+		if (err instanceof InvalidInput) throw err;
+		issues.push({ path: [setup.mesh ? 'mesh' : 'grid'], message: `The ${setup.mesh ? 'mesh' : 'grid'} is not valid: ${(err as Error).message}.` });
+		fail(issues);
+	}
+	const { targets, domain, warnings } = resolved!;
+	const cells = domain.length;
+	const counts = cellsPerDomain(domain, nDomains);
+	const simulated = counts.reduce((a, b) => a + b, 0);
+	const limit = setup.mesh ? MAX_MESH_ELEMENTS : MAX_CELLS;
+	const what = setup.mesh ? 'elements' : 'cells';
+	const many = setup.kind === 'uniform' ? 'percentiles' : 'realizations';
+	if (cells > limit) issues.push({ path: [setup.mesh ? 'mesh' : 'grid'], message: `The ${setup.mesh ? 'mesh' : 'grid'} has ${cells.toLocaleString('en')} ${what}; at most ${limit.toLocaleString('en')} are allowed.${setup.mesh ? '' : ' Use larger cells or a smaller extent.'}` });
+	else if (simulated === 0) issues.push({ path: [setup.mesh ? 'mesh' : 'grid'], message: setup.mesh ? 'No element of the mesh lies in a simulated domain: check the mesh’s coordinates against the section, or its groups.' : 'No cell of the grid lies in a simulated domain: check the grid’s extent against the section.' });
+	else if (simulated * n > MAX_ENSEMBLE_VALUES) {
+		issues.push({
+			path: [many],
+			message: `${n} ${many} of ${simulated.toLocaleString('en')} simulated ${what} are more values than an ensemble map holds (${MAX_ENSEMBLE_VALUES.toLocaleString('en')}): use fewer ${many}${setup.mesh ? '' : ' or larger cells'}.`
+		});
+	}
+	if (issues.length) fail(issues);
+	for (const p of provenance) if (p.index !== null) p.cells = counts[p.index];
+	for (const p of provenance) if (p.index !== null && p.cells === 0) warnings.push(`No ${setup.mesh ? 'element of the mesh' : 'cell of the grid'} lies in ${p.name}.`);
+	const grid: ProvenanceGrid | null = resolved!.grid ? ({ ...resolved!.grid, cells, simulated } as ProvenanceGrid) : null;
+	const mesh = resolved!.mesh ? { ...resolved!.mesh, simulated } : undefined;
+	return { targets, warnings, grid, mesh };
+}
+
+/** The rules a domain's data were taken by, for the provenance. */
+function dataOf(samples: DomainSamples): NonNullable<ProvenanceDomain['data']> {
+	const { id: _id, name: _name, zonationId: _z, zonationName: _zn, property: _p, ...rules } = samples.domain;
+	return { samples: samples.samples.value.length, soundings: new Set(samples.samples.sounding).size, rules };
+}
+
+const UNSET = { variogram: null, kriging: null, mean: null, search: null, tails: null, trend: null } as const;
+
+/** A setup of sequential Gaussian simulation into the engine's recipe (kind 'sgs', N realizations). */
+function resolveSgs(projectId: string, setup: SgsSetup, db: DbOrTx): { recipe: Recipe; provenance: RecipeProvenance } {
+	const issues: InputIssue[] = [];
+	const { z, site, byId } = resolveZonation(projectId, setup, issues, db);
 	const inputs: DomainInput[] = [];
 	const provenance: ProvenanceDomain[] = [];
 	for (const zd of z.domains) {
@@ -181,7 +251,7 @@ export function resolveRecipe(projectId: string, setup: RecipeSetup, db: DbOrTx 
 		}
 		const { d, k } = entry;
 		if (!d.simulate) {
-			provenance.push({ ...base, index: null, variogram: null, kriging: null, mean: null, search: null, tails: null, trend: null, data: null });
+			provenance.push({ ...base, index: null, ...UNSET, data: null });
 			continue;
 		}
 		const saved = listVariograms(projectId, zd.id, db);
@@ -219,7 +289,6 @@ export function resolveRecipe(projectId: string, setup: RecipeSetup, db: DbOrTx 
 		const what = input.trend ? 'residual' : 'datum';
 		if (d.tails.zmin !== null && d.tails.zmin > lo) issues.push({ path: ['domains', k, 'tails', 'zmin'], message: `The lower tail bound of ${zd.name} must not be above its smallest ${what} (${lo}${u}).` });
 		if (d.tails.zmax !== null && d.tails.zmax < hi) issues.push({ path: ['domains', k, 'tails', 'zmax'], message: `The upper tail bound of ${zd.name} must not be below its largest ${what} (${hi}${u}).` });
-		const { id: _id, name: _name, zonationId: _z, zonationName: _zn, property: _p, ...rules } = samples.domain;
 		provenance.push({
 			...base,
 			index: inputs.length,
@@ -229,66 +298,97 @@ export function resolveRecipe(projectId: string, setup: RecipeSetup, db: DbOrTx 
 			search: input.search,
 			tails: { zmin: d.tails.zmin ?? lo, zmax: d.tails.zmax ?? hi },
 			trend: input.trend ?? null,
-			data: { samples: values.length, soundings: new Set(samples.samples.sounding).size, rules }
+			data: dataOf(samples)
 		});
 		inputs.push(input);
 	}
-	if (issues.length) fail();
+	if (issues.length) fail(issues);
 	if (inputs.length === 0) {
 		issues.push({ path: ['domains'], message: 'Simulate at least one domain.' });
-		fail();
+		fail(issues);
 	}
-
-	const members = provenance.filter((p) => p.index !== null).map((p) => z.domains.find((zd) => zd.id === p.domainId)!.members);
-	let resolved: ResolvedTargets;
-	try {
-		resolved = setup.mesh
-			? meshTargets(projectId, site.geometry, setup.mesh, members, z.domains, provenance, db)
-			: gridTargets(projectStratigraphy(projectId, db), members, setup.grid!);
-	} catch (err) {
-		if (err instanceof InvalidInput) throw err;
-		issues.push({ path: [setup.mesh ? 'mesh' : 'grid'], message: `The ${setup.mesh ? 'mesh' : 'grid'} is not valid: ${(err as Error).message}.` });
-		fail();
-	}
-	const { targets, domain, warnings } = resolved!;
-	const cells = domain.length;
-	const counts = cellsPerDomain(domain, inputs.length);
-	const simulated = counts.reduce((a, b) => a + b, 0);
-	const limit = setup.mesh ? MAX_MESH_ELEMENTS : MAX_CELLS;
-	const what = setup.mesh ? 'elements' : 'cells';
-	if (cells > limit) issues.push({ path: [setup.mesh ? 'mesh' : 'grid'], message: `The ${setup.mesh ? 'mesh' : 'grid'} has ${cells.toLocaleString('en')} ${what}; at most ${limit.toLocaleString('en')} are allowed.${setup.mesh ? '' : ' Use larger cells or a smaller extent.'}` });
-	else if (simulated === 0) issues.push({ path: [setup.mesh ? 'mesh' : 'grid'], message: setup.mesh ? 'No element of the mesh lies in a simulated domain: check the mesh’s coordinates against the section, or its groups.' : 'No cell of the grid lies in a simulated domain: check the grid’s extent against the section.' });
-	else if (simulated * setup.realizations > MAX_ENSEMBLE_VALUES) {
-		issues.push({
-			path: ['realizations'],
-			message: `${setup.realizations} realizations of ${simulated.toLocaleString('en')} simulated ${what} are more values than an ensemble map holds (${MAX_ENSEMBLE_VALUES.toLocaleString('en')}): use fewer realizations${setup.mesh ? '' : ' or larger cells'}.`
-		});
-	}
-	if (issues.length) fail();
-	for (const p of provenance) if (p.index !== null) p.cells = counts[p.index];
-	for (const p of provenance) if (p.index !== null && p.cells === 0) warnings.push(`No ${setup.mesh ? 'element of the mesh' : 'cell of the grid'} lies in ${p.name}.`);
-
+	const resolved = resolveTargets(projectId, site, z, provenance, inputs.length, setup, setup.realizations, issues, db);
 	let recipe: Recipe;
 	try {
-		recipe = createRecipe({ seed: setup.seed, domains: inputs }, targets, { realizations: setup.realizations });
+		recipe = createRecipe({ seed: setup.seed, domains: inputs }, resolved.targets, { realizations: setup.realizations });
 	} catch (err) {
 		issues.push({ path: [], message: `The engine refused the recipe: ${(err as Error).message}.` });
-		fail();
+		fail(issues);
 	}
-	const grid: ProvenanceGrid | null = resolved!.grid ? ({ ...resolved!.grid, cells, simulated } as ProvenanceGrid) : null;
-	const mesh = resolved!.mesh ? { ...resolved!.mesh, simulated } : undefined;
 	return {
 		recipe: recipe!,
 		provenance: {
+			kind: 'sgs',
 			zonation: { id: z.id, name: z.name },
 			geometry: site.geometry,
 			lengthUnit: site.lengthUnit,
 			seed: setup.seed,
 			realizations: setup.realizations,
-			grid,
-			...(mesh ? { mesh } : {}),
+			grid: resolved.grid,
+			...(resolved.mesh ? { mesh: resolved.mesh } : {}),
 			domains: provenance,
-			warnings
+			warnings: resolved.warnings
+		}
+	};
+}
+
+/**
+ * A uniform setup into the engine's recipe (kind 'uniform'): each included domain's conditioning data and
+ * declustering weights, as the domain-samples service gives them (after the domain's rules), and its value at
+ * each percentile (the engine's uniformValues: the weighted plotting positions of the domain statistics).
+ */
+function resolveUniform(projectId: string, setup: UniformSetup, db: DbOrTx): { recipe: Recipe; provenance: RecipeProvenance } {
+	const issues: InputIssue[] = [];
+	const { z, site, byId } = resolveZonation(projectId, setup, issues, db);
+	const inputs: UniformDomainData[] = [];
+	const provenance: ProvenanceDomain[] = [];
+	for (const zd of z.domains) {
+		const entry = byId.get(zd.id);
+		const base = { domainId: zd.id, name: zd.name, property: zd.property, cells: 0, ...UNSET };
+		if (!entry) {
+			issues.push({ path: ['domains'], message: `Say whether ${zd.name} is included.` });
+			continue;
+		}
+		if (!entry.d.simulate) {
+			provenance.push({ ...base, index: null, data: null });
+			continue;
+		}
+		const samples = domainSamples(projectId, zd.id, db);
+		const { x, y, z: el, value, sounding } = samples.samples;
+		if (value.length === 0) {
+			issues.push({ path: ['domains', entry.k], message: `${zd.name} has no conditioning data: no sounding reading lies in it.` });
+			continue;
+		}
+		provenance.push({ ...base, index: inputs.length, data: dataOf(samples), values: uniformValues(value, samples.weights, setup.percentiles) });
+		inputs.push({ samples: value.map((v, i) => ({ x: x[i], y: y[i], z: el[i], value: v, sounding: sounding[i] })), weights: samples.weights });
+	}
+	if (issues.length) fail(issues);
+	if (inputs.length === 0) {
+		issues.push({ path: ['domains'], message: 'Include at least one domain.' });
+		fail(issues);
+	}
+	const resolved = resolveTargets(projectId, site, z, provenance, inputs.length, setup, setup.percentiles.length, issues, db);
+	let recipe: Recipe;
+	try {
+		recipe = createUniformRecipe(setup.percentiles, inputs, resolved.targets);
+	} catch (err) {
+		issues.push({ path: [], message: `The engine refused the recipe: ${(err as Error).message}.` });
+		fail(issues);
+	}
+	return {
+		recipe: recipe!,
+		provenance: {
+			kind: 'uniform',
+			zonation: { id: z.id, name: z.name },
+			geometry: site.geometry,
+			lengthUnit: site.lengthUnit,
+			seed: null,
+			realizations: setup.percentiles.length,
+			percentiles: setup.percentiles,
+			grid: resolved.grid,
+			...(resolved.mesh ? { mesh: resolved.mesh } : {}),
+			domains: provenance,
+			warnings: resolved.warnings
 		}
 	};
 }

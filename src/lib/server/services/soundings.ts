@@ -4,6 +4,7 @@ import { fromFloat64Blob } from '$lib/server/db/float64';
 import { contacts, soundings, sourceFiles, type SourceFormat } from '$lib/server/db/site-schema';
 import { ServiceError } from '$lib/server/errors';
 import { refreshInterpolatedContacts } from './contacts';
+import { recordAudit } from './audit';
 import { deriveSounding, jsonColumn, type UnitAtSoundingView } from './derived';
 import { READINGS_PER_SOUNDING_MAX } from '$lib/schemas/bounds';
 import { readingsPageJson, type ReadingsPage, type ReadingsPageView } from './sounding-readings';
@@ -196,12 +197,13 @@ export function soundingDetailView(
 export function deleteSounding(projectId: string, soundingId: string, db: DbOrTx = getDb()): void {
 	db.transaction((tx) => {
 		const row = tx
-			.select({ sourceFileId: soundings.sourceFileId })
+			.select({ sourceFileId: soundings.sourceFileId, name: soundings.name })
 			.from(soundings)
 			.where(and(eq(soundings.projectId, projectId), eq(soundings.id, soundingId)))
 			.get();
 		if (!row) throw new ServiceError(404, 'Sounding not found.');
 		tx.delete(soundings).where(eq(soundings.id, soundingId)).run();
+		recordAudit(tx, { projectId, kind: 'sounding', action: 'deleted', subject: row.name, subjectId: soundingId, detail: 'with its readings and contacts' });
 		if (row.sourceFileId) {
 			const left = tx.select({ n: count() }).from(soundings).where(eq(soundings.sourceFileId, row.sourceFileId)).get()?.n ?? 0;
 			if (left === 0) tx.delete(sourceFiles).where(eq(sourceFiles.id, row.sourceFileId)).run();

@@ -10,6 +10,7 @@ import { listContacts, refreshInterpolatedContacts } from './contacts';
 import { deriveSoundings } from './derived';
 import { listSoundings } from './soundings';
 import { getSite, updateSite, type SiteUpdate, type SiteView } from './site';
+import { recordAudit } from './audit';
 
 // The contacts' own service; named here too for callers that take the whole stratigraphy from one place.
 export { deleteContact, listContacts, putContact, type ContactView } from './contacts';
@@ -96,6 +97,7 @@ export function createUnit(projectId: string, input: Omit<UnitCreate, 'property'
 			.returning()
 			.get();
 		restack(tx, [...existing.map((u) => u.id).slice(0, position), created.id, ...existing.map((u) => u.id).slice(position)]);
+		recordAudit(tx, { projectId, kind: 'unit', action: 'created', subject: created.name, subjectId: created.id, detail: `simulated in ${created.property}, position ${position + 1}` });
 		return created.id;
 	};
 	const id = inTransaction(db, run);
@@ -111,6 +113,7 @@ export function updateUnit(projectId: string, unitId: string, input: UnitUpdate,
 	}
 	const { position, ...fields } = input;
 	inTransaction(db, (tx) => {
+		recordAudit(tx, { projectId, kind: 'unit', action: 'changed', subject: input.name ?? unit.name, subjectId: unit.id, detail: changedFields(unit, input) });
 		if (Object.keys(fields).length > 0) tx.update(units).set(fields).where(eq(units.id, unit.id)).run();
 		if (position !== undefined && position !== unit.position) {
 			const order = existing.map((u) => u.id).filter((id) => id !== unit.id);
@@ -121,10 +124,21 @@ export function updateUnit(projectId: string, unitId: string, input: UnitUpdate,
 	return listUnits(projectId, db).find((u) => u.id === unitId)!;
 }
 
+/** "name: A → B; nkt: 14 → 16" for the fields of `input` that differ from `before`. */
+function changedFields<T extends object>(before: T, input: Partial<T>): string {
+	const parts: string[] = [];
+	for (const [k, v] of Object.entries(input)) {
+		const old = (before as Record<string, unknown>)[k];
+		if (v !== undefined && JSON.stringify(v) !== JSON.stringify(old)) parts.push(`${k}: ${JSON.stringify(old)} → ${JSON.stringify(v)}`);
+	}
+	return parts.join('; ');
+}
+
 /** Deletes a unit with its contacts, zone boundaries and domain memberships; the others close up. */
 export function deleteUnit(projectId: string, unitId: string, db: DbOrTx = getDb()): void {
-	getUnit(projectId, unitId, db);
+	const unit = getUnit(projectId, unitId, db);
 	inTransaction(db, (tx) => {
+		recordAudit(tx, { projectId, kind: 'unit', action: 'deleted', subject: unit.name, subjectId: unit.id, detail: 'with its contacts, zone boundaries and domain memberships' });
 		tx.delete(units).where(eq(units.id, unitId)).run();
 		const rest = tx.select({ id: units.id }).from(units).where(eq(units.projectId, projectId)).orderBy(asc(units.position)).all();
 		restack(tx, rest.map((u) => u.id));
@@ -177,7 +191,9 @@ export function sectionContacts(projectId: string, db: DbOrTx = getDb()): Sectio
  */
 export function changeSite(projectId: string, input: SiteUpdate, db: DbOrTx = getDb()): SiteView {
 	return inTransaction(db, (tx) => {
+		const before = getSite(projectId, tx);
 		const site = updateSite(projectId, input, tx);
+		recordAudit(tx, { projectId, kind: 'site', action: 'changed', subject: 'Site settings', detail: changedFields(before, input) });
 		refreshInterpolatedContacts(projectId, tx);
 		return site;
 	});
@@ -280,21 +296,36 @@ export function boundariesByUnit(projectId: string, db: DbOrTx = getDb()): Map<s
 }
 
 export function createZoneBoundary(projectId: string, input: ZoneBoundaryInput, db: DbOrTx = getDb()): ZoneBoundaryView {
-	getUnit(projectId, input.unitId, db);
-	const row = db.insert(zoneBoundaries).values(input).returning().get();
-	return pickBoundary(row);
+	const unit = getUnit(projectId, input.unitId, db);
+	return inTransaction(db, (tx) => {
+		const row = tx.insert(zoneBoundaries).values(input).returning().get();
+		recordAudit(tx, { projectId, kind: 'zone-boundary', action: 'created', subject: `${unit.name} boundary`, subjectId: row.id, detail: lineText(row) });
+		return pickBoundary(row);
+	});
 }
 
 export function updateZoneBoundary(projectId: string, id: string, input: ZoneBoundaryInput, db: DbOrTx = getDb()): ZoneBoundaryView {
-	getBoundary(projectId, id, db);
-	getUnit(projectId, input.unitId, db);
-	const row = db.update(zoneBoundaries).set(input).where(eq(zoneBoundaries.id, id)).returning().get();
-	return pickBoundary(row);
+	const before = getBoundary(projectId, id, db);
+	const unit = getUnit(projectId, input.unitId, db);
+	return inTransaction(db, (tx) => {
+		const row = tx.update(zoneBoundaries).set(input).where(eq(zoneBoundaries.id, id)).returning().get();
+		recordAudit(tx, { projectId, kind: 'zone-boundary', action: 'moved', subject: `${unit.name} boundary`, subjectId: id, detail: `${lineText(before)} → ${lineText(row)}` });
+		return pickBoundary(row);
+	});
 }
 
 export function deleteZoneBoundary(projectId: string, id: string, db: DbOrTx = getDb()): void {
-	getBoundary(projectId, id, db);
-	db.delete(zoneBoundaries).where(eq(zoneBoundaries.id, id)).run();
+	const before = getBoundary(projectId, id, db);
+	const unit = getUnit(projectId, before.unitId, db);
+	inTransaction(db, (tx) => {
+		tx.delete(zoneBoundaries).where(eq(zoneBoundaries.id, id)).run();
+		recordAudit(tx, { projectId, kind: 'zone-boundary', action: 'deleted', subject: `${unit.name} boundary`, subjectId: id, detail: lineText(before) });
+	});
+}
+
+/** A boundary line in words: "(205, 6) to (205, −12)" as (chainage, elevation). */
+function lineText(b: BoundaryLine): string {
+	return `(${b.chainageTop}, ${b.elevationTop}) to (${b.chainageBottom}, ${b.elevationBottom})`;
 }
 
 function getBoundary(projectId: string, id: string, db: DbOrTx): ZoneBoundary {

@@ -52,7 +52,7 @@ export async function recipeRealization(projectId: string, recipeId: string, rea
  * A recipe written by another engine version cannot be regenerated here with the same bits (the engine refuses
  * it): a 409 that says what to do, rather than a failure deep in the worker pool.
  */
-function checkEngine(recipe: Recipe): void {
+export function checkEngine(recipe: Recipe): void {
 	if (!isCurrentEngine(recipe)) {
 		throw new ServiceError(
 			409,

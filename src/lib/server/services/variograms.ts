@@ -2,6 +2,7 @@ import { and, asc, count, desc, eq, max, type SQL } from 'drizzle-orm';
 import { getDb } from '$lib/server/db';
 import { users } from '$lib/server/db/schema';
 import { domains, variogramComments, variograms, zonations, type Variogram } from '$lib/server/db/site-schema';
+import { recordAudit } from './audit';
 import { ServiceError } from '$lib/server/errors';
 import { readVariogramSettings, type VariogramSave } from '$lib/schemas/variogram';
 import type { VariogramModel } from '$lib/geostat';
@@ -104,7 +105,7 @@ export function getVariogram(projectId: string, domainId: string, variogramId: s
  */
 export function saveVariogram(projectId: string, domainId: string, userId: string, input: VariogramSave, db: DbOrTx = getDb()): VariogramView {
 	checkDomain(db, projectId, domainId);
-	const id = insertVersion(db, domainId, userId, input);
+	const id = insertVersion(db, projectId, domainId, userId, input, 'saved');
 	return getVariogram(projectId, domainId, id, db);
 }
 
@@ -118,29 +119,31 @@ export function restoreVariogram(
 	db: DbOrTx = getDb()
 ): VariogramView {
 	const old = getVariogram(projectId, domainId, variogramId, db);
-	const id = insertVersion(db, domainId, userId, {
-		name: old.name,
-		model: old.model,
-		settings: old.settings,
-		misfit: old.misfit,
-		note: note?.trim() || `Restored from version ${old.version}.`
-	});
+	const id = insertVersion(
+		db,
+		projectId,
+		domainId,
+		userId,
+		{ name: old.name, model: old.model, settings: old.settings, misfit: old.misfit, note: note?.trim() || `Restored from version ${old.version}.` },
+		`restored version ${old.version} of`
+	);
 	return getVariogram(projectId, domainId, id, db);
 }
 
-function insertVersion(db: DbOrTx, domainId: string, userId: string, input: VariogramSave): string {
+function insertVersion(db: DbOrTx, projectId: string, domainId: string, userId: string, input: VariogramSave, action: string): string {
 	const run = (tx: DbOrTx) => {
 		const last = tx
 			.select({ v: max(variograms.version) })
 			.from(variograms)
 			.where(and(eq(variograms.domainId, domainId), eq(variograms.name, input.name)))
 			.get();
-		return tx
+		const version = (last?.v ?? 0) + 1;
+		const id = tx
 			.insert(variograms)
 			.values({
 				domainId,
 				name: input.name,
-				version: (last?.v ?? 0) + 1,
+				version,
 				model: input.model,
 				settings: input.settings,
 				misfit: input.misfit,
@@ -149,6 +152,10 @@ function insertVersion(db: DbOrTx, domainId: string, userId: string, input: Vari
 			})
 			.returning({ id: variograms.id })
 			.get().id;
+		const domain = tx.select({ name: domains.name }).from(domains).where(eq(domains.id, domainId)).get();
+		const structures = input.model.structures.map((st) => `${st.type} ${+st.sill.toPrecision(3)}`).join(' + ');
+		recordAudit(tx, { projectId, kind: 'variogram', action, subject: `${input.name} v${version} (${domain?.name ?? 'domain'})`, subjectId: id, detail: structures, userId });
+		return id;
 	};
 	return inTransaction(db, run);
 }

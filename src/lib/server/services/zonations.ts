@@ -7,6 +7,7 @@ import { inTransaction, type DbOrTx } from '$lib/server/db/transaction';
 import { DEFAULT_RULES, domainDefaults, membersOverlap, WHOLE_UNIT, type ConditioningRules } from '$lib/site';
 import { getSite } from './site';
 import { listUnits, type UnitView } from './stratigraphy';
+import { recordAudit } from './audit';
 
 export interface MemberView {
 	unitId: string;
@@ -62,22 +63,36 @@ export function createZonation(projectId: string, input: ZonationCreate, db: DbO
 		const z = tx.insert(zonations).values({ projectId, name: input.name, description: input.description }).returning().get();
 		const lengthUnit = getSite(projectId, tx).lengthUnit;
 		input.domains.forEach((d, k) => insertDomain(tx, z.id, d, k, lengthUnit));
+		const detail = input.domains.length ? `domains ${input.domains.map((d) => d.name).join(', ')}` : 'no domains yet';
+		recordAudit(tx, { projectId, kind: 'zonation', action: 'created', subject: input.name, subjectId: z.id, detail });
 		return z.id;
 	});
 	return getZonation(projectId, id, db);
 }
 
 export function updateZonation(projectId: string, zonationId: string, input: ZonationUpdate, db: DbOrTx = getDb()): ZonationView {
-	getZonation(projectId, zonationId, db);
+	const before = getZonation(projectId, zonationId, db);
 	if (input.name) checkUniqueName(db, projectId, input.name, zonationId);
-	if (Object.keys(input).length) db.update(zonations).set(input).where(eq(zonations.id, zonationId)).run();
+	if (Object.keys(input).length) {
+		inTransaction(db, (tx) => {
+			tx.update(zonations).set(input).where(eq(zonations.id, zonationId)).run();
+			const detail = Object.entries(input)
+				.filter(([k, v]) => v !== undefined && v !== before[k as keyof typeof before])
+				.map(([k, v]) => `${k}: ${JSON.stringify(before[k as keyof typeof before])} → ${JSON.stringify(v)}`)
+				.join('; ');
+			recordAudit(tx, { projectId, kind: 'zonation', action: 'changed', subject: input.name ?? before.name, subjectId: zonationId, detail });
+		});
+	}
 	return getZonation(projectId, zonationId, db);
 }
 
 /** Deletes a zonation with its domains (and their variograms). */
 export function deleteZonation(projectId: string, zonationId: string, db: DbOrTx = getDb()): void {
-	getZonation(projectId, zonationId, db);
-	db.delete(zonations).where(eq(zonations.id, zonationId)).run();
+	const z = getZonation(projectId, zonationId, db);
+	inTransaction(db, (tx) => {
+		tx.delete(zonations).where(eq(zonations.id, zonationId)).run();
+		recordAudit(tx, { projectId, kind: 'zonation', action: 'deleted', subject: z.name, subjectId: zonationId, detail: `with its domains ${z.domains.map((d) => d.name).join(', ')} and their variograms` });
+	});
 }
 
 /** A domain with the zonation it belongs to. */
@@ -109,7 +124,11 @@ export function createDomain(projectId: string, zonationId: string, input: Domai
 	}
 	checkMembers(input.members ?? [], listUnits(projectId, db), z.domains);
 	if (input.rules) checkRuleSoundings(db, projectId, input.rules);
-	const id = inTransaction(db, (tx) => insertDomain(tx, zonationId, input, z.domains.length, getSite(projectId, tx).lengthUnit));
+	const id = inTransaction(db, (tx) => {
+		const created = insertDomain(tx, zonationId, input, z.domains.length, getSite(projectId, tx).lengthUnit);
+		recordAudit(tx, { projectId, kind: 'domain', action: 'created', subject: `${input.name} (${z.name})`, subjectId: created, detail: `simulated in ${input.property}` });
+		return created;
+	});
 	return getDomain(projectId, id, db).domain;
 }
 
@@ -125,6 +144,7 @@ export function updateDomain(projectId: string, domainId: string, input: DomainU
 	if (input.rules) checkRuleSoundings(db, projectId, input.rules);
 	const { members, declusterCell, ...fields } = input;
 	inTransaction(db, (tx) => {
+		recordAudit(tx, { projectId, kind: 'domain', action: input.rules && Object.keys(input).length === 1 ? 'changed rules of' : 'changed', subject: `${input.name ?? domain.name} (${zonation.name})`, subjectId: domainId, detail: domainChanges(domain, input) });
 		const set = { ...fields, ...(declusterCell !== undefined ? { declusterCell: storedCell(declusterCell) } : {}) };
 		if (Object.keys(set).length) tx.update(domains).set(set).where(eq(domains.id, domainId)).run();
 		if (members) {
@@ -136,8 +156,29 @@ export function updateDomain(projectId: string, domainId: string, input: DomainU
 }
 
 export function deleteDomain(projectId: string, domainId: string, db: DbOrTx = getDb()): void {
-	getDomain(projectId, domainId, db);
-	db.delete(domains).where(eq(domains.id, domainId)).run();
+	const { domain, zonation } = getDomain(projectId, domainId, db);
+	inTransaction(db, (tx) => {
+		tx.delete(domains).where(eq(domains.id, domainId)).run();
+		recordAudit(tx, { projectId, kind: 'domain', action: 'deleted', subject: `${domain.name} (${zonation.name})`, subjectId: domainId, detail: 'with its variograms' });
+	});
+}
+
+/** What a domain update changes, in words: each field that differs, rules and members summarised. */
+function domainChanges(domain: DomainView, input: DomainUpdate): string {
+	const parts: string[] = [];
+	for (const [k, v] of Object.entries(input)) {
+		if (v === undefined || k === 'members') continue;
+		const old = (domain as unknown as Record<string, unknown>)[k];
+		if (JSON.stringify(v) === JSON.stringify(old)) continue;
+		if (k === 'rules' && old && typeof old === 'object') {
+			for (const [rk, rv] of Object.entries(v as object)) {
+				const ro = (old as Record<string, unknown>)[rk];
+				if (JSON.stringify(rv) !== JSON.stringify(ro)) parts.push(`rule ${rk}: ${JSON.stringify(ro)} → ${JSON.stringify(rv)}`);
+			}
+		} else parts.push(`${k}: ${JSON.stringify(old)} → ${JSON.stringify(v)}`);
+	}
+	if (input.members) parts.push(`members replaced (${input.members.length})`);
+	return parts.join('; ');
 }
 
 /**

@@ -1,11 +1,14 @@
 import type { ProjectApi, RecipeSummaryView, RecipeView, SectionView, SoundingSummary } from '$lib/api';
+import { RecipeReview } from './review.svelte';
 import { EnsembleRun, type RunPool } from './run.svelte';
 import { FieldViewer, type EnsembleEngine } from './viewer.svelte';
+import { boundaryChoices, WeakZoneStudy, type BoundaryChoice } from './weak-zones.svelte';
 
 /**
  * The Simulations page of a project: its recipes, the one opened (its view, the engine's recipe, a run in the
- * browser's worker pool and the viewer), and the section's soundings and contacts drawn over the field. Opening
- * another recipe cancels the run of the one before; realizations live in memory only.
+ * browser's worker pool, the viewer, its review and its weak-zone study), and the section's soundings and
+ * contacts drawn over the field. Opening another recipe cancels the run of the one before; realizations live in
+ * memory only.
  */
 export class SimulationsPage {
 	recipes = $state<RecipeSummaryView[]>([]);
@@ -13,6 +16,8 @@ export class SimulationsPage {
 	view = $state.raw<RecipeView | null>(null);
 	run = $state.raw<EnsembleRun | null>(null);
 	viewer = $state.raw<FieldViewer | null>(null);
+	review = $state.raw<RecipeReview | null>(null);
+	weak = $state.raw<WeakZoneStudy | null>(null);
 	section = $state.raw<SectionView | null>(null);
 	soundings = $state.raw<SoundingSummary[]>([]);
 	loading = $state(true);
@@ -21,9 +26,11 @@ export class SimulationsPage {
 
 	private engine: EnsembleEngine | null = null;
 	private opened = 0;
+	private boundaries: BoundaryChoice[] = [];
 
 	constructor(
 		private readonly api: ProjectApi,
+		private readonly lengthUnit: 'm' | 'ft',
 		private readonly startPool: () => RunPool,
 		private readonly startEngine: () => EnsembleEngine,
 		private readonly onSelect: (recipeId: string) => void = () => {}
@@ -32,9 +39,10 @@ export class SimulationsPage {
 	/** Loads the recipes and the section; opens `wanted` when it is one of them, else the newest. */
 	async start(wanted: string | null): Promise<void> {
 		try {
-			const [recipes, soundings] = await Promise.all([this.api.recipes(), this.api.soundings()]);
+			const [recipes, soundings, boundaries, units] = await Promise.all([this.api.recipes(), this.api.soundings(), this.api.zoneBoundaries(), this.api.units()]);
 			this.recipes = recipes;
 			this.soundings = soundings;
+			this.boundaries = boundaryChoices(boundaries, units, this.lengthUnit);
 			const first = recipes.find((r) => r.id === wanted) ?? recipes[0];
 			if (first) await this.open(first.id);
 		} catch (err) {
@@ -69,11 +77,20 @@ export class SimulationsPage {
 			this.view = view;
 			this.run = run;
 			this.viewer = new FieldViewer(view, recipe, run, this.engine);
+			this.review = new RecipeReview(this.api, recipeId, (changed) => this.changed(changed));
+			this.weak = new WeakZoneStudy(this.api, [recipeId], this.viewer.properties, this.boundaries, this.lengthUnit, { [recipeId]: view.provenance.percentiles });
+			void this.review.load();
 		} catch (err) {
 			if (ticket === this.opened) this.problem = (err as Error).message;
 		} finally {
 			if (ticket === this.opened) this.opening = false;
 		}
+	}
+
+	/** A recipe changed on the server (review asked, approved): its view and its entry in the list follow. */
+	private changed(view: RecipeView): void {
+		if (this.view?.id === view.id) this.view = view;
+		this.recipes = this.recipes.map((r) => (r.id === view.id ? { ...r, status: view.status } : r));
 	}
 
 	/** Deletes a recipe (analyst) and opens the next one. */
@@ -96,6 +113,8 @@ export class SimulationsPage {
 		const run = this.run;
 		this.run = null;
 		this.viewer = null;
+		this.review = null;
+		this.weak = null;
 		await run?.destroy();
 	}
 

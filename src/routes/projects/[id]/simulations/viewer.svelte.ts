@@ -1,5 +1,5 @@
 import type { RecipeView } from '$lib/api';
-import type { CheckOptions, DomainCheck, EnsembleStat } from '$lib/ensemble';
+import { checkUniform, type CheckOptions, type DomainCheck, type EnsembleStat, type UniformCheck } from '$lib/ensemble';
 import { weightedQuantiles, type Recipe } from '$lib/geostat';
 import { PROPERTY_INFO, type SimulatedProperty } from '$lib/properties';
 import type { GridDefinition } from '$lib/site';
@@ -57,6 +57,8 @@ export class FieldViewer {
 	planRow = $state(0);
 	mapStatus = $state('');
 	checks = $state.raw<DomainCheck[] | null>(null);
+	/** A uniform recipe's checks (its values against its data), instead of `checks`. */
+	uniformChecks = $state.raw<UniformCheck[] | null>(null);
 	checksStatus = $state('');
 	/** Bumped when a map arrives. */
 	private mapVersion = $state(0);
@@ -95,9 +97,9 @@ export class FieldViewer {
 			.filter((d) => d.index !== null)
 			.sort((a, b) => a.index! - b.index!)
 			.map((d) => {
-				// With a trend the tail bounds are of the residuals; the values' span is then the data's.
+				// With a trend the tail bounds are of the residuals, and a uniform recipe has none: the values' span is then the data's.
 				const values = recipe.input.domains[d.index!].samples.map((s) => s.value);
-				const [zmin, zmax] = d.trend ? [Math.min(...values), Math.max(...values)] : [d.tails!.zmin, d.tails!.zmax];
+				const [zmin, zmax] = d.trend || !d.tails ? [Math.min(...values), Math.max(...values)] : [d.tails.zmin, d.tails.zmax];
 				return { index: d.index!, name: d.name, property: d.property, cells: d.cells, zmin, zmax };
 			});
 		this.properties = [...new Set(this.domains.map((d) => d.property))];
@@ -107,6 +109,13 @@ export class FieldViewer {
 		this.properties.sort((a, b) => (cells.get(b) ?? 0) - (cells.get(a) ?? 0));
 		this.property = this.properties[0];
 		this.planRow = Math.floor(this.grid.counts.z / 2);
+		// A uniform baseline opens at its P50 when it has one.
+		if (recipe.kind === 'uniform') this.realization = Math.max(0, recipe.input.percentiles.indexOf(50));
+	}
+
+	/** What realization r is called: "realization 3", or "P50" for a uniform recipe. */
+	realizationName(r: number): string {
+		return this.recipe.kind === 'uniform' ? `P${this.recipe.input.percentiles[r]}` : `realization ${r}`;
 	}
 
 	readonly info = $derived(PROPERTY_INFO[this.property]);
@@ -159,7 +168,7 @@ export class FieldViewer {
 		const u = this.unitText ? ` (${this.unitText})` : '';
 		if (this.mode === 'below') return `P(${label} < ${this.threshold ?? '…'}${this.unitText ? ` ${this.unitText}` : ''})`;
 		if (this.mode === 'sd') return `Standard deviation of ${label}${u}`;
-		if (this.mode === 'realization') return `${label}${u}, realization ${this.realization}`;
+		if (this.mode === 'realization') return `${label}${u}, ${this.realizationName(this.realization)}`;
 		return `${MODE_LABELS[this.mode]} of ${label}${u}`;
 	});
 
@@ -225,6 +234,11 @@ export class FieldViewer {
 			return;
 		}
 		this.checksStatus = `Checking ${made.length} realization${made.length === 1 ? '' : 's'}…`;
+		if (this.recipe.kind === 'uniform') {
+			this.uniformChecks = checkUniform(this.recipe, this.run.results);
+			this.checksStatus = '';
+			return;
+		}
 		try {
 			this.checks = await this.engine.checks(
 				this.recipe,

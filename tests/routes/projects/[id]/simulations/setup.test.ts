@@ -3,7 +3,8 @@
 import { describe, expect, it } from 'vitest';
 import { RequestFailed, type ProjectApi, type RecipeView } from '../../../../../src/lib/api/index';
 import { recipeSetupSchema } from '../../../../../src/lib/schemas/recipe';
-import { RecipeSetupForm, freshSeed } from '../../../../../src/routes/projects/[id]/simulations/new/setup.svelte';
+import { RecipeSetupForm, freshSeed, parsePercentiles } from '../../../../../src/routes/projects/[id]/simulations/new/setup.svelte';
+import { weightedQuantiles } from '../../../../../src/lib/geostat/index';
 
 function memoryApi(fail = false) {
 	const sent: unknown[] = [];
@@ -38,7 +39,7 @@ function memoryApi(fail = false) {
 		recipes: async () => [{ id: 'old' }],
 		meshes: async () => [{ id: 'm1', name: 'Model mesh', geometry: '2d', elements: 3, groups: [{ name: 'fill', elements: 1 }, { name: 'foundation', elements: 2 }] }],
 		variograms: async (id: string) => (id === 'sand' ? [{ id: 'v1', name: 'Fit', version: 1, createdAt: '2026-01-01T00:00:00Z' }] : []),
-		domainSamples: async (id: string) => ({ samples: { value: id === 'sand' ? [60, 80, 95] : [0.2, 0.3] } }),
+		domainSamples: async (id: string) => (id === 'sand' ? { samples: { value: [60, 80, 95] }, weights: [0.5, 0.25, 0.25] } : { samples: { value: [0.2, 0.3] }, weights: [0.5, 0.5] }),
 		section: async () => ({ soundings: [], units: [], contacts: [], boundaries: [] }),
 		createRecipe: async (body: unknown) => {
 			sent.push(body);
@@ -144,6 +145,27 @@ describe('RecipeSetupForm', () => {
 		expect(form.problem).toMatch(/Clay has no saved variogram/);
 		expect(form.rowIssues(1)).toEqual(['Clay has no saved variogram.']);
 		expect(form.rowIssues(0)).toEqual([]);
+	});
+
+	it('a uniform baseline includes every domain with data, shows each value as the server will resolve it, and sends the uniform setup', async () => {
+		const { api, sent } = memoryApi();
+		const form = new RecipeSetupForm(api, () => undefined);
+		await form.start(null);
+		form.setKind('uniform');
+		expect(form.name).toBe('By unit, uniform P50');
+		expect(form.rows.map((r) => r.simulate)).toEqual([true, true]);
+		form.percentiles = '33, 50 67';
+		expect(form.percentileList).toEqual([33, 50, 67]);
+		expect(form.uniformOf(form.rows[0])).toEqual(Array.from(weightedQuantiles([60, 80, 95], [0.5, 0.25, 0.25], [0.33, 0.5, 0.67])));
+		await form.create();
+		const body = recipeSetupSchema.parse(sent[0]);
+		expect(body).toMatchObject({ kind: 'uniform', percentiles: [33, 50, 67], domains: [{ domainId: 'sand', simulate: true }, { domainId: 'clay', simulate: true }] });
+		form.percentiles = '0, 50';
+		expect(form.percentileList).toBeNull();
+		expect(form.uniformOf(form.rows[0])).toBeNull();
+		expect(parsePercentiles('50, x')).toBeNull();
+		form.setKind('sgs');
+		expect(form.rows.map((r) => r.simulate)).toEqual([true, false]);
 	});
 
 	it('freshSeed gives nine digits', () => {

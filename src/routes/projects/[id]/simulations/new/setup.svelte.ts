@@ -1,5 +1,6 @@
 import { RequestFailed, type ApiIssue, type MeshView, type ProjectApi, type RecipeView, type SectionView, type SiteView, type SoundingSummary, type VariogramView, type ZonationView } from '$lib/api';
-import { DEFAULT_SEARCH, MAX_CELLS, type RecipeSetupInput } from '$lib/schemas/recipe';
+import { DEFAULT_PERCENTILES, DEFAULT_SEARCH, MAX_CELLS, type RecipeSetupInput } from '$lib/schemas/recipe';
+import { uniformValues } from '$lib/geostat';
 import {
 	axesDomains,
 	cellsPerDomain,
@@ -38,6 +39,19 @@ export interface DomainRow {
 	dataMin: number | null;
 	dataMax: number | null;
 	samples: number;
+	/** The conditioning data and their declustering weights (for a uniform recipe's values). */
+	data: { values: number[]; weights: number[] };
+}
+
+/** What a recipe makes: N conditional realizations (SGS), or uniform fields at percentiles of each domain's data. */
+export type SetupKind = 'sgs' | 'uniform';
+
+/** Percentiles as typed ("33, 50, 67"): the numbers, or null when one is not a number. */
+export function parsePercentiles(text: string): number[] | null {
+	const parts = text.split(/[\s,;]+/).filter((t) => t !== '');
+	if (parts.length === 0) return null;
+	const ps = parts.map(Number);
+	return ps.every((p) => Number.isFinite(p)) ? ps : null;
 }
 
 /** The grid as typed: from, to and cell size per axis. */
@@ -89,6 +103,9 @@ function niceCell(span: number, n: number): number {
  * recipe will hold. Create sends the setup to the API; the same inputs as an existing recipe open that one.
  */
 export class RecipeSetupForm {
+	kind = $state<SetupKind>('sgs');
+	/** A uniform recipe's percentiles as typed. */
+	percentiles = $state(DEFAULT_PERCENTILES.join(', '));
 	name = $state('');
 	zonationId = $state('');
 	seed = $state(freshSeed());
@@ -129,6 +146,29 @@ export class RecipeSetupForm {
 	) {}
 
 	readonly geometry = $derived(this.site?.geometry ?? '2d');
+	/** The percentiles typed, when they are numbers strictly between 0 and 100. */
+	readonly percentileList = $derived.by(() => {
+		const ps = parsePercentiles(this.percentiles);
+		return ps && ps.every((p) => p > 0 && p < 100) ? ps : null;
+	});
+
+	/** A domain's value at each percentile typed (the engine's uniformValues, as the server will resolve it), or null. */
+	uniformOf(row: DomainRow): number[] | null {
+		if (!this.percentileList || row.data.values.length === 0) return null;
+		return uniformValues(row.data.values, row.data.weights, this.percentileList);
+	}
+
+	/** Switches the kind: domains are included by default when they have data (and, for SGS, a saved variogram). */
+	setKind(kind: SetupKind): void {
+		this.kind = kind;
+		for (const r of this.rows) r.simulate = r.samples > 0 && (kind === 'uniform' || r.variograms.length > 0);
+		const z = this.zonation;
+		if (z && (!this.name || /(, \d+ realizations|, uniform P[\d., P]+)$/.test(this.name))) this.name = this.defaultName(z.name);
+	}
+
+	private defaultName(zonation: string): string {
+		return this.kind === 'uniform' ? `${zonation}, uniform P${(this.percentileList ?? DEFAULT_PERCENTILES).join(', P')}` : `${zonation}, ${this.realizations} realizations`;
+	}
 	readonly zonation = $derived(this.zonations.find((z) => z.id === this.zonationId) ?? null);
 
 	/** The grid spec as typed, or null while a number is missing or not a number. */
@@ -263,7 +303,7 @@ export class RecipeSetupForm {
 		this.zonationId = id;
 		const z = this.zonations.find((zz) => zz.id === id);
 		if (!z) return;
-		if (!this.name) this.name = `${z.name}, ${this.realizations} realizations`;
+		if (!this.name) this.name = this.defaultName(z.name);
 		const rows = await Promise.all(
 			z.domains.map(async (d): Promise<DomainRow> => {
 				const [variograms, samples] = await Promise.all([this.api.variograms(d.id), this.api.domainSamples(d.id)]);
@@ -272,7 +312,7 @@ export class RecipeSetupForm {
 					domainId: d.id,
 					name: d.name,
 					property: d.property,
-					simulate: variograms.length > 0 && values.length > 0,
+					simulate: values.length > 0 && (this.kind === 'uniform' || variograms.length > 0),
 					variogramId: '',
 					kriging: 'simple',
 					maxData: String(DEFAULT_SEARCH.maxData),
@@ -287,7 +327,8 @@ export class RecipeSetupForm {
 					variograms,
 					dataMin: values.length ? Math.min(...values) : null,
 					dataMax: values.length ? Math.max(...values) : null,
-					samples: values.length
+					samples: values.length,
+					data: { values, weights: samples.weights }
 				};
 			})
 		);
@@ -299,8 +340,12 @@ export class RecipeSetupForm {
 	prefill(base: RecipeView): void {
 		const s = base.setup;
 		this.name = `${base.name} (changed)`;
-		this.seed = s.seed;
-		this.realizations = String(s.realizations);
+		this.kind = s.kind ?? 'sgs';
+		if (s.kind === 'uniform') this.percentiles = s.percentiles.join(', ');
+		else {
+			this.seed = s.seed;
+			this.realizations = String(s.realizations);
+		}
 		const text = (a: { from: number; to: number; cell: number }) => ({ from: String(a.from), to: String(a.to), cell: String(a.cell) });
 		if (s.grid) {
 			this.target = 'grid';
@@ -326,10 +371,11 @@ export class RecipeSetupForm {
 			if (s.mesh.assign === 'groups') this.groupDomains = Object.fromEntries(s.mesh.groups.map((g) => [g.group, g.domainId ?? '']));
 		}
 		for (const row of this.rows) {
-			const d = s.domains.find((x) => x.domainId === row.domainId);
-			if (!d) continue;
-			row.simulate = d.simulate;
-			if (!d.simulate) continue;
+			const found = s.domains.find((x) => x.domainId === row.domainId);
+			if (!found) continue;
+			row.simulate = found.simulate;
+			if (s.kind === 'uniform' || !found.simulate) continue;
+			const d = found as Extract<(typeof s.domains)[number], { simulate: true; variogramId: string | null }>;
 			row.variogramId = d.variogramId ?? '';
 			row.kriging = d.kriging;
 			row.maxData = String(d.search.maxData);
@@ -375,7 +421,18 @@ export class RecipeSetupForm {
 								? { geometry: '2d', chainage: axis(this.grid.chainage), elevation: this.elevationBody() }
 								: { geometry: '3d', x: axis(this.grid.x), y: axis(this.grid.y), elevation: this.elevationBody() }
 					};
+		if (this.kind === 'uniform') {
+			return {
+				kind: 'uniform',
+				name: this.name,
+				zonationId: this.zonationId,
+				percentiles: parsePercentiles(this.percentiles) ?? [NaN],
+				...targets,
+				domains: this.rows.map((r) => ({ domainId: r.domainId, simulate: r.simulate }))
+			};
+		}
 		return {
+			kind: 'sgs',
 			name: this.name,
 			zonationId: this.zonationId,
 			seed: this.seed,
