@@ -45,7 +45,7 @@ export default defineConfig({
 				test: {
 					name: 'unit',
 					include: ['tests/**/*.test.ts'],
-					exclude: ['tests/integration/**', 'tests/e2e/**'],
+					exclude: ['tests/integration/**', 'tests/e2e/**', 'tests/queue/**'],
 					environment: 'node'
 				}
 			},
@@ -53,7 +53,7 @@ export default defineConfig({
 				extends: true,
 				test: {
 					name: 'server',
-					include: ['tests/integration/**/*.test.ts', 'tests/e2e/**/*.test.ts'],
+					include: ['tests/integration/**/*.test.ts', 'tests/e2e/**/*.test.ts', 'tests/queue/**/*.test.ts'],
 					environment: 'node',
 					fileParallelism: false,
 					testTimeout: 120_000,

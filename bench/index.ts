@@ -18,7 +18,8 @@ const MODULES: (() => Promise<{ default: BenchCase[] }>)[] = [
 	() => import('./demo-run'),
 	() => import('./browser-run'),
 	() => import('./exports'),
-	() => import('./weak-zones')
+	() => import('./weak-zones'),
+	() => import('./queue')
 ];
 
 const only = process.argv[2];

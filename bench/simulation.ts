@@ -63,7 +63,7 @@ function sectionInput(): { input: SimulationInput; targets: TargetPoints } {
 	return { targets, input: { seed: 'bench-section', domains: [{ samples, model, transform: 'normal-score', kriging: 'simple', search: { maxData: 16, maxSimulated: 16 } }] } };
 }
 
-function blockInput(): { input: SimulationInput; targets: TargetPoints } {
+export function blockInput(): { input: SimulationInput; targets: TargetPoints } {
 	// 100 × 100 × 100 = 1,000,000 targets at 2 × 2 × 0.25 m (200 m × 200 m × 25 m), 25 soundings.
 	const targets = grid(100, 100, 100, 2, 2, 0.25);
 	const model: VariogramModel = { azimuth: 0, structures: [{ type: 'exponential', sill: 1, rangeMajor: 40, rangeMinor: 40, rangeVertical: 1.5 }] };

@@ -1,5 +1,6 @@
 #!/usr/bin/env node
-// `npm start`: build when build/ is missing or older than any source, then serve build/index.js.
+// `npm start`: build when build/ is missing or older than any source (the server, then the queue's worker), then
+// serve build/index.js.
 // PORT (3000), HOST and ORIGIN are honoured; ORIGIN defaults to http://localhost:PORT because
 // adapter-node needs it to accept form posts. SEED_DEMO defaults to 1 here (and only here).
 import { spawnSync, spawn } from 'node:child_process';
@@ -30,6 +31,9 @@ if (!existsSync(built) || statSync(built).mtimeMs < sourcesTime) {
 	const vite = join(root, 'node_modules', 'vite', 'bin', 'vite.js');
 	const result = spawnSync(process.execPath, [vite, 'build'], { stdio: 'inherit' });
 	if (result.status !== 0) process.exit(result.status ?? 1);
+	// vite build empties build/; the queue's worker (`npm run worker`) is built beside the server again.
+	const worker = spawnSync(process.execPath, [join(root, 'scripts', 'build-worker.js')], { stdio: 'inherit' });
+	if (worker.status !== 0) process.exit(worker.status ?? 1);
 }
 
 const port = process.env.PORT ?? '3000';

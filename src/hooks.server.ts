@@ -10,6 +10,7 @@ import { seedDemo } from '$lib/server/services/demo';
 import { stopRealizations } from '$lib/server/realizations';
 import { resumeExports, stopExports } from '$lib/server/services/export-jobs';
 import { stopMeshWorker } from '$lib/server/services/mesh-thread';
+import { startQueue, stopQueue } from '$lib/server/queue';
 import { ensureInitialAdmin, findUser } from '$lib/server/services/users';
 import { initialAdminEmail, seedDemoEnabled } from '$lib/server/config';
 import { crossSiteRefusal, refuseUnread } from '$lib/server/csrf';
@@ -32,13 +33,15 @@ export const init: ServerInit = async () => {
 	}
 	const adminEmail = initialAdminEmail();
 	if (adminEmail) await ensureInitialAdmin(adminEmail, process.env.ORIGIN ?? `http://localhost:${process.env.PORT ?? 3000}`);
+	// Before the export jobs resume: with REDIS_URL they run on the queue's runner.
+	startQueue();
 	resumeExports(db);
 	// adapter-node emits this after closing the HTTP server; the SMTP sink and the realization workers would
 	// otherwise keep the process alive.
 	process.once('sveltekit:shutdown' as 'beforeExit', () => {
 		void settleBackground()
 			.then(() => stopExports())
-			.then(() => Promise.all([closeMail(), stopRealizations(), stopMeshWorker()]))
+			.then(() => Promise.all([closeMail(), stopRealizations(), stopMeshWorker(), stopQueue()]))
 			.then(() => db.$client.close());
 	});
 };

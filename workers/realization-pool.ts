@@ -34,6 +34,12 @@ export interface RunOptions {
 	admit?: (realization: number) => Promise<void> | void;
 	/** Keep the realizations in the map the run resolves with (default true); false when onRealization takes them. */
 	keep?: boolean;
+	/**
+	 * runRecipe only: the recipe's hash. A worker that prepared the recipe under this key before (and has not been
+	 * restarted since) keeps its prepared simulation instead of preparing it again, so a worker serving one recipe
+	 * over many small runs (the queue's realization ranges) prepares it once. Same bits either way.
+	 */
+	key?: string;
 }
 
 export class RealizationPool {
@@ -67,7 +73,16 @@ export class RealizationPool {
 	 * to the workers. Rejects like run(), and with the worker's error for an invalid or outdated recipe.
 	 */
 	runRecipe(recipe: Recipe, realizations: number[], opts: RunOptions = {}): Promise<Map<number, Float64Array>> {
-		return this.execute((w) => w.remote.prepareRecipe(recipe), realizations, opts);
+		const key = opts.key;
+		if (key === undefined) return this.execute((w) => w.remote.prepareRecipe(recipe), realizations, opts);
+		return this.execute(
+			async (w) => {
+				const active = await w.remote.preparedAs(key);
+				return active >= 0 ? active : w.remote.prepareRecipe(recipe, key);
+			},
+			realizations,
+			opts
+		);
 	}
 
 	private async execute(

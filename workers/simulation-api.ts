@@ -15,9 +15,12 @@ type Realize = (realization: number, onProgress?: (done: number, total: number) 
 
 export function createSimulationApi() {
 	let realize: Realize | null = null;
+	let preparedKey: string | null = null;
+	let preparedActive = 0;
 	return {
 		/** Prepares the simulation; returns the number of simulated targets per realization. */
 		prepare(input: SimulationInput, targets: TargetPoints): number {
+			preparedKey = null;
 			const prepared = prepareSimulation(input, targets);
 			realize = (r, cb) => simulatePrepared(prepared, r, cb);
 			return prepared.active;
@@ -28,10 +31,21 @@ export function createSimulationApi() {
 		 * expands the targets.
 		 * @throws {RangeError} on an invalid recipe; {Error} for a recipe of another engine version
 		 */
-		prepareRecipe(recipe: Recipe): number {
+		prepareRecipe(recipe: Recipe, key?: string): number {
+			preparedKey = null;
 			const prepared = prepareRecipe(recipe);
 			realize = (r, cb) => prepared.realize(r, cb);
+			preparedKey = key ?? null;
+			preparedActive = prepared.active;
 			return prepared.active;
+		},
+		/**
+		 * The number of simulated targets when the recipe prepared last was prepared under `key` (its hash), else
+		 * -1: a worker that keeps serving one recipe prepares it once, and what it keeps between realizations (data
+		 * searches, solved systems) keeps paying off across runs. Never changes a bit.
+		 */
+		preparedAs(key: string): number {
+			return realize && preparedKey === key ? preparedActive : -1;
 		},
 		/** Realization r of the prepared simulation, in original units (see simulate). */
 		realize(realization: number, onProgress?: (done: number, total: number) => void): Float64Array {

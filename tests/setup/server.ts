@@ -31,7 +31,7 @@ export function freePort(): Promise<number> {
 	});
 }
 
-async function waitUntilReady(url: string, child: ChildProcess, timeoutMs = 60_000): Promise<void> {
+export async function waitUntilReady(url: string, child: ChildProcess, timeoutMs = 60_000): Promise<void> {
 	const deadline = Date.now() + timeoutMs;
 	while (Date.now() < deadline) {
 		if (child.exitCode !== null) throw new Error(`server exited early with code ${child.exitCode}`);

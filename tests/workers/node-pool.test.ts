@@ -98,3 +98,29 @@ describe('createNodePool (worker_threads + comlink node adapter)', () => {
 		await broken.close();
 	}, 60_000);
 });
+
+describe('RealizationPool.runRecipe with a key (a worker keeps its prepared recipe)', () => {
+	const pool = createNodePool({ size: 1 });
+	afterAll(() => pool.close());
+
+	it('prepares once for runs under the same key, again for another key, with the same bits as regenerate()', async () => {
+		const t = { kind: 'grid' as const, origin: { x: 0, y: 0, z: -3 }, spacing: { x: 1, y: 1, z: 0.25 }, counts: { x: 30, y: 1, z: 12 }, domainRuns: [[0, 360]] as [number, number][] };
+		const a = createRecipe(input, t, { realizations: 6 });
+		const b = createRecipe({ ...input, seed: 'pool-b' }, t, { realizations: 6 });
+		const prepares: number[] = [];
+		const spy = (recipe: typeof a, key: string, list: number[]) =>
+			pool.runRecipe(recipe, list, { key, onProgress: (d) => d === 0 && prepares.push(1) });
+		const first = await spy(a, 'A', [0, 1]);
+		const [w] = (pool as unknown as { workers: { remote: { preparedAs(k: string): Promise<number> } }[] }).workers;
+		expect(await w.remote.preparedAs('A')).toBe(360);
+		expect(await w.remote.preparedAs('B')).toBe(-1);
+		const second = await spy(a, 'A', [5, 2]);
+		expect(await w.remote.preparedAs('A')).toBe(360);
+		const other = await spy(b, 'B', [2]);
+		expect(await w.remote.preparedAs('A')).toBe(-1);
+		expect(await w.remote.preparedAs('B')).toBe(360);
+		for (const [r, v] of [...first, ...second]) expectSameBits(v, regenerate(a, r), `A realization ${r}`);
+		expectSameBits(other.get(2)!, regenerate(b, 2), 'B realization 2');
+		expect(ENGINE_VERSION).toBe(a.engineVersion);
+	}, 60_000);
+});

@@ -7,7 +7,8 @@ export const ERROR_CODES = {
 	409: 'conflict',
 	413: 'payload_too_large',
 	422: 'invalid',
-	500: 'internal'
+	500: 'internal',
+	503: 'unavailable'
 } as const;
 
 export type ErrorStatus = keyof typeof ERROR_CODES;

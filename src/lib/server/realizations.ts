@@ -20,6 +20,7 @@ import { CancelledError } from '$lib/cancelled-error';
 import type { EnsembleStat, WeakZoneGrid, WeakZoneOptions, WeakZoneSummary } from '$lib/ensemble';
 import { createNodePool } from '$workers/node-pool';
 import type { RealizationPool, RunOptions } from '$workers/realization-pool';
+import type { QueueRealizations } from './queue/realizations';
 
 let pool: Promise<RealizationPool> | null = null;
 let queue: Promise<unknown> = Promise.resolve();
@@ -49,6 +50,29 @@ export function useRealizationPool(given: RealizationPool): void {
 	pool = Promise.resolve(given);
 }
 
+let queued: QueueRealizations | null = null;
+
+/**
+ * Regenerates on the realization queue (BullMQ over Redis, REDIS_URL) instead of this process's pool: what
+ * runRealizations, streamRealizations and ensembleOf give is then made by the queue's workers, with the same bits.
+ * Ensemble maps are still computed here, from the realizations in order. `null` goes back to the pool.
+ */
+export function useRealizationQueue(given: QueueRealizations | null): void {
+	queued = given;
+}
+
+/** The realization queue in use, or null when realizations are made in this process. */
+export function realizationQueue(): QueueRealizations | null {
+	return queued;
+}
+
+/** What identifies a recipe for the queue, when the caller has it at hand (else it is computed). */
+export interface RecipeIdentity {
+	hash?: string;
+	/** The recipe's canonical JSON, as stored. */
+	document?: string;
+}
+
 /** Runs `job` after every job asked for before it (whether they succeeded or not). */
 function enqueue<T>(job: () => Promise<T>): Promise<T> {
 	const next = queue.then(job, job);
@@ -62,7 +86,23 @@ function enqueue<T>(job: () => Promise<T>): Promise<T> {
  * @throws (rejects) as RealizationPool.runRecipe: an invalid recipe, one of another engine version, a realization
  *   beyond the recipe's N
  */
-export function runRealizations(recipe: Recipe, realizations: number[], onEach?: (realization: number, values: Float64Array) => void): Promise<Map<number, Float64Array>> {
+export function runRealizations(
+	recipe: Recipe,
+	realizations: number[],
+	onEach?: (realization: number, values: Float64Array) => void,
+	identity: RecipeIdentity = {}
+): Promise<Map<number, Float64Array>> {
+	const q = queued;
+	if (q) {
+		return (async () => {
+			const out = new Map<number, Float64Array>();
+			for await (const [r, values] of q.stream({ recipe, ...identity }, realizations)) {
+				out.set(r, values);
+				onEach?.(r, values);
+			}
+			return out;
+		})();
+	}
 	return enqueue(async () => (await thePool()).runRecipe(recipe, realizations, { onRealization: onEach }));
 }
 
@@ -77,8 +117,12 @@ export function runRealizations(recipe: Recipe, realizations: number[], onEach?:
 export async function* streamRealizations(
 	recipe: Recipe,
 	realizations: number[],
-	{ signal, ahead = 2, onProgress }: { signal?: AbortSignal; ahead?: number; onProgress?: (done: number, total: number) => void } = {}
+	{ signal, ahead = 2, onProgress, identity = {} }: { signal?: AbortSignal; ahead?: number; onProgress?: (done: number, total: number) => void; identity?: RecipeIdentity } = {}
 ): AsyncGenerator<[number, Float64Array]> {
+	if (queued) {
+		yield* queued.stream({ recipe, ...identity }, realizations, { signal, onProgress });
+		return;
+	}
 	const position = new Map(realizations.map((r, k) => [r, k]));
 	const ready = new Map<number, Float64Array>();
 	let taken = 0;
@@ -170,7 +214,7 @@ const making = new Map<string, Promise<Float64Array[]>>();
  * All N realizations of a recipe (N = recipe.realizations), in realization order: from memory when they were
  * made a moment ago, else regenerated on the pool (once, however many callers wait for them).
  */
-export function ensembleOf(hash: string, recipe: Recipe): Promise<Float64Array[]> {
+export function ensembleOf(hash: string, recipe: Recipe, document?: string): Promise<Float64Array[]> {
 	if (kept?.hash === hash) {
 		keep(hash, kept.realizations);
 		return Promise.resolve(kept.realizations);
@@ -179,7 +223,7 @@ export function ensembleOf(hash: string, recipe: Recipe): Promise<Float64Array[]
 	if (pending) return pending;
 	const n = recipe.realizations ?? 1;
 	const list = Array.from({ length: n }, (_, r) => r);
-	const job = runRealizations(recipe, list)
+	const job = runRealizations(recipe, list, undefined, { hash, document })
 		.then((byNumber) => {
 			const ordered = list.map((r) => byNumber.get(r)!);
 			keep(hash, ordered);

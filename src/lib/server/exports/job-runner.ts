@@ -1,8 +1,8 @@
 /**
  * Where export jobs run. The routes and services only ever talk to a JobRunner: submit a stored job by its id,
  * cancel it, close. The in-process runner here runs one job at a time in this server's process (the realizations
- * themselves run on the worker pool); a distributed queue can take its place by implementing the same three calls
- * and calling the same `work` function on its workers, without touching the routes.
+ * themselves run on the worker pool); with REDIS_URL set, the queue's runner (src/lib/server/queue/job-runner.ts)
+ * takes its place: the same `work` on the web server, its realizations made by the queue's workers.
  */
 
 /** The work of one job: runs it to the end, or stops soon after `signal` aborts. Reports through the job's row. */
@@ -15,18 +15,26 @@ export interface JobRunner {
 	cancel(jobId: string): boolean;
 	/** Stops every job and takes no more (shutdown). */
 	close(): Promise<void>;
+	/** Jobs waiting and running now (the health endpoint). */
+	counts(): { waiting: number; active: number };
 }
 
-/** One job at a time, in order, in this process. */
+/** Jobs in order, at most `concurrency` at once (default one), in this process. */
 export class InProcessJobRunner implements JobRunner {
 	private readonly queue: string[] = [];
-	private running: { id: string; abort: AbortController; done: Promise<void> } | null = null;
+	private readonly running = new Map<string, { abort: AbortController; done: Promise<void> }>();
 	private closed = false;
+	private readonly concurrency: number;
 
-	constructor(private readonly work: JobWork) {}
+	constructor(
+		private readonly work: JobWork,
+		{ concurrency = 1 }: { concurrency?: number } = {}
+	) {
+		this.concurrency = Math.max(1, Math.floor(concurrency));
+	}
 
 	submit(jobId: string): void {
-		if (this.closed || this.queue.includes(jobId) || this.running?.id === jobId) return;
+		if (this.closed || this.queue.includes(jobId) || this.running.has(jobId)) return;
 		this.queue.push(jobId);
 		this.next();
 	}
@@ -37,32 +45,38 @@ export class InProcessJobRunner implements JobRunner {
 			this.queue.splice(k, 1);
 			return true;
 		}
-		if (this.running?.id === jobId) {
-			this.running.abort.abort();
+		const job = this.running.get(jobId);
+		if (job) {
+			job.abort.abort();
 			return true;
 		}
 		return false;
 	}
 
+	counts(): { waiting: number; active: number } {
+		return { waiting: this.queue.length, active: this.running.size };
+	}
+
 	async close(): Promise<void> {
 		this.closed = true;
 		this.queue.length = 0;
-		const r = this.running;
-		r?.abort.abort();
-		await r?.done;
+		const jobs = [...this.running.values()];
+		for (const j of jobs) j.abort.abort();
+		await Promise.all(jobs.map((j) => j.done));
 	}
 
 	private next(): void {
-		if (this.running || this.closed) return;
-		const id = this.queue.shift();
-		if (id === undefined) return;
-		const abort = new AbortController();
-		const done = this.work(id, abort.signal)
-			.catch((err) => console.error('[exports] job', id, err))
-			.finally(() => {
-				this.running = null;
-				this.next();
-			});
-		this.running = { id, abort, done };
+		while (!this.closed && this.running.size < this.concurrency) {
+			const id = this.queue.shift();
+			if (id === undefined) return;
+			const abort = new AbortController();
+			const done = this.work(id, abort.signal)
+				.catch((err) => console.error('[exports] job', id, err))
+				.finally(() => {
+					this.running.delete(id);
+					this.next();
+				});
+			this.running.set(id, { abort, done });
+		}
 	}
 }

@@ -7,7 +7,7 @@
 import { createReadStream, createWriteStream, mkdirSync, renameSync, rmSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { pipeline } from 'node:stream/promises';
-import { and, desc, eq, inArray, lt } from 'drizzle-orm';
+import { and, count, desc, eq, gt, inArray, lt } from 'drizzle-orm';
 import { CancelledError } from '$lib/cancelled-error';
 import { formatDate } from '$lib/dates';
 import type { ExportJobRequest } from '$lib/schemas/exports';
@@ -20,6 +20,9 @@ import { dataDir } from '$lib/server/config';
 import { ServiceError } from '$lib/server/errors';
 import { InProcessJobRunner, type JobRunner } from '$lib/server/exports/job-runner';
 import { sendMail } from '$lib/server/mail';
+import { realizationQueue } from '$lib/server/realizations';
+import { exportsAtOnce } from '$lib/server/queue';
+import { QueueJobRunner } from '$lib/server/queue/job-runner';
 import { exportContext, rangeText, zipFileName, zipRequest, zipStream } from './exports';
 
 /** How long a finished export's file is kept: EXPORT_RETENTION_DAYS (default 7). */
@@ -106,10 +109,27 @@ export function getExport(projectId: string, exportId: string, db: DbOrTx = getD
 
 let runner: JobRunner | null = null;
 
-/** The job runner: the in-process one unless another was given (useJobRunner). */
+/**
+ * The job runner: the queue's when the realization queue is in use (REDIS_URL), else the in-process one, unless
+ * another was given (useJobRunner).
+ */
 export function jobRunner(): JobRunner {
-	runner ??= new InProcessJobRunner((id, signal) => runExportJob(id, signal));
+	if (!runner) {
+		const work = (id: string, signal: AbortSignal) => runExportJob(id, signal);
+		const queue = realizationQueue();
+		runner = queue ? new QueueJobRunner(work, queue, { concurrency: exportsAtOnce() }) : new InProcessJobRunner(work);
+	}
 	return runner;
+}
+
+/** Export jobs that failed in the last 24 hours (the health endpoint, in process). */
+export function recentlyFailedExports(now = new Date(), db: DbOrTx = getDb()): number {
+	const since = new Date(now.getTime() - 86_400_000);
+	return db
+		.select({ n: count() })
+		.from(exportJobs)
+		.where(and(eq(exportJobs.status, 'failed'), gt(exportJobs.finishedAt, since)))
+		.get()!.n;
 }
 
 /** Runs jobs on `given` instead (a distributed queue, tests). */

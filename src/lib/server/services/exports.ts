@@ -174,7 +174,7 @@ async function* realizationsOf(ctx: ExportContext, list: number[], signal: Abort
 		for (let k = 0; k < list.length; k++) yield [list[k], kept[k]!];
 		return;
 	}
-	yield* streamRealizations(ctx.engine, list, { signal, onProgress });
+	yield* streamRealizations(ctx.engine, list, { signal, onProgress, identity: { hash: ctx.recipe.hash, document: ctx.recipe.document } });
 }
 
 /**

@@ -158,9 +158,9 @@ export function recipeDocument(projectId: string, recipeId: string, db: DbOrTx =
 }
 
 /** The engine's recipe of a stored recipe, parsed from its document. @throws ServiceError 404 */
-export function loadRecipe(projectId: string, recipeId: string, db: DbOrTx = getDb()): { hash: string; recipe: Recipe } {
+export function loadRecipe(projectId: string, recipeId: string, db: DbOrTx = getDb()): { hash: string; recipe: Recipe; document: string } {
 	const { hash, text } = recipeDocument(projectId, recipeId, db);
-	return { hash, recipe: recipeSchema.parse(JSON.parse(text)) };
+	return { hash, recipe: recipeSchema.parse(JSON.parse(text)), document: text };
 }
 
 /**

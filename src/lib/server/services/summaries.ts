@@ -38,13 +38,13 @@ export interface SummaryResult {
  * @throws ServiceError 404 for a recipe not in the project, or r outside 0 … N − 1
  */
 export async function recipeRealization(projectId: string, recipeId: string, realization: number, db: DbOrTx = getDb()): Promise<RealizationResult> {
-	const { hash, recipe } = loadRecipe(projectId, recipeId, db);
+	const { hash, recipe, document } = loadRecipe(projectId, recipeId, db);
 	const n = recipe.realizations ?? 1;
 	if (!Number.isSafeInteger(realization) || realization < 0 || realization >= n) {
 		throw new ServiceError(404, `Realization ${realization} does not exist: the recipe has ${n} (0 … ${n - 1}).`);
 	}
 	checkEngine(recipe);
-	const values = keptRealization(hash, realization) ?? (await runRealizations(recipe, [realization])).get(realization)!;
+	const values = keptRealization(hash, realization) ?? (await runRealizations(recipe, [realization], undefined, { hash, document })).get(realization)!;
 	return { hash, engineVersion: recipe.engineVersion, realization, values };
 }
 
@@ -74,7 +74,7 @@ const computing = new Map<string, Promise<Float64Array>>();
  * @throws ServiceError 404 for a recipe not in the project
  */
 export async function recipeSummary(projectId: string, recipeId: string, stat: EnsembleStat, threshold: number | null, db: DbOrTx = getDb()): Promise<SummaryResult> {
-	const { hash, recipe } = loadRecipe(projectId, recipeId, db);
+	const { hash, recipe, document } = loadRecipe(projectId, recipeId, db);
 	const t = stat === 'below' ? threshold : null;
 	const key = { hash, stat, threshold: thresholdKey(t) };
 	const n = recipe.realizations ?? 1;
@@ -88,7 +88,7 @@ export async function recipeSummary(projectId: string, recipeId: string, stat: E
 	const id = `${key.hash}|${key.stat}|${key.threshold}`;
 	let job = computing.get(id);
 	if (!job) {
-		job = ensembleOf(hash, recipe)
+		job = ensembleOf(hash, recipe, document)
 			.then((realizations) => ensembleMapOffThread(realizations, stat, t ?? undefined))
 			.then((values) => {
 				db.insert(recipeSummaries)

@@ -57,7 +57,7 @@ const computing = new Map<string, Promise<{ figures: CachedFigures; map: Float64
  */
 export async function recipeWeakZonesOf(projectId: string, recipeId: string, query: WeakZonesQuery, db: DbOrTx = getDb()): Promise<WeakZonesResult> {
 	const view = getRecipe(projectId, recipeId, db);
-	const { hash, recipe } = loadRecipe(projectId, recipeId, db);
+	const { hash, recipe, document } = loadRecipe(projectId, recipeId, db);
 	const { property, threshold, minLength } = query;
 	const domains = view.provenance.domains.filter((d) => d.index !== null && d.property === property).map((d) => d.index!).sort((a, b) => a - b);
 	if (domains.length === 0) {
@@ -114,7 +114,7 @@ export async function recipeWeakZonesOf(projectId: string, recipeId: string, que
 			if (wanted.has(d)) eligible.fill(1, p, p + len);
 			p += len;
 		}
-		job = ensembleOf(hash, recipe)
+		job = ensembleOf(hash, recipe, document)
 			.then((realizations) =>
 				weakZonesOffThread(realizations, { counts, spacing, ...(heights ? { heights } : {}) }, { threshold, eligible, minLength, side, section: site.geometry === '2d' })
 			)
