@@ -25,7 +25,7 @@ const TOPICS: Record<string, string[]> = {
 	],
 	'trend of the mean': ['fitLinearTrend', 'trendValue', 'trendResiduals', 'validateTrend'],
 	'linear algebra and kriging': ['choleskyFactor', 'choleskySolve', 'krige'],
-	'neighbour search': ['searchEllipsoid', 'normalisedCoordinates', 'BucketGrid', 'selectNearest', 'offsetTemplate'],
+	'neighbour search': ['searchEllipsoid', 'normalisedCoordinates', 'BucketGrid', 'ActiveBuckets', 'selectNearest', 'offsetTemplate'],
 	simulation: [
 		'detectLattice',
 		'prepareSimulation',

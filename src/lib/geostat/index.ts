@@ -41,6 +41,7 @@ export type { KrigingResult, KrigingOptions } from './kriging/krige';
 export { searchEllipsoid, normalisedCoordinates } from './search/search-ellipsoid';
 export type { SearchEllipsoid } from './search/search-ellipsoid';
 export { BucketGrid } from './search/bucket-grid';
+export { ActiveBuckets } from './search/active-buckets';
 export { selectNearest } from './search/select-nearest';
 export { offsetTemplate } from './search/offset-template';
 export type { OffsetTemplate } from './search/offset-template';

@@ -2,22 +2,29 @@
  * A static bucket grid over points given in a search ellipsoid's normalised frame (see
  * normalisedCoordinates), answering "which points lie within distance 1 of q" (inside the ellipsoid).
  * Buckets are stored compactly (counting sort into one index array), so a grid of n points costs O(n)
- * memory; the bucket size adapts so that there are at most about 2n + 1024 buckets.
+ * memory; the bucket size adapts so that there are at most about 2n + 1024 buckets (n + 1024 when fine).
  */
 export class BucketGrid {
 	readonly size: number;
-	private readonly p: Float64Array;
-	private readonly lo = new Float64Array(3);
-	private readonly dims = new Int32Array(3);
-	private readonly cell: number;
-	private readonly start: Int32Array;
+	/** The points' normalised coordinates, 3 per point (by reference). */
+	readonly p: Float64Array;
+	/** The grid's lower corner, its number of buckets per axis and the buckets' edge length. */
+	readonly lo = new Float64Array(3);
+	readonly dims = new Int32Array(3);
+	readonly cell: number;
+	/** Bucket b holds items[start[b] … start[b + 1] − 1], ascending point indices. */
+	readonly start: Int32Array;
 	private readonly items: Int32Array;
+	/** The bucket of each point. */
+	readonly bucketOfPoint: Int32Array;
 
 	/**
 	 * @param coords normalised coordinates, 3 per point (u, v, w); kept by reference, not copied or mutated
+	 * @param fine buckets of about one point each (for a nearest-first search, ActiveBuckets) instead of buckets
+	 *   at least half the search radius wide (for queries of radius 1, `query`)
 	 * @throws {RangeError} if coords is not a whole number of points or holds a non-finite value
 	 */
-	constructor(coords: Float64Array) {
+	constructor(coords: Float64Array, { fine = false }: { fine?: boolean } = {}) {
 		if (coords.length % 3 !== 0) throw new RangeError('coords must hold 3 values per point');
 		const n = coords.length / 3;
 		this.size = n;
@@ -32,9 +39,10 @@ export class BucketGrid {
 			if (v > hi[a]) hi[a] = v;
 		}
 		if (n === 0) lo.fill(0), hi.fill(0);
-		let cell = 0.5;
 		const count = (c: number) => [0, 1, 2].reduce((m, a) => m * (Math.floor((hi[a] - lo[a]) / c) + 1), 1);
-		while (count(cell) > 2 * n + 1024) cell *= 1.25;
+		const most = fine ? n + 1024 : 2 * n + 1024;
+		let cell = fine ? Math.max(hi[0] - lo[0], hi[1] - lo[1], hi[2] - lo[2], 1e-6) * 1e-4 : 0.5;
+		while (count(cell) > most) cell *= 1.25;
 		this.cell = cell;
 		for (let a = 0; a < 3; a++) {
 			this.lo[a] = lo[a];
@@ -54,9 +62,11 @@ export class BucketGrid {
 		for (let i = 0; i < n; i++) items[fill[ids[i]]++] = i;
 		this.start = start;
 		this.items = items;
+		this.bucketOfPoint = ids;
 	}
 
-	private bucketOf(u: number, v: number, w: number): number {
+	/** The bucket holding (u, v, w), clamped to the grid. */
+	bucketOf(u: number, v: number, w: number): number {
 		const c = this.cell;
 		const i = Math.min(this.dims[0] - 1, Math.floor((u - this.lo[0]) / c));
 		const j = Math.min(this.dims[1] - 1, Math.floor((v - this.lo[1]) / c));

@@ -84,7 +84,7 @@ export interface PreparedDomain {
 	templateCells: Int32Array | null;
 	covTable: Float64Array | null;
 	tableHalf: [number, number, number];
-	/** General mode: bucket grid over the domain's targets (local indices). */
+	/** General mode: a fine bucket grid over the domain's targets (local indices), searched nearest-first as they are simulated (ActiveBuckets). */
 	nodeGrid: BucketGrid | null;
 	/**
 	 * Multiple-grid path (lattice mode with a template only): strides per level (see multigridStrides), the
@@ -331,7 +331,7 @@ function prepareDomain(
 			const g = targets[i];
 			normalisedCoordinates(ellipsoid, t.x[g], t.y[g], t.z[g], tn, 3 * i);
 		}
-		nodeGrid = new BucketGrid(tn);
+		nodeGrid = new BucketGrid(tn, { fine: true });
 	}
 
 	return {

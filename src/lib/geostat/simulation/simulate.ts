@@ -2,6 +2,7 @@ import seedrandom from 'seedrandom';
 import { inverseNormalCdf } from '../distribution/normal';
 import { backTransform } from '../distribution/normal-score';
 import { normalisedCoordinates } from '../search/search-ellipsoid';
+import { ActiveBuckets } from '../search/active-buckets';
 import { selectNearest } from '../search/select-nearest';
 import { choleskyFactor, choleskySolve } from '../linalg/cholesky';
 import { prepareSimulation } from './prepare-simulation';
@@ -143,6 +144,18 @@ function simulateDomain(
 			const tmp = path[i];
 			path[i] = path[j];
 			path[j] = tmp;
+		}
+	}
+
+	// Off the lattice: the domain's simulated nodes by bucket, and each path node's index among the domain's
+	// targets (both lists ascend, the path's being the targets without a datum).
+	const active = dom.nodeGrid ? new ActiveBuckets(dom.nodeGrid) : null;
+	let localOf: Int32Array | null = null;
+	if (active) {
+		localOf = new Int32Array(nodes.length);
+		for (let p = 0, t = 0; p < nodes.length; p++) {
+			while (dom.targets[t] !== nodes[p]) t++;
+			localOf[p] = t;
 		}
 	}
 
@@ -446,16 +459,9 @@ function simulateDomain(
 					found++;
 				}
 			} else {
-				const grid = dom.nodeGrid!;
-				const m0 = grid.query(q[0], q[1], q[2], candIdx, candD2);
-				let m = 0;
-				for (let c = 0; c < m0; c++) {
-					if (state[dom.targets[candIdx[c]]] === 1) {
-						candIdx[m] = candIdx[c];
-						candD2[m] = candD2[c];
-						m++;
-					}
-				}
+				// The domain's simulated nodes near q, found outward from q's bucket: a superset of the nearest
+				// maxSimulated within the ellipsoid, so the choice is the one from all of them (ActiveBuckets).
+				const m = active!.candidates(q[0], q[1], q[2], maxSimulated, candIdx, candD2);
 				const kn = selectNearest(candIdx, candD2, m, maxSimulated, selIdx, selD2);
 				for (let s = 0; s < kn; s++) {
 					const h = dom.targets[selIdx[s]];
@@ -514,6 +520,7 @@ function simulateDomain(
 		}
 		y[g] = est + Math.sqrt(variance) * zdev;
 		state[g] = 1;
+		if (active) active.add(localOf![pos]);
 		if (ready) {
 			ready[gc >> 3] |= 1 << (gc & 7);
 			yCell![gc] = y[g];
