@@ -4,8 +4,9 @@
 // PORT (3000), HOST and ORIGIN are honoured; ORIGIN defaults to http://localhost:PORT because
 // adapter-node needs it to accept form posts. SEED_DEMO defaults to 1 here (and only here).
 import { spawnSync, spawn } from 'node:child_process';
-import { existsSync, readdirSync, statSync } from 'node:fs';
+import { existsSync, statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
+import { newest } from './newest.js';
 import { fileURLToPath } from 'node:url';
 
 const root = resolve(fileURLToPath(new URL('..', import.meta.url)));
@@ -13,16 +14,6 @@ process.chdir(root);
 
 const SOURCES = ['src', 'static', 'workers', 'drizzle'];
 const CONFIGS = ['package.json', 'package-lock.json', 'svelte.config.js', 'vite.config.ts', 'tsconfig.json'];
-
-/** Newest modification time under a path (0 when missing). */
-function newest(path) {
-	if (!existsSync(path)) return 0;
-	const stat = statSync(path);
-	if (!stat.isDirectory()) return stat.mtimeMs;
-	let latest = stat.mtimeMs;
-	for (const entry of readdirSync(path)) latest = Math.max(latest, newest(join(path, entry)));
-	return latest;
-}
 
 const built = join(root, 'build', 'index.js');
 const sourcesTime = Math.max(...SOURCES.map((p) => newest(join(root, p))), ...CONFIGS.map((p) => newest(join(root, p))));

@@ -2,22 +2,13 @@
 // `npm run worker`: a worker of the realization queue (workers/queue-worker.ts). Builds build/worker/ first when it
 // is missing or older than its sources, then runs it in this process. REDIS_URL is required; WORKER_THREADS,
 // WORKER_NAME and WORKER_LOCK_MS are optional (see README, "Running on several machines").
-import { existsSync, readdirSync, statSync } from 'node:fs';
+import { existsSync, statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
+import { newest } from './newest.js';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { buildWorker, WORKER_ENTRY } from './build-worker.js';
 
 const root = resolve(fileURLToPath(new URL('..', import.meta.url)));
-
-/** Newest modification time under a path (0 when missing). */
-function newest(path) {
-	if (!existsSync(path)) return 0;
-	const stat = statSync(path);
-	if (!stat.isDirectory()) return stat.mtimeMs;
-	let latest = stat.mtimeMs;
-	for (const entry of readdirSync(path)) latest = Math.max(latest, newest(join(path, entry)));
-	return latest;
-}
 
 if (!process.env.REDIS_URL?.trim()) {
 	console.error('conefield worker: REDIS_URL is not set. Start Redis (e.g. Debian’s redis-server) and run: REDIS_URL=redis://127.0.0.1:6379 npm run worker');

@@ -6,6 +6,7 @@ import { z } from 'zod';
 import { lookupTableProblem } from '$lib/cpt/lookupTable';
 import { ENSEMBLE_STATS, type EnsembleStat } from '$lib/ensemble';
 import type { SimulatedProperty } from '$lib/properties';
+import { thresholdParam } from './recipe';
 import { simulatedProperty } from './stratigraphy';
 
 /**
@@ -181,18 +182,7 @@ const mapList = z
 		return [...new Set(stats)] as EnsembleStat[];
 	});
 
-const threshold = z
-	.string()
-	.optional()
-	.transform((t, ctx) => {
-		if (t === undefined || t.trim() === '') return null;
-		const v = Number(t);
-		if (!Number.isFinite(v)) {
-			ctx.addIssue({ code: 'custom', message: 'The threshold must be a number.' });
-			return z.NEVER;
-		}
-		return v;
-	});
+const threshold = thresholdParam;
 
 /** GET …/realizations/:r.csv and .vtk: `digits` (CSV: significant digits; default shortest round-trip) and `transfer`. */
 export const fileQuerySchema = z.object({

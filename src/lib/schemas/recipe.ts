@@ -199,22 +199,25 @@ export type SimulatedDomainSetup = Extract<DomainSetup, { simulate: true }>;
 export type GridSetup = z.output<typeof gridSpecSchema>;
 export type MeshTargetSetup = z.output<typeof meshTargetSchema>;
 
+/** An optional threshold in a query string: null when absent or blank, else a finite number. */
+export const thresholdParam = z
+	.string()
+	.optional()
+	.transform((t, ctx) => {
+		if (t === undefined || t.trim() === '') return null;
+		const v = Number(t);
+		if (!Number.isFinite(v)) {
+			ctx.addIssue({ code: 'custom', message: 'The threshold must be a number.' });
+			return z.NEVER;
+		}
+		return v;
+	});
+
 /** GET …/summary?stat=…&threshold=…: the threshold is needed (and only read) for 'below'. */
 export const summaryQuerySchema = z
 	.object({
 		stat: z.enum(ENSEMBLE_STATS, { error: `Choose a stat: ${ENSEMBLE_STATS.join(', ')}.` }),
-		threshold: z
-			.string()
-			.optional()
-			.transform((t, ctx) => {
-				if (t === undefined || t.trim() === '') return null;
-				const v = Number(t);
-				if (!Number.isFinite(v)) {
-					ctx.addIssue({ code: 'custom', message: 'The threshold must be a number.' });
-					return z.NEVER;
-				}
-				return v;
-			})
+		threshold: thresholdParam
 	})
 	.refine((q) => q.stat !== 'below' || q.threshold !== null, { error: 'P(below) needs a threshold.', path: ['threshold'] })
 	.transform((q) => ({ stat: q.stat, threshold: q.stat === 'below' ? q.threshold : null }));
