@@ -2,7 +2,11 @@
 import { existsSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 
-/** Newest modification time under a path (0 when missing). */
+/**
+ * Newest modification time under a path (0 when missing).
+ * @param {string} path
+ * @returns {number}
+ */
 export function newest(path) {
 	if (!existsSync(path)) return 0;
 	const stat = statSync(path);

@@ -3,7 +3,6 @@ import { mkdirSync, mkdtempSync, rmSync, utimesSync, writeFileSync } from 'node:
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-// @ts-expect-error a plain JavaScript module of the scripts folder
 import { newest } from '../../scripts/newest.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'conefield-newest-'));
