@@ -187,6 +187,16 @@ function fail(issues: InputIssue[]): never {
 	throw new InvalidInput(issues.map((i) => i.message).join(' '), issues);
 }
 
+/** The engine's recipe from `make`; a refusal by the engine becomes an issue of the setup (422). */
+function engineRecipe(make: () => Recipe, issues: InputIssue[]): Recipe {
+	try {
+		return make();
+	} catch (err) {
+		issues.push({ path: [], message: `The engine refused the recipe: ${(err as Error).message}.` });
+		fail(issues);
+	}
+}
+
 /**
  * The targets of a recipe (the grid, a rectilinear grid of variable cell heights, or a mesh's centroids), each
  * target's domain read from the stratigraphy (or a mesh element's group) for the simulated domains of
@@ -308,15 +318,9 @@ function resolveSgs(projectId: string, setup: SgsSetup, db: DbOrTx): { recipe: R
 		fail(issues);
 	}
 	const resolved = resolveTargets(projectId, site, z, provenance, inputs.length, setup, setup.realizations, issues, db);
-	let recipe: Recipe;
-	try {
-		recipe = createRecipe({ seed: setup.seed, domains: inputs }, resolved.targets, { realizations: setup.realizations });
-	} catch (err) {
-		issues.push({ path: [], message: `The engine refused the recipe: ${(err as Error).message}.` });
-		fail(issues);
-	}
+	const recipe = engineRecipe(() => createRecipe({ seed: setup.seed, domains: inputs }, resolved.targets, { realizations: setup.realizations }), issues);
 	return {
-		recipe: recipe!,
+		recipe,
 		provenance: {
 			kind: 'sgs',
 			zonation: { id: z.id, name: z.name },
@@ -368,15 +372,9 @@ function resolveUniform(projectId: string, setup: UniformSetup, db: DbOrTx): { r
 		fail(issues);
 	}
 	const resolved = resolveTargets(projectId, site, z, provenance, inputs.length, setup, setup.percentiles.length, issues, db);
-	let recipe: Recipe;
-	try {
-		recipe = createUniformRecipe(setup.percentiles, inputs, resolved.targets);
-	} catch (err) {
-		issues.push({ path: [], message: `The engine refused the recipe: ${(err as Error).message}.` });
-		fail(issues);
-	}
+	const recipe = engineRecipe(() => createUniformRecipe(setup.percentiles, inputs, resolved.targets), issues);
 	return {
-		recipe: recipe!,
+		recipe,
 		provenance: {
 			kind: 'uniform',
 			zonation: { id: z.id, name: z.name },
