@@ -4,19 +4,15 @@
  * their status, progress and file.
  */
 import { blob, index, integer, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
-import { now, projects, timestamp, users } from './schema';
+import { now, projectRef, timestamp, users, uuidKey } from './schema';
 import { recipes } from './recipe-schema';
 
 /** An uploaded mesh: one row per element centroid would be 2 000 000 rows, so its columns are BLOBs. */
 export const meshes = sqliteTable(
 	'meshes',
 	{
-		id: text('id')
-			.primaryKey()
-			.$defaultFn(() => crypto.randomUUID()),
-		projectId: text('project_id')
-			.notNull()
-			.references(() => projects.id, { onDelete: 'cascade' }),
+		id: uuidKey(),
+		projectId: projectRef(),
 		name: text('name').notNull(),
 		geometry: text('geometry', { enum: ['2d', '3d'] }).notNull(),
 		sourceFile: text('source_file').notNull(),
@@ -45,12 +41,8 @@ export const MONOTONIC = ['increasing', 'decreasing', 'none'] as const;
 export const transferTables = sqliteTable(
 	'transfer_tables',
 	{
-		id: text('id')
-			.primaryKey()
-			.$defaultFn(() => crypto.randomUUID()),
-		projectId: text('project_id')
-			.notNull()
-			.references(() => projects.id, { onDelete: 'cascade' }),
+		id: uuidKey(),
+		projectId: projectRef(),
 		name: text('name').notNull(),
 		version: integer('version').notNull(),
 		/** The simulated property it reads (a key of $lib/properties). */
@@ -71,12 +63,8 @@ export const transferTables = sqliteTable(
 export const transferSets = sqliteTable(
 	'transfer_sets',
 	{
-		id: text('id')
-			.primaryKey()
-			.$defaultFn(() => crypto.randomUUID()),
-		projectId: text('project_id')
-			.notNull()
-			.references(() => projects.id, { onDelete: 'cascade' }),
+		id: uuidKey(),
+		projectId: projectRef(),
 		name: text('name').notNull(),
 		version: integer('version').notNull(),
 		/** The rules (TransferRule[] in $lib/schemas/exports). */
@@ -95,12 +83,8 @@ export type ExportStatus = (typeof EXPORT_STATUSES)[number];
 export const exportJobs = sqliteTable(
 	'export_jobs',
 	{
-		id: text('id')
-			.primaryKey()
-			.$defaultFn(() => crypto.randomUUID()),
-		projectId: text('project_id')
-			.notNull()
-			.references(() => projects.id, { onDelete: 'cascade' }),
+		id: uuidKey(),
+		projectId: projectRef(),
 		recipeId: text('recipe_id').references(() => recipes.id, { onDelete: 'set null' }),
 		recipeHash: text('recipe_hash').notNull(),
 		/** The request as validated (exportRequestSchema in $lib/schemas/exports). */

@@ -7,7 +7,7 @@
  * requests, the approval) is kept beside it.
  */
 import { blob, index, integer, primaryKey, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
-import { now, projects, timestamp, users } from './schema';
+import { now, projectRef, timestamp, users, uuidKey } from './schema';
 import { zonations } from './site-schema';
 
 /** How a recipe's realizations are made: sequential Gaussian simulation, or uniform fields per domain. */
@@ -24,12 +24,8 @@ export type RecipeStatus = (typeof RECIPE_STATUSES)[number];
 export const recipes = sqliteTable(
 	'recipes',
 	{
-		id: text('id')
-			.primaryKey()
-			.$defaultFn(() => crypto.randomUUID()),
-		projectId: text('project_id')
-			.notNull()
-			.references(() => projects.id, { onDelete: 'cascade' }),
+		id: uuidKey(),
+		projectId: projectRef(),
 		name: text('name').notNull(),
 		kind: text('kind', { enum: RECIPE_KINDS }).notNull().default('sgs'),
 		/** The zonation it was made from; kept as null if that zonation is deleted (the recipe stands on its own). */
@@ -64,9 +60,7 @@ export type RecipeNoteKind = (typeof RECIPE_NOTE_KINDS)[number];
 export const recipeNotes = sqliteTable(
 	'recipe_notes',
 	{
-		id: text('id')
-			.primaryKey()
-			.$defaultFn(() => crypto.randomUUID()),
+		id: uuidKey(),
 		recipeId: text('recipe_id')
 			.notNull()
 			.references(() => recipes.id, { onDelete: 'cascade' }),

@@ -5,6 +5,16 @@ import { AUDIT_KINDS } from '../../audit';
 /** Epoch-millisecond timestamps; SQLite has no date type. */
 export const timestamp = (name: string) => integer(name, { mode: 'timestamp_ms' });
 export const now = sql`(cast(unixepoch('subsec') * 1000 as integer))`;
+/** A text primary key filled with a random UUID. */
+export const uuidKey = () =>
+	text('id')
+		.primaryKey()
+		.$defaultFn(() => crypto.randomUUID());
+/** The id of the project a row belongs to; the row goes when its project is deleted. */
+export const projectRef = () =>
+	text('project_id')
+		.notNull()
+		.references(() => projects.id, { onDelete: 'cascade' });
 
 export const SITE_ROLES = ['admin', 'member'] as const;
 export type SiteRole = (typeof SITE_ROLES)[number];
@@ -18,9 +28,7 @@ export type LengthUnit = (typeof LENGTH_UNITS)[number];
 
 /** Users; the first five columns are the ones @auth/drizzle-adapter reads and writes. */
 export const users = sqliteTable('users', {
-	id: text('id')
-		.primaryKey()
-		.$defaultFn(() => crypto.randomUUID()),
+	id: uuidKey(),
 	name: text('name'),
 	email: text('email').notNull().unique(),
 	emailVerified: timestamp('email_verified'),
@@ -89,9 +97,7 @@ export const verificationTokens = sqliteTable(
 );
 
 export const projects = sqliteTable('projects', {
-	id: text('id')
-		.primaryKey()
-		.$defaultFn(() => crypto.randomUUID()),
+	id: uuidKey(),
 	name: text('name').notNull(),
 	description: text('description').notNull().default(''),
 	lengthUnit: text('length_unit', { enum: LENGTH_UNITS }).notNull().default('m'),
@@ -103,9 +109,7 @@ export const projects = sqliteTable('projects', {
 export const memberships = sqliteTable(
 	'memberships',
 	{
-		projectId: text('project_id')
-			.notNull()
-			.references(() => projects.id, { onDelete: 'cascade' }),
+		projectId: projectRef(),
 		userId: text('user_id')
 			.notNull()
 			.references(() => users.id, { onDelete: 'cascade' }),
@@ -118,12 +122,8 @@ export const memberships = sqliteTable(
 export const invitations = sqliteTable(
 	'invitations',
 	{
-		id: text('id')
-			.primaryKey()
-			.$defaultFn(() => crypto.randomUUID()),
-		projectId: text('project_id')
-			.notNull()
-			.references(() => projects.id, { onDelete: 'cascade' }),
+		id: uuidKey(),
+		projectId: projectRef(),
 		email: text('email').notNull(),
 		role: text('role', { enum: PROJECT_ROLES }).notNull(),
 		tokenHash: text('token_hash').notNull().unique(),
@@ -138,9 +138,7 @@ export const invitations = sqliteTable(
 export const apiTokens = sqliteTable(
 	'api_tokens',
 	{
-		id: text('id')
-			.primaryKey()
-			.$defaultFn(() => crypto.randomUUID()),
+		id: uuidKey(),
 		userId: text('user_id')
 			.notNull()
 			.references(() => users.id, { onDelete: 'cascade' }),
@@ -155,9 +153,7 @@ export const apiTokens = sqliteTable(
 );
 
 export const passwordResets = sqliteTable('password_resets', {
-	id: text('id')
-		.primaryKey()
-		.$defaultFn(() => crypto.randomUUID()),
+	id: uuidKey(),
 	userId: text('user_id')
 		.notNull()
 		.references(() => users.id, { onDelete: 'cascade' }),
@@ -207,9 +203,7 @@ export const auditLog = sqliteTable(
 	'audit_log',
 	{
 		id: integer('id').primaryKey({ autoIncrement: true }),
-		projectId: text('project_id')
-			.notNull()
-			.references(() => projects.id, { onDelete: 'cascade' }),
+		projectId: projectRef(),
 		at: timestamp('at').notNull().default(now),
 		userId: text('user_id').references(() => users.id, { onDelete: 'set null' }),
 		userName: text('user_name'),
