@@ -1,6 +1,7 @@
 // streamRealizations on a pool of stand-in workers (each realization a short wait): order kept whatever the
-// completion order, at most `ahead` realizations made before they are taken (backpressure), and a consumer that
-// stops early stops the run (its workers terminated) and leaves the queue free for the next job.
+// completion order, at most `ahead` realizations made before they are taken (backpressure), a consumer that stops
+// early stops the work and leaves the queue free, an abort stops a batch that is running (its workers terminated),
+// and a reader that stalls holds back only its own stream, never the pool.
 import { afterAll, describe, expect, it } from 'vitest';
 import { RealizationPool, type PoolWorker } from '../../workers/realization-pool';
 import { runRealizations, stopRealizations, streamRealizations, useRealizationPool } from '../../src/lib/server/realizations';
@@ -14,6 +15,7 @@ function standIn(): PoolWorker {
 	return {
 		remote: {
 			prepareRecipe: async () => 1,
+			preparedAs: async () => -1,
 			// Later numbers finish sooner, so completion order differs from the order asked.
 			realize: async (r: number) => {
 				started.push(r);
@@ -54,14 +56,12 @@ describe('streamRealizations(recipe, list, { ahead })', () => {
 		expect(taken).toBe(8);
 	});
 
-	it('stops the run when the reader stops early: workers terminated, few realizations started, the queue free again', async () => {
+	it('stops when the reader stops early: few realizations started, none later, the queue free again', async () => {
 		started.length = 0;
-		terminated = 0;
 		for await (const [r] of streamRealizations(recipe, Array.from({ length: 20 }, (_, r) => r))) {
 			expect(r).toBe(0);
 			break;
 		}
-		expect(terminated).toBeGreaterThan(0);
 		expect(started.length).toBeLessThanOrEqual(3);
 		await wait(100);
 		expect(started.length).toBeLessThanOrEqual(3);
@@ -69,11 +69,23 @@ describe('streamRealizations(recipe, list, { ahead })', () => {
 		expect(next.get(7)![0]).toBe(7);
 	});
 
-	it('stops when its signal aborts while it waits for a realization', async () => {
+	it('stops when its signal aborts while it waits for a realization: the running batch’s workers are terminated', async () => {
+		terminated = 0;
 		const abort = new AbortController();
 		const it = streamRealizations(recipe, [29, 28], { signal: abort.signal });
 		const first = it.next();
+		await wait(1);
 		abort.abort();
 		await expect(first).rejects.toThrow(/cancel/i);
+		expect(terminated).toBeGreaterThan(0);
+	});
+
+	it('a reader that stalls does not hold the pool: another run completes while the stream waits to be read', async () => {
+		const stalled = streamRealizations(recipe, Array.from({ length: 10 }, (_, r) => r), { ahead: 2 });
+		expect((await stalled.next()).value![0]).toBe(0);
+		// The reader now stops reading (as a paused download does) — the pool must still serve others.
+		const other = await Promise.race([runRealizations(recipe, [3]), wait(2000).then(() => null)]);
+		expect(other?.get(3)![0]).toBe(3);
+		await stalled.return(undefined);
 	});
 });

@@ -15,7 +15,7 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { availableParallelism, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
-import type { Recipe } from '$lib/geostat';
+import { recipeHash, type Recipe } from '$lib/geostat';
 import { CancelledError } from '$lib/cancelled-error';
 import type { EnsembleStat, WeakZoneGrid, WeakZoneOptions, WeakZoneSummary } from '$lib/ensemble';
 import { createNodePool } from '$workers/node-pool';
@@ -108,10 +108,13 @@ export function runRealizations(
 
 /**
  * Realizations of a recipe streamed in the order asked, regenerated on the pool (as runRealizations, in the same
- * queue): at most `ahead` realizations are made before the consumer has taken the ones before them, so memory
- * holds a realization or two whatever the number asked, and a consumer that reads slowly holds the workers back
- * (backpressure). Stopping early (return, throw, or `signal` aborting) cancels the run: its workers stop at once.
- * `onProgress` reports the pool's progress (nodes simulated over all asked).
+ * queue) in batches of `ahead`: a batch runs on the pool's workers at once, and the next batch is asked for only
+ * when the consumer has taken every realization of this one. So at most `ahead` realizations are made beyond those
+ * taken, memory holds a batch whatever the number asked, and a consumer that reads slowly holds its own stream back
+ * (backpressure) — but never the pool: between batches the pool is free for other requests, so a download that
+ * stalls (a paused browser, a client that stops reading) cannot stop every other regeneration on the server. Each
+ * worker keeps the recipe prepared between batches (under its hash). Stopping early (return, throw, or `signal`
+ * aborting) cancels the batch running: its workers stop at once. `onProgress` reports nodes simulated over all asked.
  * @throws as runRealizations; CancelledError when `signal` aborts
  */
 export async function* streamRealizations(
@@ -123,67 +126,25 @@ export async function* streamRealizations(
 		yield* queued.stream({ recipe, ...identity }, realizations, { signal, onProgress });
 		return;
 	}
-	const position = new Map(realizations.map((r, k) => [r, k]));
-	const ready = new Map<number, Float64Array>();
-	let taken = 0;
-	let failure: unknown = null;
-	let finished = false;
-	let wake: (() => void) | null = null;
-	const changed = () => {
-		const w = wake;
-		wake = null;
-		w?.();
-	};
-	const waitForChange = () => new Promise<void>((resolve) => (wake = resolve));
-	// Admissions wait on their own list: several workers may wait at once.
-	const waiting: (() => void)[] = [];
-	const admitAll = () => {
-		for (const w of waiting.splice(0)) w();
-	};
-	const stop = new AbortController();
-	const onAbort = () => stop.abort();
-	signal?.addEventListener('abort', onAbort);
-	const run = runRealizationsWith(recipe, realizations, {
-		keep: false,
-		signal: stop.signal,
-		onProgress,
-		admit: async (r) => {
-			while (!stop.signal.aborted && position.get(r)! >= taken + ahead) await new Promise<void>((resolve) => waiting.push(resolve));
-		},
-		onRealization: (r, values) => {
-			ready.set(r, values);
-			changed();
-		}
-	}).then(
-		() => {
-			finished = true;
-			changed();
-		},
-		(err) => {
-			failure = err;
-			changed();
-		}
-	);
-	try {
-		for (const r of realizations) {
-			while (!ready.has(r)) {
-				if (failure) throw failure;
-				if (finished) throw stop.signal.aborted ? new CancelledError() : new Error(`realization ${r} did not arrive`);
-				await waitForChange();
-			}
-			const values = ready.get(r)!;
-			ready.delete(r);
-			taken++;
-			admitAll();
+	const size = Math.max(1, Math.floor(ahead));
+	const key = realizations.length > size ? (identity.hash ?? recipeHash(recipe)) : undefined;
+	for (let from = 0; from < realizations.length; from += size) {
+		if (signal?.aborted) throw new CancelledError();
+		const batch = realizations.slice(from, from + size);
+		const progress = onProgress
+			? (done: number, total: number) => {
+					// The pool reports this batch's nodes: per realization, total / batch length.
+					const per = total / batch.length;
+					onProgress(from * per + done, realizations.length * per);
+				}
+			: undefined;
+		const made = await runRealizationsWith(recipe, batch, { keep: true, signal, key, onProgress: progress });
+		for (const r of batch) {
+			const values = made.get(r);
+			if (!values) throw new Error(`realization ${r} did not arrive`);
+			made.delete(r);
 			yield [r, values];
 		}
-	} finally {
-		signal?.removeEventListener('abort', onAbort);
-		if (!finished) {
-			stop.abort();
-			admitAll();
-		}
-		await run;
 	}
 }
 
