@@ -7,7 +7,7 @@ import { spawn } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
-import { freePort } from '../tests/setup/server';
+import { freePort, waitUntilReady } from '../tests/setup/server';
 import { DEMO, DEMO_PROJECT_NAME, launchChromium, signInPage, signedInSession } from '../tests/setup';
 import type { BenchCase } from './index';
 
@@ -25,14 +25,7 @@ async function run(): Promise<Record<string, number>> {
 	});
 	const browser = await launchChromium();
 	try {
-		for (let i = 0; i < 300; i++) {
-			try {
-				if ((await fetch(`${baseUrl}/signin`)).ok) break;
-			} catch {
-				// not listening yet
-			}
-			await new Promise((r) => setTimeout(r, 200));
-		}
+		await waitUntilReady(baseUrl, server);
 		const api = await signedInSession(baseUrl, DEMO.analyst.email, DEMO.analyst.password);
 		const { projects } = (await (await api.json('GET', '/api/v1/projects')).json()) as { projects: { id: string; name: string }[] };
 		const projectId = projects.find((p) => p.name === DEMO_PROJECT_NAME)!.id;

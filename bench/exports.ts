@@ -13,7 +13,7 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
-import { freePort } from '../tests/setup/server';
+import { freePort, waitUntilReady } from '../tests/setup/server';
 import { DEMO, DEMO_PROJECT_NAME, signedInSession, type HttpSession } from '../tests/setup';
 import type { BenchCase } from './index';
 
@@ -37,14 +37,7 @@ async function startServer(dataDir: string): Promise<Server> {
 		env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', ORIGIN: baseUrl, DATABASE_URL: join(dataDir, 'c.db'), DATA_DIR: dataDir, SEED_DEMO: '1', SMTP_URL: '', BODY_SIZE_LIMIT: '210M' },
 		stdio: 'ignore'
 	});
-	for (let i = 0; i < 300; i++) {
-		try {
-			if ((await fetch(`${baseUrl}/signin`)).ok) break;
-		} catch {
-			// not listening yet
-		}
-		await new Promise((r) => setTimeout(r, 200));
-	}
+	await waitUntilReady(baseUrl, child);
 	const owner = await signedInSession(baseUrl, DEMO.analyst.email, DEMO.analyst.password);
 	const { projects } = (await (await owner.json('GET', '/api/v1/projects')).json()) as { projects: { id: string; name: string }[] };
 	return { baseUrl, child, owner, project: projects.find((p) => p.name === DEMO_PROJECT_NAME)!.id };

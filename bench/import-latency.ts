@@ -6,7 +6,7 @@ import { spawn } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
-import { freePort } from '../tests/setup/server';
+import { freePort, waitUntilReady } from '../tests/setup/server';
 import { DEMO, signedInSession } from '../tests/setup';
 import type { BenchCase } from './index';
 
@@ -36,14 +36,7 @@ async function run(): Promise<Record<string, number>> {
 		stdio: 'ignore'
 	});
 	try {
-		for (let i = 0; i < 150; i++) {
-			try {
-				if ((await fetch(`${baseUrl}/signin`)).ok) break;
-			} catch {
-				// not listening yet
-			}
-			await new Promise((r) => setTimeout(r, 200));
-		}
+		await waitUntilReady(baseUrl, server);
 		const owner = await signedInSession(baseUrl, DEMO.owner.email, DEMO.owner.password);
 		const project = ((await (await owner.json('POST', '/api/v1/projects', { name: 'Latency bench' })).json()) as { project: { id: string } }).project.id;
 		const get = async () => {
