@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { z } from 'zod';
-import { ApiError, parseJson, parseQuery, parseValue } from '../../src/lib/server/api';
+import { ApiError, endpoint, parseJson, parseQuery, parseValue } from '../../src/lib/server/api';
+import type { RequestEvent } from '@sveltejs/kit';
 
 const schema = z.strictObject({ n: z.coerce.number().int().min(1), name: z.string().optional() });
 
@@ -47,5 +48,29 @@ describe('parseJson(request, schema)', () => {
 		await expect(parseJson(post(JSON.stringify({ n: 1, name: 'x'.repeat(100) })), schema, { maxBytes: 50 })).rejects.toMatchObject({ status: 413 });
 		await expect(parseJson(post('{"n":0}'), schema)).rejects.toMatchObject({ status: 422 });
 		expect(await parseJson(post('{"n":2}'), schema)).toEqual({ n: 2 });
+	});
+});
+
+describe('endpoint(handler)', () => {
+	const call = (handler: (e: RequestEvent) => Promise<Response>, body: string | null) =>
+		(endpoint(handler) as unknown as (e: RequestEvent) => Promise<Response>)({ request: new Request('http://x/upload', { method: 'POST', body }) } as RequestEvent);
+
+	it('a refusal before the body was read says Connection: close (the client is still sending it); after reading, it does not', async () => {
+		const early = await call(async () => {
+			throw new ApiError(403, 'No.');
+		}, 'x'.repeat(100_000));
+		expect(early.status).toBe(403);
+		expect(early.headers.get('connection')).toBe('close');
+		expect(await early.json()).toMatchObject({ error: { message: 'No.' } });
+		const late = await call(async (e) => {
+			await e.request.text();
+			throw new ApiError(422, 'Read, then refused.');
+		}, 'abc');
+		expect(late.status).toBe(422);
+		expect(late.headers.get('connection')).toBeNull();
+		const bodiless = await call(async () => {
+			throw new ApiError(404, 'Not here.');
+		}, null);
+		expect(bodiless.headers.get('connection')).toBeNull();
 	});
 });
