@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { csvField, csvLine, roundedCell, significantCell } from '../src/lib/csv';
+import { csvField, csvLine, numberText, roundedCell, significantCell } from '../src/lib/csv';
 
 describe('roundedCell(v, decimals)', () => {
 	it('roundedCell rounds to fixed decimals, never writes "-0", and leaves undefined values blank', () => {
@@ -31,5 +31,18 @@ describe('csvField(s) and csvLine(cells)', () => {
 		expect(csvField('the "east" one')).toBe('"the ""east"" one"');
 		expect(csvField('two\nlines')).toBe('"two\nlines"');
 		expect(csvLine(['a', 'b,c', ''])).toBe('a,"b,c",');
+	});
+});
+
+describe('numberText(v)', () => {
+	it('numberText writes every finite number as String(v) does (ECMA-262 Number::toString, −0 as "0")', () => {
+		const odd = [0, -0, 0.1, 1 / 3, 1e21, 1e-7, 123456789012345680000, 5e-324, Number.MAX_VALUE, -1.5e-300, 2 ** 53 + 2, 100, -42];
+		for (const v of odd) expect(numberText(v)).toBe(String(v));
+		let s = 0x2545f491;
+		for (let i = 0; i < 20_000; i++) {
+			s = (s * 1103515245 + 12345) >>> 0;
+			const v = (s / 2 ** 32 - 0.5) * 10 ** ((s % 40) - 20);
+			expect(numberText(v)).toBe(String(v));
+		}
 	});
 });

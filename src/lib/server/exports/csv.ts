@@ -4,19 +4,23 @@
  * form by default, so parsing the file gives back the regenerated doubles bit for bit, or to `digits` significant
  * digits; blank where a target is not simulated or a column does not apply to its domain.
  */
-import { csvField, significantCell } from '$lib/csv';
+import { csvField, numberText, significantCell } from '$lib/csv';
 import type { SimulatedProperty } from '$lib/properties';
 import { headerOf, leadingHeaders, type DomainTransfer, type ExportDomain, type ExportTargets, type OutputColumn } from './table';
 import { PROPERTY_INFO } from '$lib/properties';
 
-/** Rows per chunk of text handed to the stream. */
-const ROWS_PER_CHUNK = 2048;
+/**
+ * Characters per chunk of text handed to the stream (a chunk ends at the first row end beyond it): chunks of about
+ * the same size whatever the width of a row (a 3D mesh with long ids and many transferred parameters writes rows
+ * several times wider than a grid), below V8's large-object size (128 KiB), which is freed only by a full collection.
+ */
+const CHUNK_CHARS = 48 * 1024;
 
 /** A number as the file writes it: shortest round-trip (−0 kept), or `digits` significant digits; blank for NaN. */
 export function numberCell(v: number, digits: number | null): string {
 	if (v !== v || v === Infinity || v === -Infinity) return '';
 	if (digits !== null) return significantCell(v, digits);
-	return Object.is(v, -0) ? '-0' : String(v);
+	return Object.is(v, -0) ? '-0' : numberText(v);
 }
 
 /** Coordinates to 12 significant digits: the grid's arithmetic noise (0.30000000000000004) is not written. */
@@ -52,7 +56,7 @@ function leading(t: ExportTargets, names: readonly string[], i: number): string 
 		const k = Math.floor(i / (nx * ny));
 		return `${i},${ix},${t.geometry === '3d' ? `${j},` : ''}${k},${where},${domain}`;
 	}
-	return `${csvField(t.ids![i])},${where},${t.group ? `${csvField(t.group[i])},` : ''}${domain}`;
+	return `${csvField(t.ids!.at(i))},${where},${t.group ? `${csvField(t.group.names[t.group.index[i]])},` : ''}${domain}`;
 }
 
 /**
@@ -70,7 +74,6 @@ export function* csvRows(layout: CsvLayout, values: Float64Array, digits: number
 	const cells = new Array<string>(np + no);
 	const n = values.length;
 	let chunk = '';
-	let rows = 0;
 	for (let i = 0; i < n; i++) {
 		const d = targets.domain[i];
 		cells.fill('');
@@ -80,10 +83,9 @@ export function* csvRows(layout: CsvLayout, values: Float64Array, digits: number
 			for (const { column: c, of } of perDomain[d]) cells[np + c] = numberCell(of(v, i), digits);
 		}
 		chunk += `${leading(targets, names, i)}${np + no ? ',' : ''}${cells.join(',')}\r\n`;
-		if (++rows === ROWS_PER_CHUNK) {
+		if (chunk.length >= CHUNK_CHARS) {
 			yield chunk;
 			chunk = '';
-			rows = 0;
 		}
 	}
 	if (chunk) yield chunk;
@@ -106,17 +108,15 @@ export function* mapsCsv(
 		props[d.index] = headerOf(d.property, PROPERTY_INFO[d.property].unit);
 	}
 	let chunk = '';
-	let rows = 0;
 	const n = targets.domain.length;
 	for (let i = 0; i < n; i++) {
 		const d = targets.domain[i];
 		chunk += `${leading(targets, names, i)},${d >= 0 ? csvField(props[d]) : ''}`;
 		for (const m of maps) chunk += `,${d >= 0 ? numberCell(m.values[i], digits) : ''}`;
 		chunk += '\r\n';
-		if (++rows === ROWS_PER_CHUNK) {
+		if (chunk.length >= CHUNK_CHARS) {
 			yield chunk;
 			chunk = '';
-			rows = 0;
 		}
 	}
 	if (chunk) yield chunk;
