@@ -74,6 +74,8 @@ const TOPICS: Record<string, string[]> = {
 		'engineVersionOf',
 		'prepareRecipe',
 		'regenerate',
+		'withTypedPoints',
+		'parseRecipeDocument',
 		'uniformValues',
 		'createUniformRecipe',
 		'prepareUniform'

@@ -89,6 +89,8 @@ export { ENGINE_VERSION, ENGINE_VERSIONS, isCurrentEngine, engineVersionOf } fro
 export { prepareRecipe } from './recipe/prepare-recipe';
 export type { PreparedRecipe } from './recipe/prepare-recipe';
 export { regenerate } from './recipe/regenerate';
+export { withTypedPoints } from './recipe/typed-points';
+export { parseRecipeDocument } from './recipe/parse-document';
 export { uniformValues, createUniformRecipe, prepareUniform } from './recipe/uniform';
 export type { UniformDomainData } from './recipe/uniform';
 

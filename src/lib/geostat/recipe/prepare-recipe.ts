@@ -4,7 +4,7 @@ import { targetsFromDefinition } from './targets-from-definition';
 import { recipeSchema } from './schema';
 import type { Recipe, RecipeKind } from './schema';
 import { prepareUniform } from './uniform';
-import { prepareSimulation } from '../simulation/prepare-simulation';
+import { prepareSimulation, type PrepareOptions } from '../simulation/prepare-simulation';
 import { simulatePrepared } from '../simulation/simulate';
 
 /** A recipe made ready to realize: the one place that dispatches on the recipe's kind. */
@@ -27,12 +27,12 @@ export interface PreparedRecipe {
  * default) prepares a sequential Gaussian simulation of its input at its targets (prepareSimulation); 'uniform'
  * checks its values against its data and fills each domain with its value at the realization's percentile
  * (prepareUniform).
- * Does not mutate the recipe.
+ * Does not mutate the recipe. `options` go to prepareSimulation (what an 'sgs' recipe keeps for reuse; never a bit).
  * @throws {RangeError} 'invalid recipe: …' if the recipe does not pass recipeSchema; and as prepareSimulation or
  *   prepareUniform
  * @throws {Error} 'recipe is from engine version …' for a recipe of another engine version
  */
-export function prepareRecipe(recipe: Recipe): PreparedRecipe {
+export function prepareRecipe(recipe: Recipe, options?: PrepareOptions): PreparedRecipe {
 	const parsed = recipeSchema.safeParse(recipe);
 	if (!parsed.success) {
 		throw new RangeError(`invalid recipe: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`);
@@ -59,7 +59,7 @@ export function prepareRecipe(recipe: Recipe): PreparedRecipe {
 		};
 	}
 	// No kind means 'sgs' (recipes written before kinds existed).
-	const prepared = prepareSimulation(recipeInput(r), targetsFromDefinition(r.targets));
+	const prepared = prepareSimulation(recipeInput(r), targetsFromDefinition(r.targets), options);
 	return {
 		kind: 'sgs',
 		active: prepared.active,

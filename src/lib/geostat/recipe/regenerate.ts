@@ -8,5 +8,6 @@ import type { Recipe } from './schema';
  * @throws {RangeError} if the recipe does not pass recipeSchema, r is not below its N realizations; and as simulate
  */
 export function regenerate(recipe: Recipe, realization: number, onProgress?: (done: number, total: number) => void): Float64Array {
-	return prepareRecipe(recipe).realize(realization, onProgress);
+	// One realization: nothing is kept per target for a next one (as simulate()).
+	return prepareRecipe(recipe, { keepPerTarget: false }).realize(realization, onProgress);
 }

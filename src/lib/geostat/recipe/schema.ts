@@ -105,14 +105,30 @@ export const rectilinearTargetsSchema = z
 		path: ['domainRuns']
 	});
 
+/**
+ * A column of point targets: an array of numbers (as JSON holds it) or, between threads, the typed array of them.
+ * Checked in place rather than copied as zod's array schema would copy it: a mesh recipe's columns hold up to two
+ * million numbers each, and a worker would hold a second copy of them while it prepares.
+ */
+function pointColumn<T extends Float64Array | Int32Array>(typed: new (n: number) => T, ok: (v: unknown) => boolean, message: string) {
+	return z.custom<number[] | T>((v) => {
+		if (!Array.isArray(v) && !(v instanceof typed)) return false;
+		const a = v as ArrayLike<unknown>;
+		for (let i = 0; i < a.length; i++) if (!ok(a[i])) return false;
+		return true;
+	}, message);
+}
+const finite = (v: unknown) => typeof v === 'number' && Number.isFinite(v);
+const domainIndex = (v: unknown) => Number.isInteger(v) && (v as number) >= -1;
+
 /** Explicit target points. */
 export const pointTargetsSchema = z
 	.object({
 		kind: z.literal('points'),
-		x: z.array(z.number()),
-		y: z.array(z.number()),
-		z: z.array(z.number()),
-		domain: z.array(z.number().int().min(-1))
+		x: pointColumn(Float64Array, finite, 'expected an array of finite numbers'),
+		y: pointColumn(Float64Array, finite, 'expected an array of finite numbers'),
+		z: pointColumn(Float64Array, finite, 'expected an array of finite numbers'),
+		domain: pointColumn(Int32Array, domainIndex, 'expected an array of integers >= -1')
 	})
 	.refine((p) => p.y.length === p.x.length && p.z.length === p.x.length && p.domain.length === p.x.length, {
 		message: 'point columns must have equal lengths'
@@ -181,8 +197,9 @@ export const uniformRecipeSchema = z
 export const recipeSchema = z.union([sgsRecipeSchema, uniformRecipeSchema]).refine(
 	(r) => {
 		const n = r.input.domains.length;
-		const ds = r.targets.kind === 'points' ? r.targets.domain : r.targets.domainRuns.map((x) => x[0]);
-		return ds.every((d) => d < n);
+		const ds: ArrayLike<number> = r.targets.kind === 'points' ? r.targets.domain : r.targets.domainRuns.map((x) => x[0]);
+		for (let i = 0; i < ds.length; i++) if (ds[i] >= n) return false;
+		return true;
 	},
 	{ message: 'target domain out of range', path: ['targets'] }
 );

@@ -12,7 +12,9 @@ export function targetsFromDefinition(def: TargetDefinition): TargetPoints {
 	if (def.kind === 'points') {
 		const n = def.x.length;
 		if (def.y.length !== n || def.z.length !== n || def.domain.length !== n) throw new RangeError('point columns must have equal lengths');
-		return { x: Float64Array.from(def.x), y: Float64Array.from(def.y), z: Float64Array.from(def.z), domain: Int32Array.from(def.domain) };
+		// Typed columns (a recipe passed between threads) are used as they are: the engine never writes to its targets.
+		const f64 = (a: ArrayLike<number>) => (a instanceof Float64Array ? a : Float64Array.from(a));
+		return { x: f64(def.x), y: f64(def.y), z: f64(def.z), domain: def.domain instanceof Int32Array ? def.domain : Int32Array.from(def.domain) };
 	}
 	if (def.kind === 'rectilinear') {
 		const [nx, ny, nz] = [def.x.length, def.y.length, def.z.length];
