@@ -8,7 +8,7 @@
  */
 import * as Comlink from 'comlink';
 import { prepareRecipe, prepareSimulation, simulatePrepared } from '../src/lib/geostat/index';
-import type { Recipe, SimulationInput, TargetPoints } from '../src/lib/geostat/index';
+import type { PrepareOptions, Recipe, SimulationInput, TargetPoints } from '../src/lib/geostat/index';
 import { ensembleMap, weakZones, type EnsembleStat, type WeakZoneGrid, type WeakZoneOptions } from '../src/lib/ensemble/index';
 
 type Realize = (realization: number, onProgress?: (done: number, total: number) => void) => Float64Array;
@@ -21,6 +21,7 @@ export function createSimulationApi() {
 		/** Prepares the simulation; returns the number of simulated targets per realization. */
 		prepare(input: SimulationInput, targets: TargetPoints): number {
 			preparedKey = null;
+			realize = null;
 			const prepared = prepareSimulation(input, targets);
 			realize = (r, cb) => simulatePrepared(prepared, r, cb);
 			return prepared.active;
@@ -28,12 +29,13 @@ export function createSimulationApi() {
 		/**
 		 * Prepares a recipe by its kind (the engine's prepareRecipe): only the recipe crosses the thread boundary
 		 * (a grid definition is a few numbers where its expanded targets would be megabytes), and the worker
-		 * expands the targets.
+		 * expands the targets. The previous preparation is let go first, so two are never held at once.
 		 * @throws {RangeError} on an invalid recipe; {Error} for a recipe of another engine version
 		 */
-		prepareRecipe(recipe: Recipe, key?: string): number {
+		prepareRecipe(recipe: Recipe, key?: string, options?: PrepareOptions): number {
 			preparedKey = null;
-			const prepared = prepareRecipe(recipe);
+			realize = null;
+			const prepared = prepareRecipe(recipe, options);
 			realize = (r, cb) => prepared.realize(r, cb);
 			preparedKey = key ?? null;
 			preparedActive = prepared.active;

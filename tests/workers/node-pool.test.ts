@@ -1,9 +1,10 @@
 import { describe, it, expect, afterAll } from 'vitest';
 import { createNodePool } from '../../workers/node-pool';
 import { CancelledError } from '../../src/lib/cancelled-error';
-import { simulate, createRecipe, regenerate, ENGINE_VERSION } from '../../src/lib/geostat/index';
+import { simulate, canonicalJson, createRecipe, parseRecipeDocument, regenerate, ENGINE_VERSION } from '../../src/lib/geostat/index';
+import { RealizationPool, type PoolWorker } from '../../workers/realization-pool';
 import { ensembleMap } from '../../src/lib/ensemble/index';
-import type { SimulationInput, TargetPoints } from '../../src/lib/geostat/index';
+import type { Recipe, SimulationInput, TargetPoints } from '../../src/lib/geostat/index';
 import { expectSameBits } from '../asserts';
 
 function section(nx: number, nz: number): TargetPoints {
@@ -122,5 +123,45 @@ describe('RealizationPool.runRecipe with a key (a worker keeps its prepared reci
 		for (const [r, v] of [...first, ...second]) expectSameBits(v, regenerate(a, r), `A realization ${r}`);
 		expectSameBits(other.get(2)!, regenerate(b, 2), 'B realization 2');
 		expect(ENGINE_VERSION).toBe(a.engineVersion);
+	}, 60_000);
+});
+
+describe('RealizationPool.runRecipe without a key', () => {
+	it('a worker that makes one realization keeps nothing per target for a next one; with more to make it keeps it', async () => {
+		const asked: unknown[] = [];
+		const standIn = (): PoolWorker => ({
+			remote: {
+				prepareRecipe: async (_r: unknown, _key: unknown, options: unknown) => (asked.push(options), 1),
+				realize: async (r: number) => Float64Array.of(r)
+			} as unknown as PoolWorker['remote'],
+			terminate: () => undefined
+		});
+		const pool = new RealizationPool(standIn, 2);
+		const recipe = {} as Recipe;
+		await pool.runRecipe(recipe, [4]);
+		expect(asked).toEqual([{ keepPerTarget: false }]);
+		asked.length = 0;
+		await pool.runRecipe(recipe, [0, 1]);
+		expect(asked).toEqual([{ keepPerTarget: false }, { keepPerTarget: false }]);
+		asked.length = 0;
+		await pool.runRecipe(recipe, [0, 1, 2]);
+		expect(asked).toEqual([undefined, undefined]);
+	});
+
+	it('a mesh recipe whose columns are shared with the workers (SharedArrayBuffer) realizes the bits of regenerate()', async () => {
+		const pool = createNodePool({ size: 2 });
+		try {
+			const t = section(24, 10);
+			// Off the lattice: nudged x, so the engine's general path (the one a mesh takes) runs.
+			const x = Array.from(t.x, (v, i) => v + (i % 3) * 0.013);
+			const recipe = createRecipe(input, { kind: 'points', x, y: Array.from(t.y), z: Array.from(t.z), domain: Array.from(t.domain) }, { realizations: 3 });
+			const shared = parseRecipeDocument(canonicalJson(recipe), { shared: true });
+			expect((shared.targets as { x: Float64Array }).x.buffer).toBeInstanceOf(SharedArrayBuffer);
+			const got = await pool.runRecipe(shared, [0, 1, 2]);
+			for (const r of [0, 1, 2]) expectSameBits(got.get(r)!, regenerate(recipe, r), `realization ${r}`);
+			expect(Array.from((shared.targets as { x: Float64Array }).x)).toEqual(x);
+		} finally {
+			await pool.close();
+		}
 	}, 60_000);
 });
