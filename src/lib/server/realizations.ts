@@ -69,8 +69,8 @@ export function realizationQueue(): QueueRealizations | null {
 /** What identifies a recipe for the queue, when the caller has it at hand (else it is computed). */
 export interface RecipeIdentity {
 	hash?: string;
-	/** The recipe's canonical JSON, as stored. */
-	document?: string;
+	/** The recipe's canonical JSON, as stored, or how to read it (only the queue needs it). */
+	document?: string | (() => string);
 }
 
 /** Runs `job` after every job asked for before it (whether they succeeded or not). */

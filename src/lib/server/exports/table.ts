@@ -6,6 +6,7 @@
 import { PROPERTY_INFO, type SimulatedProperty } from '$lib/properties';
 import { crrBI2014, lookUp, relativeDensityIB2008 } from '$lib/cpt';
 import { TRANSFER_RELATIONS, type TransferRelation } from '$lib/schemas/exports';
+import type { ElementGroups, ElementIds } from './element-ids';
 import type { ResolvedTransferSet, TransferTableView } from '$lib/server/services/transfers';
 
 /** A simulated domain of the recipe. */
@@ -28,8 +29,8 @@ export interface ExportTargets {
 	/** A grid's cell counts and cell edges along each axis (2D: y is [0]); null for a mesh. */
 	grid: { counts: { x: number; y: number; z: number }; edges: { x: number[]; y: number[]; z: number[] } } | null;
 	/** A mesh's element ids and groups. */
-	ids: string[] | null;
-	group: string[] | null;
+	ids: ElementIds | null;
+	group: ElementGroups | null;
 }
 
 /** A column of model parameters a transfer writes, with what it counts of values held at a table's ends. */

@@ -77,7 +77,8 @@ export interface QueueState {
 /** What a stream needs of a recipe: the engine's recipe, and its stored canonical JSON and hash when the caller has them. */
 export interface QueuedRecipe {
 	recipe: Recipe;
-	document?: string;
+	/** The stored document, or how to read it when it is needed (a caller that does not hold it meanwhile). */
+	document?: string | (() => string);
 	hash?: string;
 }
 
@@ -183,8 +184,9 @@ export class QueueRealizations {
 		if (signal?.aborted) throw new CancelledError();
 		if (list.length === 0) return;
 		// A hash is taken as given only with the document it names (the worker checks one against the other).
-		const document = of.document ?? canonicalJson(of.recipe);
-		const hash = of.document && of.hash ? of.hash : sha256(document);
+		const stored = typeof of.document === 'function' ? of.document() : of.document;
+		const document = stored ?? canonicalJson(of.recipe);
+		const hash = stored && of.hash ? of.hash : sha256(document);
 		const cells = targetCount(of.recipe);
 		const run = randomUUID().replace(/-/g, '');
 		const ranges: RangeState[] = splitRanges(list, rangeSize(cells)).map((realizations) => ({ realizations, jobId: null, attempt: 0, lost: 0 }));

@@ -8,7 +8,7 @@
 import { Readable } from 'node:stream';
 import ZipStream from 'zip-stream';
 import { ENSEMBLE_STATS, type EnsembleStat } from '$lib/ensemble';
-import { targetsFromDefinition, type Recipe } from '$lib/geostat';
+import { parseRecipeDocument, targetsFromDefinition, type Recipe } from '$lib/geostat';
 import { PROPERTY_INFO } from '$lib/properties';
 import { CancelledError } from '$lib/cancelled-error';
 import { TRANSFER_RELATIONS } from '$lib/schemas/exports';
@@ -24,12 +24,13 @@ import { safeFileName } from '$lib/server/download';
 import { csvHeader, csvRows, mapsCsv, propertyHeaders, type CsvLayout } from '$lib/server/exports/csv';
 import { headerOf, leadingHeaders, planTransfers, propertiesOf, type ExportDomain, type ExportTargets } from '$lib/server/exports/table';
 import { vtkArray, vtkGeometry, vtkName } from '$lib/server/exports/vtk';
-import { meshColumns } from './meshes';
+import { meshElements } from './meshes';
 import type { RecipeProvenance } from './recipe-resolve';
 import { projectStratigraphy } from './recipe-resolve';
 import { listSoundings } from './soundings';
 import { getSite } from './site';
 import { listUnits } from './stratigraphy';
+import { recipeDocument } from './recipes';
 import { recipeSummary } from './summaries';
 import { resolvedTransferSet, type ResolvedTransferSet } from './transfers';
 
@@ -43,7 +44,8 @@ const MAP_HEADERS: Record<EnsembleStat, string> = { mean: 'mean', sd: 'sd', p10:
 /** Everything an export of one recipe needs, loaded once. */
 export interface ExportContext {
 	project: { id: string; name: string };
-	recipe: { id: string; name: string; hash: string; engineVersion: string; realizations: number; createdAt: Date; document: string };
+	/** `document()` reads the recipe's stored canonical JSON (for recipe.json and the queue; not held meanwhile). */
+	recipe: { id: string; name: string; hash: string; engineVersion: string; realizations: number; createdAt: Date; document(): string };
 	engine: Recipe;
 	provenance: RecipeProvenance;
 	targets: ExportTargets;
@@ -73,7 +75,7 @@ export function exportContext(projectId: string, recipeId: string, transferSetId
 	const transfer = transferSetId ? resolvedTransferSet(projectId, transferSetId, db) : null;
 	// The document was validated when it was stored (its hash names it); parsing without the schema keeps a
 	// mesh recipe of two million targets from holding the server's thread for seconds.
-	const engine = JSON.parse(r.document) as Recipe;
+	const engine = parseRecipeDocument(r.document, { shared: true });
 	const provenance = r.provenance as RecipeProvenance;
 	const site = getSite(projectId, db);
 	const targets = exportTargets(projectId, engine, provenance, site.lengthUnit, db);
@@ -82,7 +84,15 @@ export function exportContext(projectId: string, recipeId: string, transferSetId
 	let stress: Float64Array | null = null;
 	const ctx: ExportContext = {
 		project: { id: row.projects.id, name: row.projects.name },
-		recipe: { id: r.id, name: r.name, hash: r.hash, engineVersion: r.engineVersion, realizations: r.realizations, createdAt: r.createdAt, document: r.document },
+		recipe: {
+			id: r.id,
+			name: r.name,
+			hash: r.hash,
+			engineVersion: r.engineVersion,
+			realizations: r.realizations,
+			createdAt: r.createdAt,
+			document: () => storedDocument(projectId, r.id, r.hash, db)
+		},
 		engine,
 		provenance,
 		targets,
@@ -97,14 +107,21 @@ export function exportContext(projectId: string, recipeId: string, transferSetId
 	return ctx;
 }
 
+/** The stored document of a recipe, read again (an export does not hold it). @throws ServiceError 404, 409 when it has gone */
+function storedDocument(projectId: string, recipeId: string, hash: string, db: DbOrTx): string {
+	const stored = recipeDocument(projectId, recipeId, db);
+	if (stored.hash !== hash) throw new ServiceError(409, 'The recipe changed while it was being exported.');
+	return stored.text;
+}
+
 /** A recipe's targets as files list them. */
 function exportTargets(projectId: string, engine: Recipe, p: RecipeProvenance, lengthUnit: 'm' | 'ft', db: DbOrTx): ExportTargets {
 	const geometry = p.geometry;
 	if (engine.targets.kind === 'points') {
 		if (!p.mesh) throw new ServiceError(409, 'This recipe’s targets are points of no stored mesh; it cannot be exported with element ids.');
-		let cols: ReturnType<typeof meshColumns>;
+		let cols: ReturnType<typeof meshElements>;
 		try {
-			cols = meshColumns(projectId, p.mesh.id, db);
+			cols = meshElements(projectId, p.mesh.id, db);
 		} catch {
 			throw new ServiceError(409, `The mesh ${p.mesh.name} this recipe was made on has been deleted; its element ids are gone.`);
 		}
@@ -307,7 +324,7 @@ export function zipStream(ctx: ExportContext, req: ZipRequest, signal: AbortSign
 	const names = entryNames(ctx, req);
 	const files: string[] = ['recipe.json'];
 	(async () => {
-		await add(ctx.recipe.document, 'recipe.json');
+		await add(ctx.recipe.document(), 'recipe.json');
 		if (req.format === 'csv') {
 			for await (const [r, values] of realizationsOf(ctx, req.realizations, signal, onProgress)) {
 				const rows = (function* () {

@@ -11,6 +11,7 @@ import { meshes, type MeshRow } from '$lib/server/db/export-schema';
 import { recipes } from '$lib/server/db/recipe-schema';
 import type { DbOrTx } from '$lib/server/db/transaction';
 import { ServiceError } from '$lib/server/errors';
+import { ElementIds, type ElementGroups } from '$lib/server/exports/element-ids';
 import { ImportRejected } from './import';
 import { readMeshOffThread } from './mesh-thread';
 import { getSite } from './site';
@@ -29,7 +30,6 @@ export interface MeshView {
 
 /** A mesh's element columns. */
 export interface MeshColumns {
-	ids: string[];
 	x: Float64Array;
 	/** Zeros in 2D (the engine's y of a section). */
 	y: Float64Array;
@@ -128,21 +128,37 @@ export function getMesh(projectId: string, meshId: string, db: DbOrTx = getDb())
 	return view(row);
 }
 
-/** A mesh's element ids, coordinates and groups. @throws ServiceError 404 */
+/** A mesh's element coordinates and groups. @throws ServiceError 404 */
 export function meshColumns(projectId: string, meshId: string, db: DbOrTx = getDb()): MeshColumns {
 	const row = db
-		.select()
+		.select({ x: meshes.x, y: meshes.y, z: meshes.z, groupIndex: meshes.groupIndex, groups: meshes.groups })
 		.from(meshes)
 		.where(and(eq(meshes.id, meshId), eq(meshes.projectId, projectId)))
 		.get();
 	if (!row) throw new ServiceError(404, 'Mesh not found.');
 	const x = fromFloat64Blob(row.x);
-	let group: string[] | null = null;
-	if (row.groupIndex) {
-		const index = new Int32Array(row.groupIndex.buffer.slice(row.groupIndex.byteOffset, row.groupIndex.byteOffset + row.groupIndex.byteLength));
-		group = Array.from(index, (k) => row.groups[k].name);
-	}
-	return { ids: row.ids.split('\n'), x, y: row.y ? fromFloat64Blob(row.y) : new Float64Array(x.length), z: fromFloat64Blob(row.z), group };
+	const groups = groupsOf(row);
+	return { x, y: row.y ? fromFloat64Blob(row.y) : new Float64Array(x.length), z: fromFloat64Blob(row.z), group: groups && Array.from(groups.index, (k) => groups.names[k]) };
+}
+
+/**
+ * A mesh's element ids and groups, as an export writes them beside each element's values (its coordinates come
+ * from the recipe). Compact: the ids stay in their stored text. @throws ServiceError 404
+ */
+export function meshElements(projectId: string, meshId: string, db: DbOrTx = getDb()): { ids: ElementIds; group: ElementGroups | null } {
+	const row = db
+		.select({ ids: meshes.ids, groupIndex: meshes.groupIndex, groups: meshes.groups })
+		.from(meshes)
+		.where(and(eq(meshes.id, meshId), eq(meshes.projectId, projectId)))
+		.get();
+	if (!row) throw new ServiceError(404, 'Mesh not found.');
+	return { ids: new ElementIds(row.ids), group: groupsOf(row) };
+}
+
+function groupsOf(row: { groupIndex: Buffer | null; groups: MeshRow['groups'] }): ElementGroups | null {
+	if (!row.groupIndex) return null;
+	const { buffer, byteOffset, byteLength } = row.groupIndex;
+	return { names: row.groups.map((g) => g.name), index: new Int32Array(buffer.slice(byteOffset, byteOffset + byteLength)) };
 }
 
 /** Deletes a mesh. @throws ServiceError 404; 409 while a recipe of the project was made on it */

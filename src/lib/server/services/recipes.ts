@@ -6,7 +6,7 @@
  * never stored: they are regenerated from the document. Every change is written with its audit-log entry.
  */
 import { and, asc, desc, eq, isNull, ne } from 'drizzle-orm';
-import { canonicalJson, recipeSchema, sha256, type Recipe } from '$lib/geostat';
+import { canonicalJson, parseRecipeDocument, recipeSchema, sha256, type Recipe } from '$lib/geostat';
 import { getDb } from '$lib/server/db';
 import { memberships, projects, users } from '$lib/server/db/schema';
 import { recipeNotes, recipeSummaries, recipeWeakZones, recipes, type RecipeNoteKind, type RecipeRow, type RecipeStatus } from '$lib/server/db/recipe-schema';
@@ -160,7 +160,7 @@ export function recipeDocument(projectId: string, recipeId: string, db: DbOrTx =
 /** The engine's recipe of a stored recipe, parsed from its document. @throws ServiceError 404 */
 export function loadRecipe(projectId: string, recipeId: string, db: DbOrTx = getDb()): { hash: string; recipe: Recipe; document: string } {
 	const { hash, text } = recipeDocument(projectId, recipeId, db);
-	return { hash, recipe: recipeSchema.parse(JSON.parse(text)), document: text };
+	return { hash, recipe: recipeSchema.parse(parseRecipeDocument(text)), document: text };
 }
 
 /**
