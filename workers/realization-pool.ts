@@ -27,11 +27,6 @@ export interface RunOptions {
 	onRealization?: (realization: number, values: Float64Array) => void;
 	/** Aborting cancels the run like cancel(). */
 	signal?: AbortSignal;
-	/**
-	 * Awaited before a worker starts realization r: a consumer that holds the run back until it has room
-	 * (backpressure of a streamed export). Default: start at once.
-	 */
-	admit?: (realization: number) => Promise<void> | void;
 	/** Keep the realizations in the map the run resolves with (default true); false when onRealization takes them. */
 	keep?: boolean;
 	/**
@@ -99,7 +94,7 @@ export class RealizationPool {
 		for (const r of realizations) if (!Number.isSafeInteger(r) || r < 0) throw new RangeError('realizations must be integers >= 0');
 		const results = new Map<number, Float64Array>();
 		if (realizations.length === 0) return results;
-		const { onProgress, onRealization, signal, admit, keep = true } = opts;
+		const { onProgress, onRealization, signal, keep = true } = opts;
 		const done = new Set<number>();
 		if (signal?.aborted) throw new CancelledError();
 		const n = Math.min(this.size, realizations.length);
@@ -129,8 +124,6 @@ export class RealizationPool {
 			perRealization = await prepare(w);
 			for (let r = queue.shift(); r !== undefined && !cancelled; r = queue.shift()) {
 				const rr = r;
-				if (admit) await admit(rr);
-				if (cancelled) return;
 				const progress = onProgress
 					? Comlink.proxy((nodes: number) => {
 							// Progress travels on its own port and may arrive after the result, or after a cancel.

@@ -148,7 +148,7 @@ export async function* streamRealizations(
 	}
 }
 
-/** runRealizations with every option of the pool's run (admission, keeping, abort, progress). */
+/** runRealizations with every option of the pool's run (keeping, abort, progress, key). */
 function runRealizationsWith(recipe: Recipe, realizations: number[], opts: RunOptions): Promise<Map<number, Float64Array>> {
 	return enqueue(async () => {
 		if (opts.signal?.aborted) throw new CancelledError();
