@@ -1,5 +1,5 @@
 import type { Recipe } from './schema';
-import { withTypedPoints } from './typed-points';
+import { float64Column, int32Column, withTypedPoints } from './typed-points';
 
 /**
  * The recipe of a stored document (its canonical JSON, see canonicalJson), with a points target's columns as typed
@@ -28,8 +28,8 @@ export function parseRecipeDocument(text: string, { shared = false }: { shared?:
 	}
 	if (bounds[bounds.length - 1] !== text.length) return withTypedPoints(JSON.parse(text) as Recipe, { shared });
 	const column = <T extends Float64Array | Int32Array>(k: number, make: (n: number) => T) => numbers(text, bounds[2 * k], bounds[2 * k + 1], make);
-	const f64 = (n: number) => (shared ? new Float64Array(new SharedArrayBuffer(8 * n)) : new Float64Array(n));
-	const domain = column(0, (n) => (shared ? new Int32Array(new SharedArrayBuffer(4 * n)) : new Int32Array(n)));
+	const f64 = (n: number) => float64Column(n, shared);
+	const domain = column(0, (n) => int32Column(n, shared));
 	const x = column(1, f64);
 	const y = column(2, f64);
 	const z = column(3, f64);

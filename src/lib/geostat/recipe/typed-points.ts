@@ -14,11 +14,21 @@ export function withTypedPoints(recipe: Recipe, { shared = false }: { shared?: b
 	if (t.kind !== 'points') return recipe;
 	const n = t.x.length;
 	const f64 = (a: ArrayLike<number>) => {
-		const out = shared ? new Float64Array(new SharedArrayBuffer(8 * n)) : new Float64Array(n);
+		const out = float64Column(n, shared);
 		out.set(a);
 		return out;
 	};
-	const domain = shared ? new Int32Array(new SharedArrayBuffer(4 * n)) : new Int32Array(n);
+	const domain = int32Column(n, shared);
 	domain.set(t.domain);
 	return { ...recipe, targets: { kind: 'points', x: f64(t.x), y: f64(t.y), z: f64(t.z), domain } } as Recipe;
+}
+
+/** A coordinate column of n targets, in a SharedArrayBuffer when `shared`. */
+export function float64Column(n: number, shared: boolean): Float64Array {
+	return new Float64Array(shared ? new SharedArrayBuffer(8 * n) : new ArrayBuffer(8 * n));
+}
+
+/** A domain column of n targets, in a SharedArrayBuffer when `shared`. */
+export function int32Column(n: number, shared: boolean): Int32Array {
+	return new Int32Array(shared ? new SharedArrayBuffer(4 * n) : new ArrayBuffer(4 * n));
 }
