@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { streamResponse } from '../../src/lib/server/download';
+import { csvResponse, streamResponse } from '../../src/lib/server/download';
 
 const busy = (ms: number) => {
 	const end = performance.now() + ms;
@@ -43,5 +43,15 @@ describe('streamResponse(chunks)', () => {
 		await reader.cancel();
 		expect(abort.signal.aborted).toBe(true);
 		expect(closed).toBe(true);
+	});
+});
+
+describe('csvResponse(chunks, filename)', () => {
+	it('streams the chunks as CSV under a safe file name (download.csv when nothing is left of it)', async () => {
+		const res = csvResponse(['a,b\r\n', '1,2\r\n'].values(), 'Levee site: readings.csv');
+		expect(res.headers.get('content-type')).toBe('text/csv; charset=utf-8');
+		expect(res.headers.get('content-disposition')).toBe('attachment; filename="Levee-site-readings.csv"');
+		expect(await res.text()).toBe('a,b\r\n1,2\r\n');
+		expect(csvResponse([].values(), '堤防').headers.get('content-disposition')).toBe('attachment; filename="download.csv"');
 	});
 });

@@ -1,19 +1,18 @@
 // Responses that download a file.
 
-/** A streamed CSV download of `chunks` under `filename` (letters, digits, dot, dash and underscore kept). */
+/**
+ * A streamed CSV download of `chunks` under `filename` (letters, digits, dot, dash and underscore kept): a
+ * streamResponse, so a project's every reading is written while other requests keep being answered.
+ */
 export function csvResponse(chunks: Iterator<string>, filename: string): Response {
-	const encoder = new TextEncoder();
-	const safe = filename.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/-{2,}/g, '-').replace(/^-+|-+$/g, '') || 'download.csv';
-	const body = new ReadableStream<Uint8Array>({
-		pull(controller) {
-			const next = chunks.next();
-			if (next.done) controller.close();
-			else controller.enqueue(encoder.encode(next.value));
+	async function* each() {
+		try {
+			for (let next = chunks.next(); !next.done; next = chunks.next()) yield next.value;
+		} finally {
+			chunks.return?.();
 		}
-	});
-	return new Response(body, {
-		headers: { 'content-type': 'text/csv; charset=utf-8', 'content-disposition': `attachment; filename="${safe}"`, 'cache-control': 'no-store' }
-	});
+	}
+	return streamResponse(each(), { filename: safeFileName(filename, 'download.csv'), contentType: 'text/csv; charset=utf-8', abort: new AbortController() });
 }
 
 /** A file name of letters, digits, dot, dash and underscore (others become dashes), never empty. */
