@@ -101,7 +101,7 @@ describe('choleskyFactor(A, n, relTol, from)', () => {
 	}
 
 	it('choleskyFactor gives the same bits as the column-by-column algorithm and as the row-by-row order', () => {
-		for (const n of [1, 3, 17, 32]) {
+		for (const n of [1, 3, 4, 5, 17, 32, 33]) {
 			const a = spd(n, 11 + n);
 			const got = a.slice();
 			const cols = a.slice();
@@ -115,6 +115,27 @@ describe('choleskyFactor(A, n, relTol, from)', () => {
 					expect(Object.is(got[i * n + j], rows[i * n + j])).toBe(true);
 				}
 			}
+		}
+	});
+
+	it('choleskySolve gives the same bits as plain forward and back substitution, term by term (its loops go four terms a pass)', () => {
+		for (const n of [1, 2, 3, 4, 5, 7, 17, 32, 33]) {
+			const l = spd(n, 3 + n);
+			expect(choleskyFactor(l, n)).toBe(true);
+			const b = Float64Array.from({ length: n }, (_, i) => Math.sin(i + 1));
+			const ref = new Float64Array(n);
+			for (let i = 0; i < n; i++) {
+				let s = b[i];
+				for (let k = 0; k < i; k++) s -= l[i * n + k] * ref[k];
+				ref[i] = s / l[i * n + i];
+			}
+			for (let i = n - 1; i >= 0; i--) {
+				let s = ref[i];
+				for (let k = i + 1; k < n; k++) s -= l[k * n + i] * ref[k];
+				ref[i] = s / l[i * n + i];
+			}
+			const x = choleskySolve(l, n, b);
+			for (let i = 0; i < n; i++) expect(Object.is(x[i], ref[i]), `n=${n} x[${i}]`).toBe(true);
 		}
 	});
 
