@@ -1,23 +1,24 @@
 // Sequential Gaussian simulation benchmarks (issues 4 and 16): "section", "section-offgrid", "block" (each also
 // on the multiple-grid path, ":multigrid") and "pool".
-// Each simulation case also times, in the same process, a floor: factoring and solving as many k×k systems
-// with the plain Float64Array Cholesky (k = the mean neighbour count the simulation actually used), so
-// `ratio` says what search, covariance build and bookkeeping cost on top of the unavoidable solves — or, with
-// solved systems reused, how far below it the engine goes. Per case, each on a fresh prepared simulation after an
-// untimed warm-up realization (so the compiler's warm-up is not counted): `ratio` and `hitRate` (share of systems
-// whose solution was reused) with everything kept (the default); `ratioNoReuse` keeping the data parts but no
-// solved systems; `ratioFresh` keeping nothing (reuseBytes 0); each a mean over realizations 0…R−1, the first of
-// which fills what is kept.
+// Each simulation case is set against a floor: copying, factoring and solving one k×k system with the engine's
+// own Cholesky (k = the mean neighbour count the simulation actually used), measured in a worker thread of its
+// own (floor.worker.ts) — so `ratio` says what search, covariance build and bookkeeping cost on top of the
+// unavoidable solves, or, with solved systems reused, how far below it the engine goes. Per case, each on a fresh
+// prepared simulation after an untimed warm-up realization with the same options (so the compiler's warm-up is
+// not counted): `ratio` and `hitRate` (share of systems whose solution was reused) with everything kept (the
+// default); `ratioNoReuse` keeping the data parts but no solved systems; `ratioFresh` keeping nothing
+// (reuseBytes 0); each a mean over realizations 0…R−1, the first of which fills what is kept.
 import seedrandom from 'seedrandom';
 import { availableParallelism } from 'node:os';
-import { choleskyFactor, choleskySolve, covariance, prepareSimulation, recipeInput, simulatePrepared, targetsFromDefinition } from '../src/lib/geostat/index';
+import { Worker } from 'node:worker_threads';
+import { prepareSimulation, recipeInput, simulatePrepared, targetsFromDefinition } from '../src/lib/geostat/index';
 import type { PrepareOptions, SimulationInput, SimulationStats, TargetPoints, VariogramModel, Sample } from '../src/lib/geostat/index';
 import { createNodePool } from '../workers/node-pool';
 import { demoRecipe } from '../scripts/demo-recipe';
 import type { BenchCase } from './index';
 
 // CPU time of this process, not wall time: other work shares the box, and a realization that waits for a core
-// should not count as slower (both the simulation and its floor are timed this way).
+// should not count as slower.
 const cpuMs = () => {
 	const u = process.cpuUsage();
 	return (u.user + u.system) / 1000;
@@ -80,38 +81,28 @@ function offgridInput(): { input: SimulationInput; targets: TargetPoints } {
 	return { input: recipeInput(recipe), targets: targetsFromDefinition(recipe.targets) };
 }
 
-/** Covariance matrices of k points along a line: SPD with realistic conditioning, for the floor. */
-function floorMatrices(k: number): Float64Array[] {
-	const model: VariogramModel = { azimuth: 90, structures: [{ type: 'exponential', sill: 1, rangeMajor: 40, rangeMinor: 40, rangeVertical: 1 }] };
-	return Array.from({ length: 64 }, (_, s) => {
-		const a = new Float64Array(k * k);
-		for (let i = 0; i < k; i++) for (let j = 0; j < k; j++) a[i * k + j] = covariance(model, (i - j) * (1 + s / 64) * 2.3, 0, 0);
-		return a;
+/**
+ * The floor: microseconds to copy, factor and solve one k×k system with the engine's Cholesky, measured in a
+ * worker thread of its own (see floor.worker.ts for why), the fastest of ten passes of 20,000 systems after three
+ * untimed ones (so the compiler's work is not counted).
+ */
+async function floorUs(k: number): Promise<number> {
+	const worker = new Worker(new URL('../workers/node-worker-bootstrap.mjs', import.meta.url), {
+		workerData: { entry: new URL('./floor.worker.ts', import.meta.url).href, k, systems: 20_000, passes: 10 }
 	});
-}
-
-/** Milliseconds to copy, factor and solve `systems` k×k systems with the plain Float64Array Cholesky. */
-function floorMs(mats: Float64Array[], k: number, systems: number): number {
-	const a = new Float64Array(k * k);
-	const b = new Float64Array(k).fill(0.5);
-	const x = new Float64Array(k);
-	let sink = 0;
-	const t0 = cpuMs();
-	for (let s = 0; s < systems; s++) {
-		a.set(mats[s % mats.length]);
-		if (!choleskyFactor(a, k)) throw new Error('floor matrix not SPD');
-		choleskySolve(a, k, b, x);
-		sink += x[0];
+	try {
+		return await new Promise<number>((resolve, reject) => {
+			worker.once('message', resolve);
+			worker.once('error', reject);
+			worker.once('exit', (code) => reject(new Error(`floor worker stopped (exit ${code})`)));
+		});
+	} finally {
+		await worker.terminate();
 	}
-	const ms = cpuMs() - t0;
-	if (!Number.isFinite(sink)) throw new Error('floor diverged');
-	return ms;
 }
 
 interface Run {
 	simMs: number;
-	floorMs: number;
-	floorSystems: number;
 	systems: number;
 	neighbours: number;
 	reused: number;
@@ -119,14 +110,12 @@ interface Run {
 	cacheMB: number;
 }
 
-/** Realizations 0…R−1 of one prepared simulation, each timed next to its floor (the box is shared with other work). */
+/** Realizations 0…R−1 of one prepared simulation, timed in CPU time of this process (see cpuMs). */
 function run(input: SimulationInput, targets: TargetPoints, realizations: number, options: PrepareOptions): Run {
 	const t0 = cpuMs();
 	const prep = prepareSimulation(input, targets, options);
-	const out: Run = { simMs: 0, floorMs: 0, floorSystems: 0, systems: 0, neighbours: 0, reused: 0, prepareMs: cpuMs() - t0, cacheMB: 0 };
+	const out: Run = { simMs: 0, systems: 0, neighbours: 0, reused: 0, prepareMs: cpuMs() - t0, cacheMB: 0 };
 	sampleRss();
-	let mats: Float64Array[] | null = null;
-	let k = 0;
 	for (let r = 0; r < realizations; r++) {
 		const stats: SimulationStats = { systems: 0, neighbours: 0, reused: 0 };
 		const t1 = cpuMs();
@@ -136,13 +125,6 @@ function run(input: SimulationInput, targets: TargetPoints, realizations: number
 		out.systems += stats.systems;
 		out.neighbours += stats.neighbours;
 		out.reused += stats.reused;
-		if (!mats) {
-			k = Math.round(stats.neighbours / stats.systems);
-			mats = floorMatrices(k);
-		}
-		const m = Math.min(stats.systems, 200_000);
-		out.floorMs += floorMs(mats, k, m);
-		out.floorSystems += m;
 	}
 	out.cacheMB = prep.cache && prep.cache.stores > 0 ? prep.cache.bytes / 2 ** 20 : 0;
 	return out;
@@ -151,24 +133,29 @@ function run(input: SimulationInput, targets: TargetPoints, realizations: number
 const round2 = (v: number) => Math.round(v * 100) / 100;
 
 /** One simulation case on one path (see the head of this file). */
-function simulationCase(
+async function simulationCase(
 	name: string,
 	setup: () => { input: SimulationInput; targets: TargetPoints },
 	realizations: number,
 	path: 'random' | 'multigrid'
-): Record<string, number> {
+): Promise<Record<string, number>> {
 	const base = setup();
 	const input: SimulationInput = { ...base.input, domains: base.input.domains.map((d) => ({ ...d, search: { ...d.search, path } })) };
 	const { targets } = base;
-	if (realizations > 1) simulatePrepared(prepareSimulation(input, targets, { reuseBytes: 0 }), 999);
+	// Each configuration warmed up on a throwaway preparation first, so none is timed while the compiler still
+	// learns its paths (the block, one realization at a time, is too large for that and is timed cold).
+	const measure = (options: PrepareOptions): Run => {
+		if (realizations > 1) simulatePrepared(prepareSimulation(input, targets, options), 999);
+		return run(input, targets, realizations, options);
+	};
 	sampleRss();
 	peakRss = process.memoryUsage().rss;
-	const on = run(input, targets, realizations, {});
+	const on = measure({});
 	const peak = peakRss;
-	const off = run(input, targets, realizations, { reuseSolutions: false });
-	const fresh = realizations > 1 ? run(input, targets, realizations, { reuseBytes: 0 }) : null;
+	const off = measure({ reuseSolutions: false });
+	const fresh = realizations > 1 ? measure({ reuseBytes: 0 }) : null;
 	const us = (r: Run) => (r.simMs * 1000) / r.systems;
-	const floorUs = (r: Run) => (r.floorMs * 1000) / r.floorSystems;
+	const floor = await floorUs(Math.round(on.neighbours / on.systems));
 	return {
 		nodes: on.systems / realizations,
 		targets: targets.x.length,
@@ -176,12 +163,12 @@ function simulationCase(
 		prepareMs: Math.round(on.prepareMs),
 		msPerRealization: Math.round(on.simMs / realizations),
 		usPerNode: round2(us(on)),
-		floorUsPerNode: round2(floorUs(on)),
-		ratio: round2(us(on) / floorUs(on)),
+		floorUsPerNode: round2(floor),
+		ratio: round2(us(on) / floor),
 		hitRate: round2(on.reused / on.systems),
 		msPerRealizationNoReuse: Math.round(off.simMs / realizations),
-		ratioNoReuse: round2(us(off) / floorUs(off)),
-		...(fresh ? { ratioFresh: round2(us(fresh) / floorUs(fresh)) } : {}),
+		ratioNoReuse: round2(us(off) / floor),
+		...(fresh ? { ratioFresh: round2(us(fresh) / floor) } : {}),
 		cacheMB: Math.round(on.cacheMB),
 		...(name.startsWith('block') ? { peakRssMB: Math.round(peak / 2 ** 20) } : {})
 	};
