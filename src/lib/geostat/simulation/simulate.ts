@@ -4,12 +4,12 @@ import { backTransform } from '../distribution/normal-score';
 import { normalisedCoordinates } from '../search/search-ellipsoid';
 import { ActiveBuckets } from '../search/active-buckets';
 import { selectNearest } from '../search/select-nearest';
-import { choleskyFactor, choleskySolve } from '../linalg/cholesky';
 import { prepareSimulation } from './prepare-simulation';
 import { trendValue } from './trend';
 import type { PreparedDomain, PreparedSimulation } from './prepare-simulation';
 import { multigridLevel, multigridPath } from './multigrid-path';
 import { signatureHash } from './solution-cache';
+import { KrigingSystem } from './kriging-system';
 import type { SimulationInput, TargetPoints } from './types';
 
 /**
@@ -159,22 +159,14 @@ function simulateDomain(
 		}
 	}
 
-	const { cov, sill, mean, ordinary, maxData, maxSimulated } = dom;
+	const { sill, mean, ordinary, maxData, maxSimulated } = dom;
 	const kmax = maxData + maxSimulated;
 	const ncand = Math.max(dom.nd, dom.nodeGrid ? dom.nodeGrid.size : 0, 1);
 	const candIdx = new Int32Array(ncand);
 	const candD2 = new Float64Array(ncand);
 	const selIdx = new Int32Array(Math.max(kmax, 1));
 	const selD2 = new Float64Array(Math.max(kmax, 1));
-	const px = new Float64Array(kmax + 1);
-	const py = new Float64Array(kmax + 1);
-	const pz = new Float64Array(kmax + 1);
 	const pv = new Float64Array(kmax);
-	const a = new Float64Array(kmax * kmax);
-	const rhs = new Float64Array(kmax);
-	const w = new Float64Array(kmax);
-	const u1 = new Float64Array(kmax);
-	const ones = new Float64Array(kmax).fill(1);
 	const q = new Float64Array(3);
 
 	const table = dom.covTable;
@@ -194,166 +186,11 @@ function simulateDomain(
 	// Reuse needs every entry's covariances from the table: then the signature fixes the system.
 	const cache = table !== null ? prep.cache : null;
 	const key = new Int32Array(kmax);
-	const nd = dom.nd;
-	const dataCov = dom.dataCov;
 	const dataSel = dom.dataSelection;
 	const selStride = maxData + 1;
-	const dataFactor = dom.dataFactor;
-	const factorReady = dom.dataFactorReady;
-	const factorStride = (maxData * (maxData + 1)) / 2 + maxData;
-	// Datum index of each system entry (−1 for a simulated node), for the kept data–data covariances.
-	const pid = new Int32Array(kmax);
-	const DX = dom.dx;
-	const DY = dom.dy;
-	const DZ = dom.dz;
-	// Table position of each system entry on the lattice (−1 off it): the covariance of two entries on the
-	// lattice is table[centre + tp[p] − tp[q]], always in range (see tableHalf in prepareSimulation).
-	const tp = new Int32Array(kmax);
-	// The system's covariances. Two entries both on the lattice take the table; two data the kept data–data
-	// covariances when there are some; anything else is evaluated, in rows (cov.row) where it can. Each is the
-	// same bits the covariance gives for that pair (C(h) = C(−h) too). The target sits at index kmax of px, py,
-	// pz, so the right-hand side is a row too. `off`: how many of the kd data are off the lattice.
-	/** rhs[p]: covariance of entry p and the target. */
-	const buildRhs = (k: number, kd: number, off: number, tq: number): void => {
-		buildRhsData(kd, off, tq);
-		buildRhsNodes(k, kd, tq);
-	};
-	const buildRhsData = (kd: number, off: number, tq: number): void => {
-		if (tq < 0 || off === kd) cov.row(rhs, 0, px, py, pz, kmax, 0, kd);
-		else {
-			for (let p = 0; p < kd; p++) {
-				if (tp[p] >= 0) rhs[p] = table![centre + tp[p] - tq];
-				else cov.pair(rhs, p, px, py, pz, kmax, px, py, pz, p);
-			}
-		}
-	};
-	const buildRhsNodes = (k: number, kd: number, tq: number): void => {
-		if (tq < 0) cov.row(rhs, kd, px, py, pz, kmax, kd, k);
-		else for (let p = kd; p < k; p++) rhs[p] = table![centre + tp[p] - tq];
-	};
-	/** Rows p < kd (data) of the lower triangle. */
-	const buildDataRows = (k: number, kd: number, off: number): void => {
-		for (let p = 0; p < kd; p++) {
-			const row = p * k;
-			const tpp = tp[p];
-			if (dataCov === null) {
-				if (off === kd) cov.row(a, row, px, py, pz, p, 0, p);
-				else {
-					for (let r = 0; r < p; r++) {
-						if (tpp >= 0 && tp[r] >= 0) a[row + r] = table![centre + tpp - tp[r]];
-						else cov.pair(a, row + r, px, py, pz, p, px, py, pz, r);
-					}
-				}
-				continue;
-			}
-			const ip = pid[p];
-			for (let r = 0; r < p; r++) {
-				const tr = tp[r];
-				if (tpp >= 0 && tr >= 0) {
-					a[row + r] = table![centre + tpp - tr];
-					continue;
-				}
-				const at = ip * nd + pid[r];
-				if (dataCov[at] !== dataCov[at]) {
-					cov.pair(dataCov, at, DX, DY, DZ, ip, DX, DY, DZ, pid[r]);
-					// C(h) = C(−h) bit for bit, so one evaluation serves both orders.
-					dataCov[pid[r] * nd + ip] = dataCov[at];
-				}
-				a[row + r] = dataCov[at];
-			}
-		}
-	};
-	/** Rows p ≥ kd (simulated nodes) of the lower triangle. */
-	const buildNodeRows = (k: number, kd: number, off: number): void => {
-		for (let p = kd; p < k; p++) {
-			const row = p * k;
-			const tpp = tp[p];
-			if (tpp < 0) {
-				cov.row(a, row, px, py, pz, p, 0, p);
-				continue;
-			}
-			const base = centre + tpp;
-			if (off === kd) cov.row(a, row, px, py, pz, p, 0, kd);
-			else {
-				for (let r = 0; r < kd; r++) {
-					if (tp[r] >= 0) a[row + r] = table![base - tp[r]];
-					else cov.pair(a, row + r, px, py, pz, p, px, py, pz, r);
-				}
-			}
-			for (let r = kd; r < p; r++) a[row + r] = table![base - tp[r]];
-		}
-	};
-	/** The lower triangle of the system and its right-hand side; ridged: 1 + 1e-9 times the sill on the diagonal. */
-	const buildSystem = (k: number, kd: number, off: number, tq: number, ridged: boolean): void => {
-		buildRhs(k, kd, off, tq);
-		buildDataRows(k, kd, off);
-		buildNodeRows(k, kd, off);
-		const diag = ridged ? sill * (1 + 1e-9) : sill * 1;
-		for (let p = 0; p < k; p++) a[p * k + p] = diag;
-	};
-	/**
-	 * Builds, factors and solves the system of k entries: leaves the simple-kriging weights, or the ordinary-kriging
-	 * λ = w − μ·u (with K·w = k₀, K·u = 1, μ = (Σw − 1)/Σu), in `w` and returns the kriging variance (≥ 0).
-	 */
-	const solve = (k: number, kd: number, off: number, tq: number, g: number, pos: number): number => {
-		// The data part of a target's system (its first kd rows of the factor and of the right-hand side) is the
-		// same in every realization: kept after the first, and the factorisation continued from row kd.
-		const fo = pos * factorStride;
-		let ok: boolean;
-		if (factorReady !== null && factorReady[pos] === 1) {
-			let f = fo;
-			for (let i = 0; i < kd; i++) {
-				const row = i * k;
-				for (let j = 0; j <= i; j++) a[row + j] = dataFactor![f++];
-			}
-			for (let i = 0; i < kd; i++) rhs[i] = dataFactor![f++];
-			buildRhsNodes(k, kd, tq);
-			buildNodeRows(k, kd, off);
-			const diag = sill * 1;
-			for (let p = kd; p < k; p++) a[p * k + p] = diag;
-			ok = choleskyFactor(a, k, 1e-13, kd);
-		} else {
-			buildSystem(k, kd, off, tq, false);
-			ok = choleskyFactor(a, k);
-			if (ok && factorReady !== null && kd > 0) {
-				let f = fo;
-				for (let i = 0; i < kd; i++) {
-					const row = i * k;
-					for (let j = 0; j <= i; j++) dataFactor![f++] = a[row + j];
-				}
-				for (let i = 0; i < kd; i++) dataFactor![f++] = rhs[i];
-				factorReady[pos] = 1;
-			}
-		}
-		if (!ok) {
-			// A tiny ridge (1e-9 of the sill) rescues systems that are singular only to rounding, e.g. a
-			// Gaussian model without nugget at close points; common practice.
-			buildSystem(k, kd, off, tq, true);
-			if (!choleskyFactor(a, k)) throw new Error(`singular kriging system at target ${g}`);
-		}
-		choleskySolve(a, k, rhs, w);
-		let variance: number;
-		if (!ordinary) {
-			variance = sill;
-			for (let p = 0; p < k; p++) variance -= w[p] * rhs[p];
-		} else {
-			choleskySolve(a, k, ones, u1);
-			let sw = 0;
-			let su = 0;
-			for (let p = 0; p < k; p++) {
-				sw += w[p];
-				su += u1[p];
-			}
-			const mu = (sw - 1) / su;
-			variance = sill - mu;
-			for (let p = 0; p < k; p++) {
-				const lam = w[p] - mu * u1[p];
-				w[p] = lam;
-				variance -= lam * rhs[p];
-			}
-		}
-		return variance < 0 ? 0 : variance;
-	};
+	// The system's entries are filled here and built and solved by `sys` (see KrigingSystem).
+	const sys = new KrigingSystem(dom, centre);
+	const { px, py, pz, tp, pid, w } = sys;
 	for (let step = 0; step < path.length; step++) {
 		const pos = path[step];
 		const g = nodes[pos];
@@ -390,11 +227,10 @@ function simulateDomain(
 		let kd = 0;
 		let off = 0;
 		if (useData) {
-			// The data search depends on the target alone: kept from an earlier realization when there is room.
-			let sel: Int32Array | Uint16Array = selIdx;
-			let so = 0;
+			// The data search depends on the target alone: kept from an earlier realization when there is room
+			// (copied back into selIdx, so the loop below reads one kind of array whichever way it came).
 			if (dataSel !== null) {
-				so = pos * selStride;
+				const so = pos * selStride;
 				if (dataSel[so] === 0xffff) {
 					const m = dom.dataGrid.query(q[0], q[1], q[2], candIdx, candD2);
 					const n = selectNearest(candIdx, candD2, m, maxData, selIdx, selD2, dom.dgroup, dom.maxPerSounding);
@@ -402,14 +238,13 @@ function simulateDomain(
 					dataSel[so] = n;
 				}
 				kd = dataSel[so];
-				sel = dataSel;
-				so++;
+				for (let s = 0; s < kd; s++) selIdx[s] = dataSel[so + 1 + s];
 			} else {
 				const m = dom.dataGrid.query(q[0], q[1], q[2], candIdx, candD2);
 				kd = selectNearest(candIdx, candD2, m, maxData, selIdx, selD2, dom.dgroup, dom.maxPerSounding);
 			}
 			for (let s = 0; s < kd; s++) {
-				const i = sel[so + s];
+				const i = selIdx[s];
 				px[k] = dom.dx[i];
 				py[k] = dom.dy[i];
 				pz[k] = dom.dz[i];
@@ -508,7 +343,7 @@ function simulateDomain(
 				variance = wts[at + cache!.kmax];
 				stats.reused++;
 			} else {
-				variance = solve(k, kd, off, tq, g, pos);
+				variance = sys.solve(k, kd, off, tq, g, pos);
 				if (reusable) cache!.store(d, k, key, hash, w, variance);
 			}
 			if (!ordinary) {
