@@ -17,29 +17,6 @@ export function choleskyFactor(a: Float64Array, n: number, relTol = 1e-13, from 
 	if (!Number.isInteger(n) || n < 0) throw new RangeError('n must be a non-negative integer');
 	if (!Number.isInteger(from) || from < 0 || from > n) throw new RangeError('from must be an integer within 0…n');
 	if (a.length < n * n) throw new RangeError('matrix buffer too small');
-	if (from > 0) return continueFactor(a, n, relTol, from);
-	let dmax = 0;
-	for (let i = 0; i < n; i++) if (a[i * n + i] > dmax) dmax = a[i * n + i];
-	const tol = relTol * dmax;
-	for (let j = 0; j < n; j++) {
-		const rj = j * n;
-		const d = subtractDot(a[rj + j], a, rj, a, rj, j);
-		// `!(d > tol)` also catches NaN, so a NaN entry can never leak into a solution.
-		if (!(d > tol)) return false;
-		const ljj = Math.sqrt(d);
-		a[rj + j] = ljj;
-		const inv = 1 / ljj;
-		for (let i = j + 1; i < n; i++) {
-			const ri = i * n;
-			a[ri + j] = subtractDot(a[ri + j], a, ri, a, rj, j) * inv;
-		}
-	}
-	return true;
-}
-
-// choleskyFactor from row m > 0: the same loop, with the first m columns' pivots already in place and only rows
-// m … n − 1 computed. (Kept apart so that the whole factorisation stays as lean as it was.)
-function continueFactor(a: Float64Array, n: number, relTol: number, from: number): boolean {
 	let dmax = 0;
 	for (let i = from; i < n; i++) if (a[i * n + i] > dmax) dmax = a[i * n + i];
 	const tol = relTol * dmax;
@@ -48,7 +25,9 @@ function continueFactor(a: Float64Array, n: number, relTol: number, from: number
 		let ljj: number;
 		if (j < from) ljj = a[rj + j];
 		else {
-			const d = subtractDot(a[rj + j], a, rj, a, rj, j);
+			let d = a[rj + j];
+			for (let k = 0; k < j; k++) d -= a[rj + k] * a[rj + k];
+			// `!(d > tol)` also catches NaN, so a NaN entry can never leak into a solution.
 			if (!(d > tol)) return false;
 			ljj = Math.sqrt(d);
 			a[rj + j] = ljj;
@@ -56,7 +35,20 @@ function continueFactor(a: Float64Array, n: number, relTol: number, from: number
 		const inv = 1 / ljj;
 		for (let i = j < from ? from : j + 1; i < n; i++) {
 			const ri = i * n;
-			a[ri + j] = subtractDot(a[ri + j], a, ri, a, rj, j) * inv;
+			// s − Σ_{k<j} L_ik·L_jk, each product subtracted in turn in ascending k — the plain loop's arithmetic,
+			// so its bits — four terms a pass (about 15 % faster in V8 at n ≈ 32: fewer loop tests and bounds
+			// checks). Written out here, not in a helper: V8 did not always inline one. JavaScript never fuses a
+			// multiply and an add.
+			let s = a[ri + j];
+			let k = 0;
+			for (const end = j - 3; k < end; k += 4) {
+				s -= a[ri + k] * a[rj + k];
+				s -= a[ri + k + 1] * a[rj + k + 1];
+				s -= a[ri + k + 2] * a[rj + k + 2];
+				s -= a[ri + k + 3] * a[rj + k + 3];
+			}
+			for (; k < j; k++) s -= a[ri + k] * a[rj + k];
+			a[ri + j] = s * inv;
 		}
 	}
 	return true;
@@ -71,10 +63,20 @@ export function choleskySolve(l: Float64Array, n: number, b: Float64Array, x: Fl
 	if (l.length < n * n || b.length < n || x.length < n) throw new RangeError('buffer too small');
 	for (let i = 0; i < n; i++) {
 		const ri = i * n;
-		x[i] = subtractDot(b[i], l, ri, x, 0, i) / l[ri + i];
+		// b_i − Σ_{k<i} l_ik·x_k, term by term in ascending k, four a pass (as in choleskyFactor).
+		let s = b[i];
+		let k = 0;
+		for (const end = i - 3; k < end; k += 4) {
+			s -= l[ri + k] * x[k];
+			s -= l[ri + k + 1] * x[k + 1];
+			s -= l[ri + k + 2] * x[k + 2];
+			s -= l[ri + k + 3] * x[k + 3];
+		}
+		for (; k < i; k++) s -= l[ri + k] * x[k];
+		x[i] = s / l[ri + i];
 	}
 	for (let i = n - 1; i >= 0; i--) {
-		// s − Σ_{k>i} l[k][i]·x[k], term by term in ascending k (as subtractDot, down a column of l).
+		// x_i − Σ_{k>i} l_ki·x_k, term by term in ascending k, four a pass, down a column of l.
 		let s = x[i];
 		let k = i + 1;
 		let c = k * n + i;
@@ -90,19 +92,3 @@ export function choleskySolve(l: Float64Array, n: number, b: Float64Array, x: Fl
 	return x;
 }
 
-/**
- * s − Σ_{k<m} a[p + k]·b[q + k], each product subtracted in turn in ascending k: the very arithmetic of the plain
- * loop `for (k = 0; k < m; k++) s -= a[p + k] * b[q + k]`, so the same bits, four terms a pass (about 15 % faster
- * in V8 at m ≈ 32: fewer loop tests and bounds checks). JavaScript never fuses a multiply and an add.
- */
-function subtractDot(s: number, a: Float64Array, p: number, b: Float64Array, q: number, m: number): number {
-	let k = 0;
-	for (const end = m - 3; k < end; k += 4) {
-		s -= a[p + k] * b[q + k];
-		s -= a[p + k + 1] * b[q + k + 1];
-		s -= a[p + k + 2] * b[q + k + 2];
-		s -= a[p + k + 3] * b[q + k + 3];
-	}
-	for (; k < m; k++) s -= a[p + k] * b[q + k];
-	return s;
-}
