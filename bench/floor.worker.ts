@@ -1,17 +1,16 @@
 // The floor of the simulation benchmarks, measured in a worker thread of its own: copying, factoring and solving
 // k×k covariance matrices with the engine's Cholesky (choleskyFactor, choleskySolve) and nothing else. In the
 // simulating thread the same loop measured 5.8 to 16 µs a system at k = 31, depending on the type feedback the
-// engine's own calls had left on choleskyFactor; here the isolate holds nothing but this loop, and the floor is
-// the fastest of several passes (wall time: the thread does nothing else, and the fastest pass is the one least
-// disturbed by other work on the box).
+// engine's own calls had left on choleskyFactor; here the isolate holds nothing but this loop. It answers each
+// message { systems } with the microseconds a system of one pass (wall time: the thread does nothing else, and the
+// simulating thread waits), after three untimed passes at start, so the compiler's work is not the floor.
 import { parentPort, workerData } from 'node:worker_threads';
 import { choleskyFactor, choleskySolve, covariance } from '../src/lib/geostat/index';
 import type { VariogramModel } from '../src/lib/geostat/index';
 
-export interface FloorRequest {
+/** workerData of this worker. */
+export interface FloorOptions {
 	k: number;
-	systems: number;
-	passes: number;
 }
 
 /** Covariance matrices of k points along a line: SPD with realistic conditioning. */
@@ -42,9 +41,8 @@ function pass(mats: Float64Array[], k: number, systems: number): number {
 	return us;
 }
 
-const { k, systems, passes } = workerData as FloorRequest;
+const { k } = workerData as FloorOptions;
 const mats = floorMatrices(k);
-for (let w = 0; w < 3; w++) pass(mats, k, systems); // warm-up: the compiler's work is not the floor
-let best = Infinity;
-for (let p = 0; p < passes; p++) best = Math.min(best, pass(mats, k, systems));
-parentPort!.postMessage(best);
+for (let w = 0; w < 3; w++) pass(mats, k, 20_000);
+parentPort!.postMessage('ready');
+parentPort!.on('message', (systems: number) => parentPort!.postMessage(pass(mats, k, systems)));

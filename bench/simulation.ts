@@ -2,7 +2,7 @@
 // on the multiple-grid path, ":multigrid") and "pool".
 // Each simulation case is set against a floor: copying, factoring and solving one k×k system with the engine's
 // own Cholesky (k = the mean neighbour count the simulation actually used), measured in a worker thread of its
-// own (floor.worker.ts) — so `ratio` says what search, covariance build and bookkeeping cost on top of the
+// own (floor.worker.ts) in a pass after each realization — so `ratio` says what search, covariance build and bookkeeping cost on top of the
 // unavoidable solves, or, with solved systems reused, how far below it the engine goes. Per case, each on a fresh
 // prepared simulation after an untimed warm-up realization with the same options (so the compiler's warm-up is
 // not counted): `ratio` and `hitRate` (share of systems whose solution was reused) with everything kept (the
@@ -83,26 +83,44 @@ function offgridInput(): { input: SimulationInput; targets: TargetPoints } {
 
 /**
  * The floor: microseconds to copy, factor and solve one k×k system with the engine's Cholesky, measured in a
- * worker thread of its own (see floor.worker.ts for why), the fastest of ten passes of 20,000 systems after three
- * untimed ones (so the compiler's work is not counted).
+ * worker thread of its own (see floor.worker.ts for why). One pass follows each realization, so the two share the
+ * box's state of the moment: here a realization's time can swing by 50 % over minutes with other work on the host.
  */
-async function floorUs(k: number): Promise<number> {
-	const worker = new Worker(new URL('../workers/node-worker-bootstrap.mjs', import.meta.url), {
-		workerData: { entry: new URL('./floor.worker.ts', import.meta.url).href, k, systems: 20_000, passes: 10 }
-	});
-	try {
-		return await new Promise<number>((resolve, reject) => {
-			worker.once('message', resolve);
-			worker.once('error', reject);
-			worker.once('exit', (code) => reject(new Error(`floor worker stopped (exit ${code})`)));
+class Floor {
+	private readonly worker: Worker;
+	private readonly ready: Promise<void>;
+	constructor(readonly k: number) {
+		this.worker = new Worker(new URL('../workers/node-worker-bootstrap.mjs', import.meta.url), {
+			workerData: { entry: new URL('./floor.worker.ts', import.meta.url).href, k }
 		});
-	} finally {
-		await worker.terminate();
+		this.ready = this.next().then(() => undefined);
+	}
+	private next(): Promise<unknown> {
+		return new Promise((resolve, reject) => {
+			const onError = (err: Error) => reject(err);
+			this.worker.once('error', onError);
+			this.worker.once('message', (m) => {
+				this.worker.off('error', onError);
+				resolve(m);
+			});
+		});
+	}
+	/** Milliseconds the worker takes for `systems` systems (one pass). */
+	async ms(systems: number): Promise<number> {
+		await this.ready;
+		const answer = this.next();
+		this.worker.postMessage(systems);
+		return ((await answer) as number) * systems / 1000;
+	}
+	close(): Promise<number> {
+		return this.worker.terminate();
 	}
 }
 
 interface Run {
 	simMs: number;
+	floorMs: number;
+	floorSystems: number;
 	systems: number;
 	neighbours: number;
 	reused: number;
@@ -110,11 +128,14 @@ interface Run {
 	cacheMB: number;
 }
 
-/** Realizations 0…R−1 of one prepared simulation, timed in CPU time of this process (see cpuMs). */
-function run(input: SimulationInput, targets: TargetPoints, realizations: number, options: PrepareOptions): Run {
+/**
+ * Realizations 0…R−1 of one prepared simulation, timed in CPU time of this process (see cpuMs), each followed by a
+ * pass of the floor over as many systems (at most 200,000); the case's floor starts at the first realization's k.
+ */
+async function run(input: SimulationInput, targets: TargetPoints, realizations: number, options: PrepareOptions, floor: { at: Floor | null }): Promise<Run> {
 	const t0 = cpuMs();
 	const prep = prepareSimulation(input, targets, options);
-	const out: Run = { simMs: 0, systems: 0, neighbours: 0, reused: 0, prepareMs: cpuMs() - t0, cacheMB: 0 };
+	const out: Run = { simMs: 0, floorMs: 0, floorSystems: 0, systems: 0, neighbours: 0, reused: 0, prepareMs: cpuMs() - t0, cacheMB: 0 };
 	sampleRss();
 	for (let r = 0; r < realizations; r++) {
 		const stats: SimulationStats = { systems: 0, neighbours: 0, reused: 0 };
@@ -125,6 +146,10 @@ function run(input: SimulationInput, targets: TargetPoints, realizations: number
 		out.systems += stats.systems;
 		out.neighbours += stats.neighbours;
 		out.reused += stats.reused;
+		floor.at ??= new Floor(Math.round(stats.neighbours / stats.systems));
+		const m = Math.min(stats.systems, 200_000);
+		out.floorMs += await floor.at.ms(m);
+		out.floorSystems += m;
 	}
 	out.cacheMB = prep.cache && prep.cache.stores > 0 ? prep.cache.bytes / 2 ** 20 : 0;
 	return out;
@@ -144,18 +169,20 @@ async function simulationCase(
 	const { targets } = base;
 	// Each configuration warmed up on a throwaway preparation first, so none is timed while the compiler still
 	// learns its paths (the block, one realization at a time, is too large for that and is timed cold).
-	const measure = (options: PrepareOptions): Run => {
+	const floor: { at: Floor | null } = { at: null };
+	const measure = (options: PrepareOptions): Promise<Run> => {
 		if (realizations > 1) simulatePrepared(prepareSimulation(input, targets, options), 999);
-		return run(input, targets, realizations, options);
+		return run(input, targets, realizations, options, floor);
 	};
 	sampleRss();
 	peakRss = process.memoryUsage().rss;
-	const on = measure({});
+	const on = await measure({});
 	const peak = peakRss;
-	const off = measure({ reuseSolutions: false });
-	const fresh = realizations > 1 ? measure({ reuseBytes: 0 }) : null;
+	const off = await measure({ reuseSolutions: false });
+	const fresh = realizations > 1 ? await measure({ reuseBytes: 0 }) : null;
+	await floor.at?.close();
 	const us = (r: Run) => (r.simMs * 1000) / r.systems;
-	const floor = await floorUs(Math.round(on.neighbours / on.systems));
+	const floorUs = (r: Run) => (r.floorMs * 1000) / r.floorSystems;
 	return {
 		nodes: on.systems / realizations,
 		targets: targets.x.length,
@@ -163,12 +190,12 @@ async function simulationCase(
 		prepareMs: Math.round(on.prepareMs),
 		msPerRealization: Math.round(on.simMs / realizations),
 		usPerNode: round2(us(on)),
-		floorUsPerNode: round2(floor),
-		ratio: round2(us(on) / floor),
+		floorUsPerNode: round2(floorUs(on)),
+		ratio: round2(us(on) / floorUs(on)),
 		hitRate: round2(on.reused / on.systems),
 		msPerRealizationNoReuse: Math.round(off.simMs / realizations),
-		ratioNoReuse: round2(us(off) / floor),
-		...(fresh ? { ratioFresh: round2(us(fresh) / floor) } : {}),
+		ratioNoReuse: round2(us(off) / floorUs(off)),
+		...(fresh ? { ratioFresh: round2(us(fresh) / floorUs(fresh)) } : {}),
 		cacheMB: Math.round(on.cacheMB),
 		...(name.startsWith('block') ? { peakRssMB: Math.round(peak / 2 ** 20) } : {})
 	};
