@@ -87,6 +87,18 @@ describe('simulate with reuse on and off (same bits)', () => {
 			expect(on.stats.neighbours).toBe(off.stats.neighbours);
 		});
 
+		it(`section and block-like grid, ${path} path: data parts kept by their offsets alone (no solutions reused) give the same SHA-256 as nothing kept, and were reused`, () => {
+			for (const { input, targets } of [section(), block()]) {
+				const parts = run(withPath(input, path), targets, 2, { reuseSolutions: false });
+				const fresh = run(withPath(input, path), targets, 2, { reuseBytes: 0 });
+				expect(parts.hashes).toEqual(fresh.hashes);
+				expect(parts.prep.cache).toBeNull();
+				expect(fresh.prep.parts).toBeNull();
+				// Most systems find their data part already factored: the data's offsets repeat along the lattice.
+				expect(parts.prep.parts!.hits).toBeGreaterThan(0.5 * parts.stats.systems);
+			}
+		});
+
 		it(`block-like grid with two domains (simple and ordinary kriging, nugget, rotated anisotropy), ${path} path: same SHA-256 with reuse on and off`, () => {
 			const { input, targets } = block();
 			const on = run(withPath(input, path), targets, 2, {});

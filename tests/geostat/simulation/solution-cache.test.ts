@@ -50,6 +50,25 @@ describe('SolutionCache', () => {
 		expect(c.find(0, 1, d, hd)).toBeGreaterThanOrEqual(0);
 	});
 
+	it('SolutionCache with a width other than kmax keeps that many doubles a slot (data parts by their offsets), bit for bit', () => {
+		const c = new SolutionCache(3, 8, 9);
+		expect(c.width).toBe(9);
+		expect(c.bytes).toBe(8 * SolutionCache.bytesPerSlot(3, 9));
+		expect(SolutionCache.bytesPerSlot(3, 9)).toBe(4 * 6 + 8 * 10 + 8);
+		const k = key(-4, 0);
+		const h = signatureHash(1, 2, k);
+		const part = Float64Array.from({ length: 9 }, (_, i) => Math.sqrt(i + 2));
+		c.store(1, 2, k, h, part, 0, 9);
+		const slot = c.find(1, 2, k, h);
+		expect(slot).toBeGreaterThanOrEqual(0);
+		const at = c.valueOffset(slot);
+		expect(c.values().subarray(at, at + 9)).toEqual(part);
+		// More doubles than the width are refused, not truncated.
+		c.store(1, 1, key(7), signatureHash(1, 1, key(7)), new Float64Array(10), 0, 10);
+		expect(c.stores).toBe(1);
+		expect(() => new SolutionCache(3, 8, 0)).toThrow(RangeError);
+	});
+
 	it('SolutionCache states its memory, allocates it on the first store, ignores systems larger than kmax, and rejects bad sizes', () => {
 		expect(SolutionCache.bytesPerSlot(32)).toBe(4 * 35 + 8 * 33 + 8);
 		const c = new SolutionCache(32, 1001);

@@ -1,6 +1,7 @@
 import { choleskyFactor, choleskySolve } from '../linalg/cholesky';
 import type { TabulatedCovariance } from '../variogram/covariance-table';
 import type { PreparedDomain } from './prepare-simulation';
+import { signatureHash, type SolutionCache } from './solution-cache';
 
 /**
  * The kriging system of one simulated node, built and solved in buffers reused from node to node (one instance
@@ -44,9 +45,16 @@ export class KrigingSystem {
 	declare private readonly dataFactor: Float64Array | null;
 	declare private readonly factorReady: Uint8Array | null;
 	declare private readonly factorStride: number;
+	declare private readonly domain: number;
+	declare private readonly parts: SolutionCache | null;
+	declare private readonly partKey: Int32Array;
+	declare private readonly part: Float64Array;
 
-	/** @param centre the table position of a zero offset (see simulateDomain) */
-	constructor(dom: PreparedDomain, centre: number) {
+	/**
+	 * @param centre the table position of a zero offset (see simulateDomain)
+	 * @param parts where data parts of factors are kept by their data's lattice offsets (see PreparedSimulation), or null
+	 */
+	constructor(dom: PreparedDomain, centre: number, parts: SolutionCache | null) {
 		const kmax = dom.maxData + dom.maxSimulated;
 		this.kmax = kmax;
 		this.px = new Float64Array(kmax + 1);
@@ -73,6 +81,10 @@ export class KrigingSystem {
 		this.dataFactor = dom.dataFactor;
 		this.factorReady = dom.dataFactorReady;
 		this.factorStride = (dom.maxData * (dom.maxData + 1)) / 2 + dom.maxData;
+		this.domain = dom.index;
+		this.parts = dom.covTable !== null ? parts : null;
+		this.partKey = new Int32Array(Math.max(dom.maxData, 1));
+		this.part = new Float64Array(this.factorStride);
 	}
 
 	/** rhs[p] for the data, p < kd. */
@@ -169,19 +181,41 @@ export class KrigingSystem {
 	 */
 	solve(k: number, kd: number, off: number, tq: number, g: number, pos: number): number {
 		const { a, rhs, w, sill } = this;
-		const dataFactor = this.dataFactor;
+		// The data part of a system (its first kd rows of the factor and of the right-hand side) depends on the data
+		// alone: kept, then copied in and the factorisation continued from row kd (the same bits as a whole one).
+		// Kept per target when its data are off the lattice (the same in every realization), else by the data's
+		// lattice offsets from the target, which many targets share.
+		let kept: Float64Array | null = null;
+		let at = 0;
+		let keep = 0; // 1: per target, 2: by offsets
+		let hash = 0;
 		const factorReady = this.factorReady;
-		// The data part of a target's system (its first kd rows of the factor and of the right-hand side) is the
-		// same in every realization: kept after the first, and the factorisation continued from row kd.
-		const fo = pos * this.factorStride;
+		const parts = this.parts;
+		if (kd > 0) {
+			if (factorReady !== null) {
+				at = pos * this.factorStride;
+				if (factorReady[pos] === 1) kept = this.dataFactor;
+				else keep = 1;
+			} else if (parts !== null && off === 0) {
+				const key = this.partKey;
+				const tp = this.tp;
+				for (let p = 0; p < kd; p++) key[p] = tp[p] - tq;
+				hash = signatureHash(this.domain, kd, key);
+				const slot = parts.find(this.domain, kd, key, hash);
+				if (slot >= 0) {
+					kept = parts.values();
+					at = parts.valueOffset(slot);
+				} else keep = 2;
+			}
+		}
 		let ok: boolean;
-		if (factorReady !== null && factorReady[pos] === 1) {
-			let f = fo;
+		if (kept !== null) {
+			let f = at;
 			for (let i = 0; i < kd; i++) {
 				const row = i * k;
-				for (let j = 0; j <= i; j++) a[row + j] = dataFactor![f++];
+				for (let j = 0; j <= i; j++) a[row + j] = kept[f++];
 			}
-			for (let i = 0; i < kd; i++) rhs[i] = dataFactor![f++];
+			for (let i = 0; i < kd; i++) rhs[i] = kept[f++];
 			this.buildRhsNodes(k, kd, tq);
 			this.buildNodeRows(k, kd, off);
 			const diag = sill * 1;
@@ -190,14 +224,12 @@ export class KrigingSystem {
 		} else {
 			this.buildSystem(k, kd, off, tq, false);
 			ok = choleskyFactor(a, k);
-			if (ok && factorReady !== null && kd > 0) {
-				let f = fo;
-				for (let i = 0; i < kd; i++) {
-					const row = i * k;
-					for (let j = 0; j <= i; j++) dataFactor![f++] = a[row + j];
-				}
-				for (let i = 0; i < kd; i++) dataFactor![f++] = rhs[i];
-				factorReady[pos] = 1;
+			if (ok && keep === 1) {
+				this.packDataPart(this.dataFactor!, at, k, kd);
+				factorReady![pos] = 1;
+			} else if (ok && keep === 2) {
+				this.packDataPart(this.part, 0, k, kd);
+				parts!.store(this.domain, kd, this.partKey, hash, this.part, 0, (kd * (kd + 1)) / 2 + kd);
 			}
 		}
 		if (!ok) {
@@ -229,5 +261,16 @@ export class KrigingSystem {
 			}
 		}
 		return variance < 0 ? 0 : variance;
+	}
+
+	/** Writes the first kd rows of the factor (packed lower triangle) and of the right-hand side to dst at `at`. */
+	private packDataPart(dst: Float64Array, at: number, k: number, kd: number): void {
+		const { a, rhs } = this;
+		let f = at;
+		for (let i = 0; i < kd; i++) {
+			const row = i * k;
+			for (let j = 0; j <= i; j++) dst[f++] = a[row + j];
+		}
+		for (let i = 0; i < kd; i++) dst[f++] = rhs[i];
 	}
 }

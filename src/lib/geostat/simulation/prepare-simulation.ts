@@ -33,14 +33,16 @@ export const DEFAULT_REUSE_BYTES = 64 * 1024 * 1024;
  * What is kept, in this order while the memory lasts (each domain in turn): each target's data search
  * (maxData + 1 16-bit integers a target); the covariances between a domain's data when some are off the lattice
  * (nd² doubles, filled as used); for data off the lattice, the data part of each target's factor and right-hand
- * side, the same in every realization (maxData(maxData + 3)/2 doubles a target); and, with the rest, solved kriging
- * systems whose neighbourhood signature repeats (SolutionCache; lattice mode with covariance tables only,
- * allocated on first use, at most two slots a target).
+ * side, the same in every realization (maxData(maxData + 3)/2 doubles a target); for data on the lattice, the same
+ * data parts by their data's lattice offsets from the target (a quarter of what is left, at most 8 MiB); and, with
+ * the rest, solved kriging systems whose neighbourhood signature repeats (SolutionCache; lattice mode with
+ * covariance tables only, allocated on first use, at most two slots a target). The two caches are allocated on
+ * first use.
  */
 export interface PrepareOptions {
 	/** Memory for everything kept, in bytes; default DEFAULT_REUSE_BYTES. 0: nothing is kept, all is computed afresh. */
 	reuseBytes?: number;
-	/** Keep solved kriging systems (default true); false keeps only the data parts (for measuring what reuse adds). */
+	/** Keep solved kriging systems (default true); false keeps only the data searches and parts (for measuring what reuse adds). */
 	reuseSolutions?: boolean;
 	/**
 	 * Keep each target's data search and data factor (default true). They pay off from the second realization
@@ -123,6 +125,12 @@ export interface PreparedSimulation {
 	active: number;
 	/** Solved systems kept for reuse (lattice mode with covariance tables), or null. Never changes a result. */
 	cache: SolutionCache | null;
+	/**
+	 * Data parts of kriging systems (the first kd rows of the factor and of the right-hand side, see KrigingSystem)
+	 * kept by their data's lattice offsets from the target, for data on the lattice of a domain with a covariance
+	 * table; null when nothing is kept. Never changes a result.
+	 */
+	parts: SolutionCache | null;
 }
 
 /**
@@ -149,7 +157,9 @@ export function prepareSimulation(input: SimulationInput, targets: TargetPoints,
 	const datumAt = new Int32Array(n).fill(-1);
 	const domains = input.domains.map((d, index) => prepareDomain(d, index, targets, lattice, datumAt));
 	const left = keepDataParts(domains, reuseBytes, keepPerTarget);
-	return { seed: input.seed, targets, lattice, datumAt, domains, active, cache: reuseSolutions ? solutionCache(domains, left) : null };
+	const parts = dataPartCache(domains, left);
+	const rest = left - (parts ? parts.bytes : 0);
+	return { seed: input.seed, targets, lattice, datumAt, domains, active, cache: reuseSolutions ? solutionCache(domains, rest) : null, parts };
 }
 
 /** Allocates the kept data parts (see PrepareOptions) within `bytes`; returns the bytes left. */
@@ -180,6 +190,28 @@ function keepDataParts(domains: PreparedDomain[], bytes: number, perTarget: bool
 		}
 	}
 	return left;
+}
+
+// Memory for data parts kept by offsets: a quarter of what is left, at most this much (1.3 kB a slot at maxData 16:
+// 6,400 signatures, about what a 1,000,000-cell block with 25 soundings presents).
+const MAX_PART_BYTES = 8 * 1024 * 1024;
+
+/**
+ * The cache of data parts by offsets (see PreparedSimulation.parts): for domains with data and a covariance table,
+ * a quarter of `bytes` (at most MAX_PART_BYTES, at most two slots a path node).
+ */
+function dataPartCache(domains: PreparedDomain[], bytes: number): SolutionCache | null {
+	let maxData = 0;
+	let nodes = 0;
+	for (const d of domains) {
+		if (d.covTable === null || d.nd === 0 || d.maxData === 0 || d.ellipsoid.empty) continue;
+		maxData = Math.max(maxData, d.maxData);
+		nodes += d.pathNodes.length;
+	}
+	if (maxData === 0) return null;
+	const width = (maxData * (maxData + 3)) / 2;
+	const slots = Math.min(Math.floor(Math.min(bytes / 4, MAX_PART_BYTES) / SolutionCache.bytesPerSlot(maxData, width)), 2 * nodes + 2);
+	return slots >= 2 ? new SolutionCache(maxData, slots, width) : null;
 }
 
 /** The solution cache: for domains with a covariance table, sized to the budget and the number of path nodes. */

@@ -189,7 +189,7 @@ function simulateDomain(
 	const dataSel = dom.dataSelection;
 	const selStride = maxData + 1;
 	// The system's entries are filled here and built and solved by `sys` (see KrigingSystem).
-	const sys = new KrigingSystem(dom, centre);
+	const sys = new KrigingSystem(dom, centre, prep.parts);
 	const { px, py, pz, tp, pid, w } = sys;
 	for (let step = 0; step < path.length; step++) {
 		const pos = path[step];
@@ -340,7 +340,7 @@ function simulateDomain(
 			if (slot >= 0) {
 				wts = cache!.values();
 				at = cache!.valueOffset(slot);
-				variance = wts[at + cache!.kmax];
+				variance = wts[at + cache!.width];
 				stats.reused++;
 			} else {
 				variance = sys.solve(k, kd, off, tq, g, pos);

@@ -5,14 +5,18 @@
  * hence the weights and the kriging variance — so a node whose neighbourhood repeats one already solved can take
  * its weights instead of building and factoring the system again. What is stored are the very doubles the solve
  * produced, and the caller applies them with the same arithmetic in the same order, so reuse never changes a bit.
+ * (The same structure keeps the data parts of factors by their data's offsets, with `values` doubles a slot
+ * instead of kmax weights: see dataPartCache in prepareSimulation.)
  *
- * Layout: fixed slots of (k, domain, hash, kmax offsets) in one Int32Array and (kmax weights, variance) in one
- * Float64Array, allocated on the first store. Two-way set associative (the hash picks a set of two slots); a new
+ * Layout: fixed slots of (k, domain, hash, kmax offsets) in one Int32Array and (kmax weights — or `values`
+ * doubles —, variance) in one Float64Array, allocated on the first store. Two-way set associative (the hash picks a set of two slots); a new
  * solution takes an empty slot of its set, else the one of the two used less recently (least-recently-used
  * eviction within the set). Memory is bytesPerSlot(kmax) × slots, fixed when the cache is made.
  */
 export class SolutionCache {
 	readonly kmax: number;
+	/** Doubles a slot holds before its variance (kmax unless given). */
+	readonly width: number;
 	/** Number of slots (even: sets of two). */
 	readonly slots: number;
 	/** Lookups answered from the cache, and solutions stored, since the cache was made. */
@@ -23,26 +27,29 @@ export class SolutionCache {
 	private used: Float64Array | null = null;
 	private tick = 0;
 
-	/** Bytes one slot takes for systems of up to kmax entries. */
-	static bytesPerSlot(kmax: number): number {
-		return 4 * (3 + kmax) + 8 * (kmax + 1) + 8;
+	/** Bytes one slot takes for systems of up to kmax entries (and `values` doubles, default kmax). */
+	static bytesPerSlot(kmax: number, values = kmax): number {
+		return 4 * (3 + kmax) + 8 * (values + 1) + 8;
 	}
 
 	/**
 	 * @param kmax largest number of entries of a system to cache
 	 * @param slots number of slots wanted; rounded down to an even number ≥ 2
-	 * @throws {RangeError} if kmax is not an integer ≥ 1 or slots < 2
+	 * @param values doubles a slot holds (default kmax: the weights)
+	 * @throws {RangeError} if kmax or values is not an integer ≥ 1, or slots < 2
 	 */
-	constructor(kmax: number, slots: number) {
+	constructor(kmax: number, slots: number, values = kmax) {
 		if (!Number.isInteger(kmax) || kmax < 1) throw new RangeError('kmax must be an integer >= 1');
+		if (!Number.isInteger(values) || values < 1) throw new RangeError('values must be an integer >= 1');
 		if (!(slots >= 2)) throw new RangeError('a cache needs at least 2 slots');
 		this.kmax = kmax;
+		this.width = values;
 		this.slots = 2 * Math.floor(slots / 2);
 	}
 
 	/** Memory the cache takes once it holds anything, in bytes. */
 	get bytes(): number {
-		return this.slots * SolutionCache.bytesPerSlot(this.kmax);
+		return this.slots * SolutionCache.bytesPerSlot(this.kmax, this.width);
 	}
 
 	/**
@@ -73,9 +80,9 @@ export class SolutionCache {
 		return -1;
 	}
 
-	/** Offset into values() of a slot's weights (its kriging variance follows them, at offset + kmax). */
+	/** Offset into values() of a slot's weights (its kriging variance follows them, at offset + width). */
 	valueOffset(slot: number): number {
-		return slot * (this.kmax + 1);
+		return slot * (this.width + 1);
 	}
 
 	/** The weights and variances of all slots (see valueOffset). */
@@ -83,12 +90,15 @@ export class SolutionCache {
 		return this.vals!;
 	}
 
-	/** Stores the weights (first k entries of `weights`) and the kriging variance of a system. */
-	store(domain: number, k: number, key: Int32Array, hash: number, weights: Float64Array, variance: number): void {
-		if (k > this.kmax || k < 1) return;
+	/**
+	 * Stores the weights (the first `count` entries of `weights`, default k; at most width) and the kriging variance
+	 * of the system with this signature.
+	 */
+	store(domain: number, k: number, key: Int32Array, hash: number, weights: Float64Array, variance: number, count = k): void {
+		if (k > this.kmax || k < 1 || count > this.width) return;
 		if (this.keys === null) {
 			this.keys = new Int32Array(this.slots * (3 + this.kmax));
-			this.vals = new Float64Array(this.slots * (this.kmax + 1));
+			this.vals = new Float64Array(this.slots * (this.width + 1));
 			this.used = new Float64Array(this.slots);
 		}
 		const keys = this.keys;
@@ -102,10 +112,10 @@ export class SolutionCache {
 		keys[o + 1] = domain;
 		keys[o + 2] = hash;
 		for (let p = 0; p < k; p++) keys[o + 3 + p] = key[p];
-		const v = s * (this.kmax + 1);
+		const v = s * (this.width + 1);
 		const vals = this.vals!;
-		for (let p = 0; p < k; p++) vals[v + p] = weights[p];
-		vals[v + this.kmax] = variance;
+		for (let p = 0; p < count; p++) vals[v + p] = weights[p];
+		vals[v + this.width] = variance;
 		used[s] = ++this.tick;
 		this.stores++;
 	}
