@@ -124,6 +124,18 @@ describe('simulate with reuse on and off (same bits)', () => {
 		});
 	}
 
+	it('on a random path only the last 30 % of each path looks solved systems up (earlier neighbourhoods hardly repeat); a multiple-grid path looks up from the start', () => {
+		const { input, targets } = section();
+		const random = run(withPath(input, 'random'), targets, 1, { keepPerTarget: false });
+		const cache = random.prep.cache!;
+		// Every system of the path's last 30 % on the lattice is looked up once: a hit, or a store.
+		expect(cache.hits + cache.stores).toBeLessThanOrEqual(Math.ceil(0.3 * random.stats.systems) + 1);
+		expect(cache.hits + cache.stores).toBeGreaterThan(0.29 * random.stats.systems);
+		expect(cache.hits).toBeGreaterThan(0);
+		const multigrid = run(withPath(input, 'multigrid'), targets, 1, { keepPerTarget: false });
+		expect(multigrid.prep.cache!.hits + multigrid.prep.cache!.stores).toBeGreaterThan(0.95 * multigrid.stats.systems);
+	});
+
 	it('a cache of a few slots (constant eviction) still gives the same bits, and realization 2 regenerated alone equals realization 2 after a warm cache', () => {
 		const { input, targets } = section();
 		const tiny = run(input, targets, 3, { reuseBytes: 20_000 });
