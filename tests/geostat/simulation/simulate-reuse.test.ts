@@ -124,16 +124,30 @@ describe('simulate with reuse on and off (same bits)', () => {
 		});
 	}
 
-	it('on a random path only the last 30 % of each path looks solved systems up (earlier neighbourhoods hardly repeat); a multiple-grid path looks up from the start', () => {
+	it('on a random path only the last 30 % of each path looks solved systems up (earlier neighbourhoods hardly repeat); a multiple-grid path whose neighbourhoods repeat looks up most systems', () => {
 		const { input, targets } = section();
 		const random = run(withPath(input, 'random'), targets, 1, { keepPerTarget: false });
 		const cache = random.prep.cache!;
-		// Every system of the path's last 30 % on the lattice is looked up once: a hit, or a store.
+		// A lookup is a hit or a store: at most the systems of the path's last 30 % (fewer while hits stay rare).
 		expect(cache.hits + cache.stores).toBeLessThanOrEqual(Math.ceil(0.3 * random.stats.systems) + 1);
-		expect(cache.hits + cache.stores).toBeGreaterThan(0.29 * random.stats.systems);
 		expect(cache.hits).toBeGreaterThan(0);
 		const multigrid = run(withPath(input, 'multigrid'), targets, 1, { keepPerTarget: false });
-		expect(multigrid.prep.cache!.hits + multigrid.prep.cache!.stores).toBeGreaterThan(0.95 * multigrid.stats.systems);
+		// From the start, and on most systems while hits keep coming (measured: 62 % looked up, 16 % hits).
+		expect(multigrid.prep.cache!.hits + multigrid.prep.cache!.stores).toBeGreaterThan(0.5 * multigrid.stats.systems);
+		expect(multigrid.prep.cache!.hits).toBeGreaterThan(0.1 * multigrid.stats.systems);
+	});
+
+	it('where neighbourhoods hardly repeat (a block whose every system holds data), lookups fall to about one system in 16, with the same bits', () => {
+		const { targets } = block();
+		const samples = soundings([[10, 10], [36, 12], [14, 34], [38, 40]], 12, 0.25);
+		const model: VariogramModel = { azimuth: 30, structures: [{ type: 'exponential', sill: 1, rangeMajor: 24, rangeMinor: 16, rangeVertical: 1.5 }] };
+		const input: SimulationInput = { seed: 'probe', domains: [{ samples, model, transform: 'normal-score', kriging: 'simple', search: { maxData: 12, maxSimulated: 16, path: 'multigrid' } }] };
+		targets.domain.fill(0);
+		const on = run(input, targets, 1, { keepPerTarget: false });
+		const cache = on.prep.cache!;
+		expect(cache.hits + cache.stores).toBeLessThan(0.15 * on.stats.systems);
+		expect(cache.stores).toBeGreaterThan(0.0625 * on.stats.systems * 0.9);
+		expect(on.hashes).toEqual(run(input, targets, 1, { reuseBytes: 0 }).hashes);
 	});
 
 	it('a cache of a few slots (constant eviction) still gives the same bits, and realization 2 regenerated alone equals realization 2 after a warm cache', () => {

@@ -188,6 +188,9 @@ function simulateDomain(
 	// On a random path a neighbourhood repeats only once the lattice around it is nearly full: the first 70 % of the
 	// path neither looks up nor stores (which would only crowd the cache).
 	const reuseFrom = mg ? 0 : Math.floor(RANDOM_PATH_REUSE_FROM * path.length);
+	// Share of hits among the recent lookups (a running mean over about 64): while it stays below MIN_HIT_RATE, only
+	// one system in 16 is looked up and stored, enough to notice when neighbourhoods start to repeat.
+	let hitRate = 1;
 	const key = new Int32Array(kmax);
 	const dataSel = dom.dataSelection;
 	const selStride = maxData + 1;
@@ -323,7 +326,7 @@ function simulateDomain(
 			// The signature: every entry's lattice offset from the target, in system order.
 			let slot = -1;
 			let hash = 0;
-			let reusable = cache !== null && step >= reuseFrom;
+			let reusable = cache !== null && step >= reuseFrom && (hitRate >= MIN_HIT_RATE || (step & 15) === 0);
 			if (reusable) {
 				for (let p = 0; p < k; p++) {
 					if (tp[p] < 0) {
@@ -335,6 +338,7 @@ function simulateDomain(
 				if (reusable) {
 					hash = signatureHash(d, k, key);
 					slot = cache!.find(d, k, key, hash);
+					hitRate += ((slot >= 0 ? 1 : 0) - hitRate) / 64;
 				}
 			}
 			// Weights (simple kriging) or λ (ordinary kriging), and where they are.
@@ -389,6 +393,14 @@ function simulateDomain(
  * block; looking up and storing cost some 15 % of a realization, so the early ones cost more than they saved.
  */
 const RANDOM_PATH_REUSE_FROM = 0.7;
+
+/**
+ * Below this share of hits among recent lookups, only one system in 16 is looked up (see hitRate in
+ * simulateDomain). Measured on a 60 × 60 × 60 block with 9 soundings, where every system holds data and few repeat:
+ * a realization 5 % faster on the multiple-grid path and 10 % on the random one, and 12 % on the benchmark's section
+ * (random path), whose early lookups miss; the section's multiple-grid path, which hits 70–95 %, is unchanged.
+ */
+const MIN_HIT_RATE = 0.02;
 
 function identity(n: number): Int32Array {
 	const out = new Int32Array(n);
