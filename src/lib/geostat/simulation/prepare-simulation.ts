@@ -36,8 +36,7 @@ export const DEFAULT_REUSE_BYTES = 64 * 1024 * 1024;
  * side, the same in every realization (maxData(maxData + 3)/2 doubles a target); for data on the lattice, the same
  * data parts by their data's lattice offsets from the target (a quarter of what is left, at most 8 MiB); and, with
  * the rest, solved kriging systems whose neighbourhood signature repeats (SolutionCache; lattice mode with
- * covariance tables only, allocated on first use, at most two slots a target). The two caches are allocated on
- * first use.
+ * covariance tables only, at most two slots a target). The two caches are allocated on first use.
  */
 export interface PrepareOptions {
 	/** Memory for everything kept, in bytes; default DEFAULT_REUSE_BYTES. 0: nothing is kept, all is computed afresh. */
@@ -193,7 +192,7 @@ function keepDataParts(domains: PreparedDomain[], bytes: number, perTarget: bool
 }
 
 // Memory for data parts kept by offsets: a quarter of what is left, at most this much (1.3 kB a slot at maxData 16:
-// 6,400 signatures, about what a 1,000,000-cell block with 25 soundings presents).
+// 6,400 data signatures; a signature repeats wherever the data sit alike around targets, as along a lattice).
 const MAX_PART_BYTES = 8 * 1024 * 1024;
 
 /**

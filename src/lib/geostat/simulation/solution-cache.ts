@@ -5,13 +5,14 @@
  * hence the weights and the kriging variance — so a node whose neighbourhood repeats one already solved can take
  * its weights instead of building and factoring the system again. What is stored are the very doubles the solve
  * produced, and the caller applies them with the same arithmetic in the same order, so reuse never changes a bit.
- * (The same structure keeps the data parts of factors by their data's offsets, with `values` doubles a slot
+ * (The same structure keeps the data parts of factors by their data's offsets, with `width` doubles a slot
  * instead of kmax weights: see dataPartCache in prepareSimulation.)
  *
- * Layout: fixed slots of (k, domain, hash, kmax offsets) in one Int32Array and (kmax weights — or `values`
- * doubles —, variance) in one Float64Array, allocated on the first store. Two-way set associative (the hash picks a set of two slots); a new
- * solution takes an empty slot of its set, else the one of the two used less recently (least-recently-used
- * eviction within the set). Memory is bytesPerSlot(kmax) × slots, fixed when the cache is made.
+ * Layout: fixed slots of (k, domain, hash, kmax offsets) in one Int32Array and (`width` doubles — kmax weights
+ * unless given —, variance) in one Float64Array, allocated on the first store. Two-way set associative (the hash
+ * picks a set of two slots); a new solution takes an empty slot of its set, else the one of the two used less
+ * recently (least-recently-used eviction within the set). Memory is bytesPerSlot(kmax, width) × slots, fixed when
+ * the cache is made.
  */
 export class SolutionCache {
 	readonly kmax: number;
