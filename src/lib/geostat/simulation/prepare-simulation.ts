@@ -208,9 +208,7 @@ function dataPartCache(domains: PreparedDomain[], bytes: number): SolutionCache 
 		nodes += d.pathNodes.length;
 	}
 	if (maxData === 0) return null;
-	const width = (maxData * (maxData + 3)) / 2;
-	const slots = Math.min(Math.floor(Math.min(bytes / 4, MAX_PART_BYTES) / SolutionCache.bytesPerSlot(maxData, width)), 2 * nodes + 2);
-	return slots >= 2 ? new SolutionCache(maxData, slots, width) : null;
+	return cacheWithin(Math.min(bytes / 4, MAX_PART_BYTES), maxData, (maxData * (maxData + 3)) / 2, nodes);
 }
 
 /** The solution cache: for domains with a covariance table, sized to the budget and the number of path nodes. */
@@ -223,8 +221,13 @@ function solutionCache(domains: PreparedDomain[], bytes: number): SolutionCache 
 		nodes += d.pathNodes.length;
 	}
 	if (kmax === 0) return null;
-	const slots = Math.min(Math.floor(bytes / SolutionCache.bytesPerSlot(kmax)), 2 * nodes + 2);
-	return slots >= 2 ? new SolutionCache(kmax, slots) : null;
+	return cacheWithin(bytes, kmax, kmax, nodes);
+}
+
+/** A SolutionCache of `width` doubles a slot within `bytes`, at most two slots a path node; null if two do not fit. */
+function cacheWithin(bytes: number, kmax: number, width: number, nodes: number): SolutionCache | null {
+	const slots = Math.min(Math.floor(bytes / SolutionCache.bytesPerSlot(kmax, width)), 2 * nodes + 2);
+	return slots >= 2 ? new SolutionCache(kmax, slots, width) : null;
 }
 
 function checkTargets(t: TargetPoints, nDomains: number): void {
