@@ -5,7 +5,7 @@ import { signatureHash, type SolutionCache } from './solution-cache';
 
 /**
  * The kriging system of one simulated node, built and solved in buffers reused from node to node (one instance
- * per domain and realization; simulateDomain fills the entries). Entries 0 … kd − 1 are conditioning data, kd … k − 1
+ * per domain and realization; DomainWalk fills the entries). Entries 0 … kd − 1 are conditioning data, kd … k − 1
  * previously simulated nodes; the target sits at index kmax of px, py, pz, so the right-hand side is a row too.
  *
  * Covariances: two entries both on the lattice take the table (table[centre + tp[p] − tp[q]], always in range, see
@@ -51,7 +51,7 @@ export class KrigingSystem {
 	declare private readonly part: Float64Array;
 
 	/**
-	 * @param centre the table position of a zero offset (see simulateDomain)
+	 * @param centre the table position of a zero offset (see DomainWalk)
 	 * @param parts where data parts of factors are kept by their data's lattice offsets (see PreparedSimulation), or null
 	 */
 	constructor(dom: PreparedDomain, centre: number, parts: SolutionCache | null) {

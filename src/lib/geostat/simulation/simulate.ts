@@ -1,15 +1,11 @@
 import seedrandom from 'seedrandom';
 import { inverseNormalCdf } from '../distribution/normal';
 import { backTransform } from '../distribution/normal-score';
-import { normalisedCoordinates } from '../search/search-ellipsoid';
-import { ActiveBuckets } from '../search/active-buckets';
-import { selectNearest } from '../search/select-nearest';
 import { prepareSimulation } from './prepare-simulation';
 import { trendValue } from './trend';
 import type { PreparedDomain, PreparedSimulation } from './prepare-simulation';
-import { multigridLevel, multigridPath } from './multigrid-path';
-import { signatureHash } from './solution-cache';
-import { KrigingSystem } from './kriging-system';
+import { multigridPath } from './multigrid-path';
+import { DomainWalk } from './domain-walk';
 import type { SimulationInput, TargetPoints } from './types';
 
 /**
@@ -117,7 +113,6 @@ function simulateDomain(
 	const Y = t.y;
 	const Z = t.z;
 	const datumAt = prep.datumAt;
-	const lat = prep.lattice;
 	const d = dom.index;
 	const rand = realizationStream(prep.seed, realization, d);
 
@@ -147,11 +142,10 @@ function simulateDomain(
 		}
 	}
 
-	// Off the lattice: the domain's simulated nodes by bucket, and each path node's index among the domain's
-	// targets (both lists ascend, the path's being the targets without a datum).
-	const active = dom.nodeGrid ? new ActiveBuckets(dom.nodeGrid) : null;
+	// Off the lattice: each path node's index among the domain's targets (both lists ascend, the path's being the
+	// targets without a datum), for the domain's simulated nodes by bucket (see DomainWalk).
 	let localOf: Int32Array | null = null;
-	if (active) {
+	if (dom.nodeGrid) {
 		localOf = new Int32Array(nodes.length);
 		for (let p = 0, t = 0; p < nodes.length; p++) {
 			while (dom.targets[t] !== nodes[p]) t++;
@@ -159,214 +153,12 @@ function simulateDomain(
 		}
 	}
 
-	const { sill, mean, ordinary, maxData, maxSimulated } = dom;
-	const kmax = maxData + maxSimulated;
-	const ncand = Math.max(dom.nd, dom.nodeGrid ? dom.nodeGrid.size : 0, 1);
-	const candIdx = new Int32Array(ncand);
-	const candD2 = new Float64Array(ncand);
-	const selIdx = new Int32Array(Math.max(kmax, 1));
-	const selD2 = new Float64Array(Math.max(kmax, 1));
-	const pv = new Float64Array(kmax);
-	const q = new Float64Array(3);
-
-	const table = dom.covTable;
-	const [hx, hy, hz] = dom.tableHalf;
-	const sy = 2 * hz + 1;
-	const sx = (2 * hy + 1) * sy;
-	const centre = hx * sx + hy * sy + hz;
-	const tmpl = dom.template;
-	const cx = lat ? lat.counts[0] : 0;
-	const cy = lat ? lat.counts[1] : 0;
-	const cz = lat ? lat.counts[2] : 0;
-	const [ex, ey, ez] = tmpl ? tmpl.extent : [0, 0, 0];
-	const [lox, loy, loz] = lat ? lat.origin : [0, 0, 0];
-	const [ldx, ldy, ldz] = lat ? lat.spacing : [1, 1, 1];
-	const useData = dom.nd > 0 && maxData > 0 && !dom.ellipsoid.empty;
-	const useNodes = maxSimulated > 0 && !dom.ellipsoid.empty;
-	// Reuse needs every entry's covariances from the table: then the signature fixes the system.
-	const cache = table !== null ? prep.cache : null;
-	// On a random path a neighbourhood repeats only once the lattice around it is nearly full: the first 70 % of the
-	// path neither looks up nor stores (which would only crowd the cache).
-	const reuseFrom = mg ? 0 : Math.floor(RANDOM_PATH_REUSE_FROM * path.length);
-	// Share of hits among the recent lookups (a running mean over about 64): while it stays below MIN_HIT_RATE, only
-	// one system in 16 is looked up and stored, enough to notice when neighbourhoods start to repeat.
-	let hitRate = 1;
-	const key = new Int32Array(kmax);
-	const dataSel = dom.dataSelection;
-	const selStride = maxData + 1;
-	// The system's entries are filled here and built and solved by `sys` (see KrigingSystem).
-	const sys = new KrigingSystem(dom, centre, prep.parts);
-	const { px, py, pz, tp, pid, w } = sys;
+	const walk = new DomainWalk(prep, dom, y, state, ready, yCell, stats, localOf, path.length);
 	for (let step = 0; step < path.length; step++) {
-		const pos = path[step];
-		const g = nodes[pos];
 		let uu = rand();
 		// Φ⁻¹(0) is −∞; a zero from a 53-bit uniform (chance 2⁻⁵³) is nudged to the smallest step.
 		if (uu === 0) uu = 1.1102230246251565e-16;
-		const zdev = inverseNormalCdf(uu);
-		let x0: number;
-		let y0: number;
-		let z0: number;
-		let gi = 0;
-		let gj = 0;
-		let gk = 0;
-		let gc = -1;
-		if (lat) {
-			gc = lat.cellOf[g];
-			gi = gc % cx;
-			gj = Math.floor(gc / cx) % cy;
-			gk = Math.floor(gc / (cx * cy));
-			// Lattice coordinates, as for the neighbours: arithmetic instead of three scattered reads.
-			x0 = lox + gi * ldx;
-			y0 = loy + gj * ldy;
-			z0 = loz + gk * ldz;
-		} else {
-			x0 = X[g];
-			y0 = Y[g];
-			z0 = Z[g];
-		}
-		normalisedCoordinates(dom.ellipsoid, x0, y0, z0, q);
-		px[kmax] = x0;
-		py[kmax] = y0;
-		pz[kmax] = z0;
-		let k = 0;
-		let kd = 0;
-		let off = 0;
-		if (useData) {
-			// The data search depends on the target alone: kept from an earlier realization when there is room
-			// (copied back into selIdx, so the loop below reads one kind of array whichever way it came).
-			if (dataSel !== null) {
-				const so = pos * selStride;
-				if (dataSel[so] === 0xffff) {
-					const m = dom.dataGrid.query(q[0], q[1], q[2], candIdx, candD2);
-					const n = selectNearest(candIdx, candD2, m, maxData, selIdx, selD2, dom.dgroup, dom.maxPerSounding);
-					for (let s = 0; s < n; s++) dataSel[so + 1 + s] = selIdx[s];
-					dataSel[so] = n;
-				}
-				kd = dataSel[so];
-				for (let s = 0; s < kd; s++) selIdx[s] = dataSel[so + 1 + s];
-			} else {
-				const m = dom.dataGrid.query(q[0], q[1], q[2], candIdx, candD2);
-				kd = selectNearest(candIdx, candD2, m, maxData, selIdx, selD2, dom.dgroup, dom.maxPerSounding);
-			}
-			for (let s = 0; s < kd; s++) {
-				const i = selIdx[s];
-				px[k] = dom.dx[i];
-				py[k] = dom.dy[i];
-				pz[k] = dom.dz[i];
-				pv[k] = dom.dval[i];
-				tp[k] = table !== null && dom.donlat[i] === 1 ? dom.dlat[3 * i] * sx + dom.dlat[3 * i + 1] * sy + dom.dlat[3 * i + 2] : -1;
-				pid[k] = i;
-				if (tp[k] < 0) off++;
-				k++;
-			}
-		}
-		if (useNodes) {
-			if (tmpl !== null) {
-				const offs = tmpl.offsets;
-				const cellOfs = dom.templateCells!;
-				const c0 = lat!.cellOf[g];
-				// Away from the lattice's faces every offset of the template lands inside it: no bounds checks.
-				const inside = gi >= ex && gi < cx - ex && gj >= ey && gj < cy - ey && gk >= ez && gk < cz - ez;
-				// On a coarse level of a multiple-grid path only that level's grid can hold simulated nodes: walk
-				// its entries alone (the same nodes in the same order as the whole template, found sooner).
-				const lv = mg ? multigridLevel(mg.strides, gi, gj, gk) : 0;
-				const list = lv > 0 ? mg!.entries[lv] : null;
-				const ne = list ? list.length : tmpl.count;
-				let found = 0;
-				for (let n = 0; n < ne && found < maxSimulated; n++) {
-					const e = list ? list[n] : n;
-					let c: number;
-					if (inside) c = c0 + cellOfs[e];
-					else {
-						const ii = gi + offs[3 * e];
-						const jj = gj + offs[3 * e + 1];
-						const kk = gk + offs[3 * e + 2];
-						if (ii < 0 || ii >= cx || jj < 0 || jj >= cy || kk < 0 || kk >= cz) continue;
-						c = (kk * cy + jj) * cx + ii;
-					}
-					if ((ready![c >> 3] & (1 << (c & 7))) === 0) continue;
-					const ii = gi + offs[3 * e];
-					const jj = gj + offs[3 * e + 1];
-					const kk = gk + offs[3 * e + 2];
-					// Lattice coordinates, not the target columns: arithmetic instead of scattered reads.
-					px[k] = lox + ii * ldx;
-					py[k] = loy + jj * ldy;
-					pz[k] = loz + kk * ldz;
-					pv[k] = yCell![c];
-					tp[k] = table !== null ? ii * sx + jj * sy + kk : -1;
-					pid[k] = -1;
-					k++;
-					found++;
-				}
-			} else {
-				// The domain's simulated nodes near q, found outward from q's bucket: a superset of the nearest
-				// maxSimulated within the ellipsoid, so the choice is the one from all of them (ActiveBuckets).
-				const m = active!.candidates(q[0], q[1], q[2], maxSimulated, candIdx, candD2);
-				const kn = selectNearest(candIdx, candD2, m, maxSimulated, selIdx, selD2);
-				for (let s = 0; s < kn; s++) {
-					const h = dom.targets[selIdx[s]];
-					px[k] = X[h];
-					py[k] = Y[h];
-					pz[k] = Z[h];
-					pv[k] = y[h];
-					tp[k] = -1;
-					pid[k] = -1;
-					k++;
-				}
-			}
-		}
-
-		let est = mean;
-		let variance = sill;
-		stats.systems++;
-		stats.neighbours += k;
-		if (k > 0) {
-			const tq = table !== null ? gi * sx + gj * sy + gk : -1;
-			// The signature: every entry's lattice offset from the target, in system order.
-			let slot = -1;
-			let hash = 0;
-			let reusable = cache !== null && step >= reuseFrom && (hitRate >= MIN_HIT_RATE || (step & 15) === 0);
-			if (reusable) {
-				for (let p = 0; p < k; p++) {
-					if (tp[p] < 0) {
-						reusable = false;
-						break;
-					}
-					key[p] = tp[p] - tq;
-				}
-				if (reusable) {
-					hash = signatureHash(d, k, key);
-					slot = cache!.find(d, k, key, hash);
-					hitRate += ((slot >= 0 ? 1 : 0) - hitRate) / 64;
-				}
-			}
-			// Weights (simple kriging) or λ (ordinary kriging), and where they are.
-			let wts: Float64Array = w;
-			let at = 0;
-			if (slot >= 0) {
-				wts = cache!.values();
-				at = cache!.valueOffset(slot);
-				variance = wts[at + cache!.width];
-				stats.reused++;
-			} else {
-				variance = sys.solve(k, kd, off, tq, g, pos);
-				if (reusable) cache!.store(d, k, key, hash, w, variance);
-			}
-			if (!ordinary) {
-				for (let p = 0; p < k; p++) est += wts[at + p] * (pv[p] - mean);
-			} else {
-				est = 0;
-				for (let p = 0; p < k; p++) est += wts[at + p] * pv[p];
-			}
-		}
-		y[g] = est + Math.sqrt(variance) * zdev;
-		state[g] = 1;
-		if (active) active.add(localOf![pos]);
-		if (ready) {
-			ready[gc >> 3] |= 1 << (gc & 7);
-			yCell![gc] = y[g];
-		}
+		walk.node(path[step], step, inverseNormalCdf(uu));
 		if (++progress.done >= progress.next) {
 			progress.next += progress.step;
 			if (progress.cb) progress.cb(progress.done, progress.total);
@@ -384,23 +176,6 @@ function simulateDomain(
 		}
 	}
 }
-
-
-/**
- * Share of a random path after which solved systems are looked up and stored. Measured (section and block of the
- * benchmark, three realizations): of the systems in each tenth of the path, 0–2 % found their solution kept in the
- * first seven tenths, 11 %, 43 % and 87 % in the last three on the section, 3 % and 30 % in the last two on the
- * block; looking up and storing cost some 15 % of a realization, so the early ones cost more than they saved.
- */
-const RANDOM_PATH_REUSE_FROM = 0.7;
-
-/**
- * Below this share of hits among recent lookups, only one system in 16 is looked up (see hitRate in
- * simulateDomain). Measured on a 60 × 60 × 60 block with 9 soundings, where every system holds data and few repeat:
- * a realization 5 % faster on the multiple-grid path and 10 % on the random one, and 12 % on the benchmark's section
- * (random path), whose early lookups miss; the section's multiple-grid path, which hits 70–95 %, is unchanged.
- */
-const MIN_HIT_RATE = 0.02;
 
 function identity(n: number): Int32Array {
 	const out = new Int32Array(n);
