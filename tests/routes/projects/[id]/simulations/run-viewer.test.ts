@@ -5,7 +5,7 @@ import type { RecipeView } from '../../../../../src/lib/api/index';
 import { createRecipe, prepareRecipe, regenerate, type Recipe, type SimulationInput } from '../../../../../src/lib/geostat/index';
 import { checkRealizations, ensembleMap } from '../../../../../src/lib/ensemble/index';
 import { CancelledError } from '../../../../../src/lib/cancelled-error';
-import { EnsembleRun, type RunPool } from '../../../../../src/routes/projects/[id]/simulations/run.svelte';
+import { EnsembleRun, PROGRESS_INTERVAL_MS, type RunPool } from '../../../../../src/routes/projects/[id]/simulations/run.svelte';
 import { FieldViewer, type EnsembleEngine } from '../../../../../src/routes/projects/[id]/simulations/viewer.svelte';
 import { expectSameBits } from '../../../../asserts';
 
@@ -100,6 +100,33 @@ describe('EnsembleRun', () => {
 		await run.run();
 		expect(run.status).toBe('done');
 		expect(run.count).toBe(4);
+	});
+
+	it('progress reaches the page at most every PROGRESS_INTERVAL_MS, and always when all is done', async () => {
+		let clock = 0;
+		const seen: number[] = [];
+		let run: EnsembleRun;
+		// 40 reports 10 ms apart (as a worker's hundred a realization would come), then the last.
+		const chatty: RunPool = {
+			runRecipe: async (_r, _list, opts) => {
+				for (let i = 1; i <= 40; i++) {
+					opts.onProgress?.(i, 41);
+					seen.push(run.done);
+				}
+				opts.onProgress?.(41, 41);
+				seen.push(run.done);
+				return new Map();
+			},
+			cancel: () => undefined,
+			close: async () => undefined
+		};
+		run = new EnsembleRun(recipe, () => chatty, () => (clock += 10));
+		await run.run();
+		// The clock reads 10 at the start, then 20, 30, … at each report: shown at 20 ms, then every 250 ms after it.
+		expect(new Set(seen)).toEqual(new Set([1, 26, 41]));
+		expect(seen.slice(0, 25).every((d) => d === 1)).toBe(true);
+		expect(run.fraction).toBe(1);
+		expect(PROGRESS_INTERVAL_MS).toBe(250);
 	});
 
 	it('a pool error is shown as the run’s message', async () => {
