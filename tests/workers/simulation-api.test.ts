@@ -1,35 +1,15 @@
 import { describe, it, expect } from 'vitest';
 import { createSimulationApi, PROGRESS_POST_MS } from '../../workers/simulation-api';
 import { simulate } from '../../src/lib/geostat/index';
-import type { SimulationInput, TargetPoints } from '../../src/lib/geostat/index';
 import { expectSameBits } from '../asserts';
+import { input, section } from './fixtures';
 
 const nx = 40;
 const nz = 12;
-const targets: TargetPoints = {
-	x: Float64Array.from({ length: nx * nz }, (_, i) => i % nx),
-	y: new Float64Array(nx * nz),
-	z: Float64Array.from({ length: nx * nz }, (_, i) => -Math.floor(i / nx) * 0.25),
-	domain: new Int32Array(nx * nz)
-};
-const input: SimulationInput = {
-	seed: 'api',
-	domains: [
-		{
-			samples: [
-				{ x: 3.5, y: 0, z: -0.6, value: 12, sounding: 'A' },
-				{ x: 30.5, y: 0, z: -1.1, value: 20, sounding: 'B' }
-			],
-			model: { azimuth: 90, structures: [{ type: 'exponential', sill: 1, rangeMajor: 20, rangeMinor: 20, rangeVertical: 1 }] },
-			transform: 'normal-score',
-			kriging: 'simple',
-			search: { maxData: 8, maxSimulated: 12 }
-		}
-	]
-};
+const targets = section(nx, nz);
 
 describe('createSimulationApi', () => {
-	it('realize passes progress on at most every PROGRESS_POST_MS and always at the end, with the bits of simulate()', () => {
+	it('realize passes progress on at most every PROGRESS_POST_MS and once at the end, with the bits of simulate()', () => {
 		// A clock that moves 1 ms at each report: the engine reports about 100 times a realization (every 1 %).
 		let clock = 0;
 		const api = createSimulationApi(() => ++clock);
