@@ -129,6 +129,34 @@ describe('EnsembleRun', () => {
 		expect(PROGRESS_INTERVAL_MS).toBe(250);
 	});
 
+	it('time left goes by the rate since the first realization arrived, not since the start', async () => {
+		let clock = 0;
+		const lefts: (number | null)[] = [];
+		let run: EnsembleRun;
+		// Ten realizations of five reports each: the first takes 1.5 s (a worker's first is slow), the others 0.3 s.
+		const warming: RunPool = {
+			runRecipe: async (_r, _list, opts) => {
+				for (let k = 0; k < 10; k++) {
+					for (let s = 1; s <= 5; s++) {
+						clock += k === 0 ? 300 : 60;
+						opts.onProgress?.(5 * k + s, 50);
+					}
+					opts.onRealization?.(k, new Float64Array(1));
+					lefts.push(run.left);
+				}
+				return new Map();
+			},
+			cancel: () => undefined,
+			close: async () => undefined
+		};
+		run = new EnsembleRun(recipe, () => warming, () => clock);
+		await run.run();
+		// Timed from the start, at 20 % the estimate would be 1.8 s · 0.8 / 0.2 = 7.2 s; 8 × 0.3 s = 2.4 s are left.
+		expect(lefts[1]).toBeCloseTo(2400, 6);
+		for (let k = 1; k < 9; k++) expect(lefts[k]).toBeCloseTo(300 * (9 - k), 6);
+		expect(run.left).toBeNull();
+	});
+
 	it('a pool error is shown as the run’s message', async () => {
 		const failing: RunPool = { runRecipe: async () => Promise.reject(new Error('the simulation worker stopped (exit 1)')), cancel: () => undefined, close: async () => undefined };
 		const run = new EnsembleRun(recipe, () => failing);
