@@ -15,8 +15,9 @@ type Realize = (realization: number, onProgress?: (done: number, total: number) 
 
 /**
  * A realization reports a hundred times (simulatePrepared); each report is a message to the page or the server.
- * Passed on at most this often: a tenth of a second is finer than a progress bar shows, and a browser run of the
- * demo's 20 realizations sent 2,000 messages whose handling kept the page's main thread busy.
+ * Passed on at most this often, which is finer than a progress bar shows: a browser run of the demo's 20
+ * realizations sent 2,000 of them, and in Chromium's trace the page's main thread spent 2.6 s on tasks during the
+ * run with them all and 2.1 s with these.
  */
 export const PROGRESS_POST_MS = 100;
 
