@@ -164,6 +164,18 @@ export class RealizationPool {
 	}
 
 	/**
+	 * Starts the pool's workers, if none are running, and has each compile the engine on a small section
+	 * (SimulationApi.warm) while nothing is asked of it: a run started afterwards finds them ready. Never waits for
+	 * a run, never changes a bit; a run started while they warm up queues behind it in each worker. Resolves when all
+	 * have warmed up (a worker that fails to is left for the next run to find), or at once when workers were running.
+	 */
+	async warm(): Promise<void> {
+		if (this.workers.length > 0 || this.cancelRun) return;
+		while (this.workers.length < this.size) this.workers.push(this.spawn());
+		await Promise.all(this.workers.map((w) => w.remote.warm().catch(() => undefined)));
+	}
+
+	/**
 	 * One call on a worker of the pool between runs (starting a worker when none is running), e.g. an ensemble
 	 * map of realizations already made.
 	 * @throws {Error} (rejects) if a run is in progress, or with the worker's error

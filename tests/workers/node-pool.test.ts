@@ -101,6 +101,46 @@ describe('RealizationPool.runRecipe with a key (a worker keeps its prepared reci
 	}, 60_000);
 });
 
+describe('RealizationPool.warm', () => {
+	it('starts the pool’s workers and warms each once; a run then uses them; a failing warm-up is let go', async () => {
+		const warmed: number[] = [];
+		let spawned = 0;
+		const standIn = (): PoolWorker => {
+			const id = spawned++;
+			return {
+				remote: {
+					warm: async () => (id === 1 ? Promise.reject(new Error('no room')) : (warmed.push(id), 480)),
+					prepareRecipe: async () => 1,
+					realize: async (r: number) => Float64Array.of(r)
+				} as unknown as PoolWorker['remote'],
+				terminate: () => undefined
+			};
+		};
+		const pool = new RealizationPool(standIn, 3);
+		await pool.warm();
+		expect(spawned).toBe(3);
+		expect(warmed).toEqual([0, 2]);
+		await pool.warm();
+		expect(spawned).toBe(3);
+		const got = await pool.runRecipe({} as Recipe, [0, 1, 2, 3]);
+		expect([...got.keys()].sort()).toEqual([0, 1, 2, 3]);
+		expect(spawned).toBe(3);
+		expect(warmed).toEqual([0, 2]);
+	});
+
+	it('real workers warmed up give the bits of regenerate()', async () => {
+		const pool = createNodePool({ size: 2 });
+		try {
+			await pool.warm();
+			const recipe = createRecipe(input, { kind: 'grid', origin: { x: 0, y: 0, z: -3 }, spacing: { x: 1, y: 1, z: 0.25 }, counts: { x: 30, y: 1, z: 12 }, domainRuns: [[0, 360]] }, { realizations: 4 });
+			const got = await pool.runRecipe(recipe, [0, 1, 2, 3]);
+			for (const r of [0, 1, 2, 3]) expectSameBits(got.get(r)!, regenerate(recipe, r), `realization ${r}`);
+		} finally {
+			await pool.close();
+		}
+	}, 60_000);
+});
+
 describe('RealizationPool.runRecipe without a key', () => {
 	it('a worker that makes one realization keeps nothing per target for a next one; with more to make it keeps it', async () => {
 		const asked: unknown[] = [];

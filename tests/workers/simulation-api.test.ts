@@ -34,4 +34,14 @@ describe('createSimulationApi', () => {
 		api.prepare(input, targets);
 		expectSameBits(api.realize(1), simulate(input, targets, 1), 'realization 1');
 	});
+
+	it('warm() simulates its own small section and keeps what was prepared', () => {
+		const fresh = createSimulationApi();
+		expect(fresh.warm()).toBe(480);
+		expect(() => fresh.realize(0)).toThrow('prepare() first');
+		const api = createSimulationApi();
+		api.prepare(input, targets);
+		expect(api.warm()).toBe(480);
+		expectSameBits(api.realize(2), simulate(input, targets, 2), 'realization 2 after a warm-up');
+	});
 });

@@ -1,4 +1,5 @@
 import type { ProjectApi, RecipeSummaryView, RecipeView, SectionView, SoundingSummary } from '$lib/api';
+import { isCurrentEngine } from '$lib/geostat';
 import { RecipeReview } from './review.svelte';
 import { EnsembleRun, type RunPool } from './run.svelte';
 import { FieldViewer, type EnsembleEngine } from './viewer.svelte';
@@ -80,6 +81,8 @@ export class SimulationsPage {
 			this.review = new RecipeReview(this.api, recipeId, (changed) => this.changed(changed));
 			this.weak = new WeakZoneStudy(this.api, [recipeId], this.viewer.properties, this.boundaries, this.lengthUnit, { [recipeId]: view.provenance.percentiles });
 			void this.review.load();
+			// A recipe opened is usually run next: its workers start and compile the engine meanwhile.
+			if (recipe.kind !== 'uniform' && isCurrentEngine(recipe)) run.warm();
 		} catch (err) {
 			if (ticket === this.opened) this.problem = (err as Error).message;
 		} finally {

