@@ -23,6 +23,14 @@ export type RunStatus = 'idle' | 'running' | 'done' | 'cancelled' | 'failed';
  */
 export const PROGRESS_INTERVAL_MS = 250;
 
+/** Time left goes by the rate over about this much of the latest progress (see EnsembleRun.left). */
+export const RATE_WINDOW_MS = 2000;
+
+interface Sample {
+	fraction: number;
+	elapsed: number;
+}
+
 /**
  * The realizations of one recipe made in the browser's worker pool and kept in memory only (never written):
  * overall progress, time left, cancel. Realizations arrive in completion order; each is shown as soon as it
@@ -45,19 +53,22 @@ export class EnsembleRun {
 	readonly results = new Map<number, Float64Array>();
 	readonly fraction = $derived(this.total > 0 ? this.done / this.total : 0);
 	/**
-	 * The progress and elapsed time on show when the first realization arrived. Each worker's first realization is
-	 * slower than the rest (the engine is compiled, every target's data searched): timed from the start, the demo's
-	 * run said "about 25 s left" at 10 % and ended 5 s later; the rate after the first arrival leaves that out.
+	 * Where the rate of time left is measured from: the progress on show about RATE_WINDOW_MS ago, but never before
+	 * the first realization arrived. Each worker's first realization is slower than the rest (the engine is compiled,
+	 * every target's data searched): timed from the start, the demo's run said "about 25 s left" at 10 % and ended
+	 * 5 s later.
 	 */
-	private sinceFirst = $state<{ fraction: number; elapsed: number } | null>(null);
+	private rateFrom = $state.raw<Sample | null>(null);
+	/** Progress shown since the first realization arrived, oldest first, trimmed to the window (rateFrom is the first). */
+	private samples: Sample[] = [];
 	/**
-	 * Estimated milliseconds left at the rate since the first realization arrived, or before that at the rate since
-	 * the start once a few per cent are done; null while there is nothing to go by.
+	 * Estimated milliseconds left at the recent rate (see rateFrom), or before the first realization arrives at the
+	 * rate since the start once a few per cent are done; null while there is nothing to go by.
 	 */
 	readonly left = $derived.by(() => {
 		if (this.status !== 'running') return null;
 		const f = this.fraction;
-		const b = this.sinceFirst;
+		const b = this.rateFrom;
 		if (b !== null && f > b.fraction) return ((this.elapsed - b.elapsed) * (1 - f)) / (f - b.fraction);
 		return f > 0.02 ? (this.elapsed * (1 - f)) / f : null;
 	});
@@ -76,6 +87,14 @@ export class EnsembleRun {
 		private readonly startPool: () => RunPool,
 		private readonly now: () => number = () => performance.now()
 	) {}
+
+	/** Adds the progress on show to the samples, drops those older than the window, and moves rateFrom. */
+	private keepSample(): void {
+		const { samples } = this;
+		samples.push({ fraction: this.fraction, elapsed: this.elapsed });
+		while (samples.length > 1 && samples[1].elapsed <= this.elapsed - RATE_WINDOW_MS) samples.shift();
+		if (this.rateFrom !== samples[0]) this.rateFrom = samples[0];
+	}
 
 	/** N, the recipe's number of realizations. */
 	get n(): number {
@@ -99,7 +118,8 @@ export class EnsembleRun {
 		this.lastAt = null;
 		this.started = this.now();
 		this.shownAt = -Infinity;
-		this.sinceFirst = null;
+		this.rateFrom = null;
+		this.samples = [];
 		this.elapsed = 0;
 		try {
 			await this.pool.runRecipe(this.recipe, todo, {
@@ -110,12 +130,13 @@ export class EnsembleRun {
 					this.done = done;
 					this.total = total;
 					this.elapsed = now - this.started;
+					if (this.samples.length > 0) this.keepSample();
 				},
 				onRealization: (r, values) => {
 					this.results.set(r, values);
 					if (this.firstAt === null) {
 						this.firstAt = this.now() - this.started;
-						this.sinceFirst = { fraction: this.fraction, elapsed: this.elapsed };
+						this.keepSample();
 					}
 					this.version++;
 				}

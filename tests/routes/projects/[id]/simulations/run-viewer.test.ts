@@ -5,7 +5,7 @@ import type { RecipeView } from '../../../../../src/lib/api/index';
 import { createRecipe, prepareRecipe, regenerate, type Recipe, type SimulationInput } from '../../../../../src/lib/geostat/index';
 import { checkRealizations, ensembleMap } from '../../../../../src/lib/ensemble/index';
 import { CancelledError } from '../../../../../src/lib/cancelled-error';
-import { EnsembleRun, PROGRESS_INTERVAL_MS, type RunPool } from '../../../../../src/routes/projects/[id]/simulations/run.svelte';
+import { EnsembleRun, PROGRESS_INTERVAL_MS, RATE_WINDOW_MS, type RunPool } from '../../../../../src/routes/projects/[id]/simulations/run.svelte';
 import { FieldViewer, type EnsembleEngine } from '../../../../../src/routes/projects/[id]/simulations/viewer.svelte';
 import { expectSameBits } from '../../../../asserts';
 
@@ -155,6 +155,35 @@ describe('EnsembleRun', () => {
 		expect(lefts[1]).toBeCloseTo(2400, 6);
 		for (let k = 1; k < 9; k++) expect(lefts[k]).toBeCloseTo(300 * (9 - k), 6);
 		expect(run.left).toBeNull();
+	});
+
+	it('once the recent progress is all at the steady rate, time left is the rest at that rate (RATE_WINDOW_MS)', async () => {
+		let clock = 0;
+		const checks: [number, number, number][] = [];
+		let run: EnsembleRun;
+		// Ten realizations of five reports: two slow ones (1.5 s each: two workers' first), then 0.5 s each.
+		const settling: RunPool = {
+			runRecipe: async (_r, _list, opts) => {
+				for (let k = 0; k < 10; k++) {
+					for (let s = 1; s <= 5; s++) {
+						clock += k < 2 ? 300 : 100;
+						opts.onProgress?.(5 * k + s, 50);
+						if (run.left !== null && run.fraction < 1) checks.push([clock, run.fraction, run.left]);
+					}
+					opts.onRealization?.(k, new Float64Array(1));
+				}
+				return new Map();
+			},
+			cancel: () => undefined,
+			close: async () => undefined
+		};
+		run = new EnsembleRun(recipe, () => settling, () => clock);
+		await run.run();
+		// From 3 s on the run does 1 % in 50 ms: what is left takes (1 − f) · 5 s. Since the first realization (at
+		// 1.5 s) the rate would still count the second slow one: at 6 s, 4.5 s · 0.2 / 0.7 = 1.29 s instead of 1 s.
+		const steady = checks.filter(([t]) => t >= 3000 + RATE_WINDOW_MS + PROGRESS_INTERVAL_MS + 100);
+		expect(steady.length).toBeGreaterThan(3);
+		for (const [, f, left] of steady) expect(left).toBeCloseTo((1 - f) * 5000, 6);
 	});
 
 	it('warm() starts the pool ahead of the run (once), and not when all realizations are made', async () => {
