@@ -7,8 +7,8 @@
  * thread boundary once per run, each realization comes back as a transferred Float64Array.
  */
 import * as Comlink from 'comlink';
-import { prepareRecipe, prepareSimulation, simulatePrepared } from '../src/lib/geostat/index';
-import type { PrepareOptions, Recipe, SimulationInput, TargetPoints } from '../src/lib/geostat/index';
+import { prepareRecipe, prepareSimulation, simulatePrepared, targetsFromDefinition } from '../src/lib/geostat/index';
+import type { PrepareOptions, Recipe, SimulationInput, TargetDefinition, TargetPoints } from '../src/lib/geostat/index';
 import { ensembleMap, weakZones, type EnsembleStat, type WeakZoneGrid, type WeakZoneOptions } from '../src/lib/ensemble/index';
 
 type Realize = (realization: number, onProgress?: (done: number, total: number) => void) => Float64Array;
@@ -22,8 +22,8 @@ type Realize = (realization: number, onProgress?: (done: number, total: number) 
 export const PROGRESS_POST_MS = 100;
 
 /**
- * What warm() simulates: a section of 40 × 12 nodes with three readings in two soundings, off the grid as soundings
- * usually are, so the engine's search, covariance and kriging code runs and gets compiled before a recipe's run.
+ * What warm() simulates on WARM_GRID: three readings in two soundings, off the grid as soundings usually are, so
+ * the engine's search, covariance and kriging code runs and gets compiled before a recipe's run.
  */
 const WARM_INPUT: SimulationInput = {
 	seed: 'warm-up',
@@ -42,16 +42,8 @@ const WARM_INPUT: SimulationInput = {
 	]
 };
 
-function warmTargets(): TargetPoints {
-	const nx = 40;
-	const n = nx * 12;
-	return {
-		x: Float64Array.from({ length: n }, (_, i) => i % nx),
-		y: new Float64Array(n),
-		z: Float64Array.from({ length: n }, (_, i) => -Math.floor(i / nx) * 0.25),
-		domain: new Int32Array(n)
-	};
-}
+/** The section warm() simulates on: 40 × 12 nodes at 1 m × 0.25 m, one domain. */
+const WARM_GRID: TargetDefinition = { kind: 'grid', origin: { x: 0, y: 0, z: -2.75 }, spacing: { x: 1, y: 1, z: 0.25 }, counts: { x: 40, y: 1, z: 12 }, domainRuns: [[0, 480]] };
 
 /** @param now the clock progress is paced by (milliseconds; tests pass their own) */
 export function createSimulationApi(now: () => number = () => performance.now()) {
@@ -65,7 +57,7 @@ export function createSimulationApi(now: () => number = () => performance.now())
 		 * a run (RealizationPool.warm). Keeps whatever was prepared. Returns the number of nodes simulated.
 		 */
 		warm(): number {
-			const prepared = prepareSimulation(WARM_INPUT, warmTargets());
+			const prepared = prepareSimulation(WARM_INPUT, targetsFromDefinition(WARM_GRID));
 			simulatePrepared(prepared, 0);
 			simulatePrepared(prepared, 1);
 			return prepared.active;
