@@ -13,6 +13,7 @@
 // shares the box's state of the moment) and the first is reported apart (`msFirstRealization`, `ratioFirst`); the
 // block runs one realization, so its figures are its first.
 import seedrandom from 'seedrandom';
+import { median } from 'simple-statistics';
 import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
 import { prepareSimulation, recipeInput, simulatePrepared, targetsFromDefinition } from '../src/lib/geostat/index';
@@ -165,11 +166,6 @@ const round2 = (v: number) => Math.round(v * 100) / 100;
 /** The realizations a case's figures come from: 1…R−1, or the only one (see the head of this file). */
 const steady = (r: Run) => (r.realizations.length > 1 ? r.realizations.slice(1) : r.realizations);
 const ratioOf = (z: Realization) => (z.ms * 1000) / z.systems / z.floorUs;
-function median(values: number[]): number {
-	const s = values.slice().sort((a, b) => a - b);
-	const h = s.length >> 1;
-	return s.length % 2 ? s[h] : (s[h - 1] + s[h]) / 2;
-}
 const sum = (zs: Realization[], f: (z: Realization) => number) => zs.reduce((t, z) => t + f(z), 0);
 
 /** The first n targets (of a grid in layers: its top layers). */
@@ -206,6 +202,7 @@ async function simulationCase(
 	const fresh = realizations > 1 ? await measure({ reuseBytes: 0 }) : null;
 	await floor.at?.close();
 	const s = steady(on);
+	const sOff = steady(off);
 	const first = on.realizations[0];
 	const systems = sum(s, (z) => z.systems);
 	return {
@@ -219,8 +216,8 @@ async function simulationCase(
 		ratio: round2(median(s.map(ratioOf))),
 		hitRate: round2(sum(s, (z) => z.reused) / systems),
 		...(realizations > 1 ? { msFirstRealization: Math.round(first.ms), ratioFirst: round2(ratioOf(first)) } : {}),
-		msPerRealizationNoReuse: Math.round(sum(steady(off), (z) => z.ms) / steady(off).length),
-		ratioNoReuse: round2(median(steady(off).map(ratioOf))),
+		msPerRealizationNoReuse: Math.round(sum(sOff, (z) => z.ms) / sOff.length),
+		ratioNoReuse: round2(median(sOff.map(ratioOf))),
 		...(fresh ? { ratioFresh: round2(median(steady(fresh).map(ratioOf))) } : {}),
 		cacheMB: Math.round(on.cacheMB),
 		...(name.startsWith('block') ? { peakRssMB: Math.round(peak / 2 ** 20) } : {})
