@@ -47,16 +47,18 @@ export { offsetTemplate } from './search/offset-template';
 export type { OffsetTemplate } from './search/offset-template';
 
 // --- Sequential Gaussian simulation ---
-export type { TargetPoints, DomainInput, SearchOptions, SimulationInput } from './simulation/types';
+export type { TargetPoints, DomainInput, SearchOptions, SimulationInput, PathOrder } from './simulation/types';
+export { PATH_ORDERS } from './simulation/types';
 export { detectLattice } from './simulation/lattice';
 export type { Lattice } from './simulation/lattice';
 export { prepareSimulation, COINCIDENCE_TOLERANCE, DEFAULT_REUSE_BYTES } from './simulation/prepare-simulation';
 export type { PreparedSimulation, PreparedDomain, PrepareOptions } from './simulation/prepare-simulation';
-export { simulate, simulatePrepared, realizationStream } from './simulation/simulate';
+export { simulate, simulatePrepared, realizationStream, pathStream } from './simulation/simulate';
 export type { SimulationStats } from './simulation/simulate';
 export { tabulatedCovariance, TabulatedCovariance, COVARIANCE_TABLE_STEP, COVARIANCE_TABLE_END } from './variogram/covariance-table';
 export { SolutionCache, signatureHash } from './simulation/solution-cache';
 export { multigridStrides, multigridLevel, multigridPath } from './simulation/multigrid-path';
+export { PathPlan } from './simulation/path-plan';
 
 // --- Recipes: schema, identity, engine version, regeneration ---
 export {

@@ -143,6 +143,12 @@ describe('regenerate(recipe, r)', () => {
 		expectSameBits(regenerate(mg, 1), simulate(recipeInput(mg), targetsFromDefinition(grid), 1));
 		expect(Array.from(regenerate(mg, 1))).not.toEqual(Array.from(regenerate(plain, 1)));
 		expect(recipeSchema.safeParse({ ...mg, input: { ...mg.input, domains: [{ ...mg.input.domains[0], search: { maxData: 1, maxSimulated: 1, path: 'spiral' } }] } }).success).toBe(false);
+		// A constant path: kept, hashed, followed by regenerate (which keeps no plan) as by simulate.
+		const constant = createRecipe({ ...input, domains: [{ ...input.domains[0], search: { ...input.domains[0].search, path: 'random-constant' } }] }, grid);
+		expect(constant.input.domains[0].search.path).toBe('random-constant');
+		expect(recipeHash(constant)).not.toBe(recipeHash(plain));
+		expectSameBits(regenerate(constant, 1), simulate(recipeInput(constant), targetsFromDefinition(grid), 1));
+		expect(Array.from(regenerate(constant, 1))).not.toEqual(Array.from(regenerate(plain, 1)));
 	});
 });
 

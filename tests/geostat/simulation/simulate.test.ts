@@ -373,3 +373,66 @@ describe('simulate — multiple-grid path (search.path "multigrid")', () => {
 		expect(() => simulate({ seed: 'x', domains: [bad] }, line(3), 0)).toThrow(/path must be/);
 	});
 });
+
+describe('simulate — constant path (search.path "random-constant", "multigrid-constant")', () => {
+	// A constant path (Nussbaumer et al. 2018 (memory)) visits the nodes in the same order in every realization; each
+	// realization is still a sequential Gaussian simulation, so the checks of the path drawn per realization hold.
+	it('random-constant on a line reproduces mean 0, variance = sill and the model covariance at lags 1, 2, 5, 10 within 0.1, as exact Cholesky simulation does', () => {
+		const n = 40;
+		const input: SimulationInput = { seed: 'unconditional-constant', domains: [gaussianDomain({ search: { maxData: 8, maxSimulated: 8, path: 'random-constant' } })] };
+		const prep = prepareSimulation(input, line(n));
+		const st = lineStats(Array.from({ length: R }, (_, r) => simulatePrepared(prep, r)), n);
+		expect(prep.domains[0].plan!.recorded).toBe(n);
+		expectAbsClose(st.mean, 0, ERGODIC_TOL, 'mean');
+		expectAbsClose(st.variance, 1, ERGODIC_TOL, 'variance');
+		LAGS.forEach((h, l) => expectAbsClose(st.cov[l], covariance(expModel, h, 0, 0), ERGODIC_TOL, `C(${h})`));
+	});
+
+	it('multigrid-constant on a section with a small search reproduces the horizontal covariance at lags 1–15 m within 0.07 (100 realizations)', () => {
+		// As the multiple-grid test above (same section, model, search and tolerance), with one path for all realizations.
+		const nx = 80;
+		const nz = 16;
+		const targets = section(nx, nz, 1, 0.25);
+		const model: VariogramModel = { azimuth: 90, structures: [{ type: 'exponential', sill: 1, rangeMajor: 20, rangeMinor: 20, rangeVertical: 1 }] };
+		const input: SimulationInput = { seed: 'section-mg-constant', domains: [gaussianDomain({ model, search: { maxData: 0, maxSimulated: 8, path: 'multigrid-constant' } })] };
+		const prep = prepareSimulation(input, targets);
+		const lags = [1, 3, 6, 10, 15];
+		const c = lags.map(() => 0);
+		const cnt = lags.map(() => 0);
+		for (let r = 0; r < 100; r++) {
+			const f = simulatePrepared(prep, r);
+			lags.forEach((h, l) => {
+				for (let k = 0; k < nz; k++) {
+					for (let i = 0; i + h < nx; i++) {
+						c[l] += f[k * nx + i] * f[k * nx + i + h];
+						cnt[l]++;
+					}
+				}
+			});
+		}
+		lags.forEach((h, l) => expectAbsClose(c[l] / cnt[l], covariance(model, h, 0, 0), 0.07, `C(${h} m)`));
+	});
+
+	it('random-constant at a node between data: mean and variance over 2,000 realizations ≈ the simple-kriging estimate and variance (Goovaerts 1997, ch. 8)', () => {
+		const data: Sample[] = [
+			{ x: 3, y: 0, z: 0, value: 1.0 },
+			{ x: 9, y: 0, z: 0, value: -0.5 },
+			{ x: 16, y: 0, z: 0, value: 0.8 }
+		];
+		const input: SimulationInput = { seed: 'between-constant', domains: [gaussianDomain({ samples: data, search: { maxData: 3, maxSimulated: 20, path: 'random-constant' } })] };
+		const prep = prepareSimulation(input, line(21));
+		const Rn = 2000;
+		let s = 0;
+		let ss = 0;
+		for (let r = 0; r < Rn; r++) {
+			const v = simulatePrepared(prep, r)[6];
+			s += v;
+			ss += v * v;
+		}
+		const mean = s / Rn;
+		const variance = ss / Rn - mean * mean;
+		const sk = krige(data, { x: 6, y: 0, z: 0 }, expModel, { type: 'simple', mean: 0 });
+		expectAbsClose(mean, sk.estimate, 4 * Math.sqrt(sk.variance / Rn), 'mean');
+		expectAbsClose(variance, sk.variance, 4 * sk.variance * Math.sqrt(2 / Rn), 'variance');
+	});
+});

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { PATH_ORDERS } from '../simulation/types';
 
 // A range of null means "no variation along this axis" (Infinity in the engine), which JSON cannot hold.
 // A nugget ignores its ranges (0 is usual); every other structure needs ranges > 0.
@@ -54,7 +55,7 @@ export const domainInputSchema = z
 			maxSimulated: z.number().int().nonnegative(),
 			maxPerSounding: z.number().int().positive().optional(),
 			radius: z.object({ major: z.number().positive(), minor: z.number().positive(), vertical: z.number().positive() }).optional(),
-			path: z.enum(['random', 'multigrid']).optional()
+			path: z.enum(PATH_ORDERS).optional()
 		})
 	})
 	.refine((d) => d.weights === undefined || d.weights.length === d.samples.length, { message: 'weights must match samples', path: ['weights'] })

@@ -5,6 +5,7 @@ import type { PreparedDomain, PreparedSimulation } from './prepare-simulation';
 import { multigridLevel } from './multigrid-path';
 import { signatureHash } from './solution-cache';
 import { KrigingSystem } from './kriging-system';
+import type { PathPlan } from './path-plan';
 import type { SimulationStats } from './simulate';
 
 /**
@@ -49,6 +50,11 @@ export class DomainWalk {
 	declare private readonly pv: Float64Array;
 	declare private readonly q: Float64Array;
 	declare private readonly key: Int32Array;
+	/** Each entry's reference as a PathPlan keeps it (−1 − datum, or the target index of a simulated node). */
+	declare private readonly ref: Int32Array;
+	declare private readonly plan: PathPlan | null;
+	/** Whether steps are solved after replayed ones, which then need the search's state kept (see replay). */
+	declare private readonly partial: boolean;
 	declare private readonly sys: KrigingSystem;
 	declare private readonly sx: number;
 	declare private readonly sy: number;
@@ -109,6 +115,9 @@ export class DomainWalk {
 		this.pv = new Float64Array(kmax);
 		this.q = new Float64Array(3);
 		this.key = new Int32Array(kmax);
+		this.ref = new Int32Array(Math.max(kmax, 1));
+		this.plan = dom.plan;
+		this.partial = dom.plan === null || dom.plan.recorded < steps;
 		const [hx, hy, hz] = dom.tableHalf;
 		this.sy = 2 * hz + 1;
 		this.sx = (2 * hy + 1) * this.sy;
@@ -139,7 +148,7 @@ export class DomainWalk {
 
 	/** Simulates the node at position pos of dom.pathNodes, path step `step`, with the standard normal deviate zdev. */
 	node(pos: number, step: number, zdev: number): void {
-		const { prep, dom, y, ready, yCell, stats, candIdx, candD2, selIdx, selD2, pv, q, key, sys, sx, sy, cx, cy, cz, lox, loy, loz, ldx, ldy, ldz } = this;
+		const { prep, dom, y, ready, yCell, stats, candIdx, candD2, selIdx, selD2, pv, q, key, ref, sys, sx, sy, cx, cy, cz, lox, loy, loz, ldx, ldy, ldz } = this;
 		const { sill, mean, ordinary, maxData, maxSimulated } = dom;
 		const kmax = maxData + maxSimulated;
 		const t = prep.targets;
@@ -149,6 +158,8 @@ export class DomainWalk {
 		const table = dom.covTable;
 		// Reuse needs every entry's covariances from the table: then the signature fixes the system.
 		const cache = table !== null ? prep.cache : null;
+		const plan = this.plan;
+		const record = plan !== null && plan.wants(step);
 		const { px, py, pz, tp, pid, w } = sys;
 		let x0: number;
 		let y0: number;
@@ -204,6 +215,7 @@ export class DomainWalk {
 				pv[k] = dom.dval[i];
 				tp[k] = table !== null && dom.donlat[i] === 1 ? dom.dlat[3 * i] * sx + dom.dlat[3 * i + 1] * sy + dom.dlat[3 * i + 2] : -1;
 				pid[k] = i;
+				ref[k] = -1 - i;
 				if (tp[k] < 0) off++;
 				k++;
 			}
@@ -247,6 +259,7 @@ export class DomainWalk {
 					pv[k] = yCell![c];
 					tp[k] = table !== null ? ii * sx + jj * sy + kk : -1;
 					pid[k] = -1;
+					if (record) ref[k] = lat!.cell[c];
 					k++;
 					found++;
 				}
@@ -263,6 +276,7 @@ export class DomainWalk {
 					pv[k] = y[h];
 					tp[k] = -1;
 					pid[k] = -1;
+					ref[k] = h;
 					k++;
 				}
 			}
@@ -272,6 +286,9 @@ export class DomainWalk {
 		let variance = sill;
 		stats.systems++;
 		stats.neighbours += k;
+		// Weights (simple kriging) or λ (ordinary kriging), and where they are.
+		let wts: Float64Array = sys.w;
+		let at = 0;
 		if (k > 0) {
 			const tq = table !== null ? gi * sx + gj * sy + gk : -1;
 			// The signature: every entry's lattice offset from the target, in system order.
@@ -292,9 +309,6 @@ export class DomainWalk {
 					this.hitRate += ((slot >= 0 ? 1 : 0) - this.hitRate) / 64;
 				}
 			}
-			// Weights (simple kriging) or λ (ordinary kriging), and where they are.
-			let wts: Float64Array = w;
-			let at = 0;
 			if (slot >= 0) {
 				wts = cache!.values();
 				at = cache!.valueOffset(slot);
@@ -311,12 +325,57 @@ export class DomainWalk {
 				for (let p = 0; p < k; p++) est += wts[at + p] * pv[p];
 			}
 		}
-		y[g] = est + Math.sqrt(variance) * zdev;
+		const sd = Math.sqrt(variance);
+		y[g] = est + sd * zdev;
+		if (record) plan!.push(k, ref, wts, at, sd);
 		this.state[g] = 1;
 		if (this.active) this.active.add(this.localOf![pos]);
 		if (ready) {
 			ready[gc >> 3] |= 1 << (gc & 7);
 			yCell![gc] = y[g];
+		}
+	}
+
+	/**
+	 * Simulates the node at position pos of dom.pathNodes, path step `step` (< the plan's recorded steps), from what
+	 * its plan kept: the estimate as node() forms it, the same weights times the same values in the same order.
+	 */
+	replay(pos: number, step: number, zdev: number): void {
+		const { dom, y } = this;
+		const plan = this.plan!;
+		const g = dom.pathNodes[pos];
+		const mean = dom.mean;
+		const dval = dom.dval;
+		const pw = plan.w;
+		const pr = plan.ref;
+		const o = plan.start[step];
+		const k = plan.start[step + 1] - o;
+		let est = mean;
+		if (k > 0) {
+			if (!dom.ordinary) {
+				for (let p = 0; p < k; p++) {
+					const r = pr[o + p];
+					est += pw[o + p] * ((r >= 0 ? y[r] : dval[-1 - r]) - mean);
+				}
+			} else {
+				est = 0;
+				for (let p = 0; p < k; p++) {
+					const r = pr[o + p];
+					est += pw[o + p] * (r >= 0 ? y[r] : dval[-1 - r]);
+				}
+			}
+		}
+		y[g] = est + plan.sd[step] * zdev;
+		this.state[g] = 1;
+		// Steps after the plan's end are searched: they must see the nodes replayed before them.
+		if (this.partial) {
+			if (this.active) this.active.add(this.localOf![pos]);
+			const ready = this.ready;
+			if (ready) {
+				const gc = this.prep.lattice!.cellOf[g];
+				ready[gc >> 3] |= 1 << (gc & 7);
+				this.yCell![gc] = y[g];
+			}
 		}
 	}
 }

@@ -12,7 +12,8 @@ import { detectLattice } from './lattice';
 import type { Lattice } from './lattice';
 import { multigridLevel, multigridStrides } from './multigrid-path';
 import { SolutionCache } from './solution-cache';
-import type { DomainInput, SimulationInput, TargetPoints } from './types';
+import { PathPlan } from './path-plan';
+import { PATH_ORDERS, type DomainInput, type SimulationInput, type TargetPoints } from './types';
 import { trendResiduals, validateTrend, type LinearTrend } from './trend';
 
 /**
@@ -30,7 +31,8 @@ export const DEFAULT_REUSE_BYTES = 64 * 1024 * 1024;
 /**
  * Options of prepareSimulation; none changes a single bit of any realization.
  *
- * What is kept, in this order while the memory lasts (each domain in turn): each target's data search
+ * What is kept, in this order while the memory lasts (each domain in turn): for a domain on a constant path, its
+ * plan (PathPlan: up to 12(kmax + 1) bytes a step, reserved for as many steps as fit); each target's data search
  * (maxData + 1 16-bit integers a target); the covariances between a domain's data when some are off the lattice
  * (nd² doubles, filled as used); for data off the lattice, the data part of each target's factor and right-hand
  * side, the same in every realization (maxData(maxData + 3)/2 doubles a target); for data on the lattice, the same
@@ -41,11 +43,14 @@ export const DEFAULT_REUSE_BYTES = 64 * 1024 * 1024;
 export interface PrepareOptions {
 	/** Memory for everything kept, in bytes; default DEFAULT_REUSE_BYTES. 0: nothing is kept, all is computed afresh. */
 	reuseBytes?: number;
-	/** Keep solved kriging systems (default true); false keeps only the data searches and parts (for measuring what reuse adds). */
+	/**
+	 * Keep solved kriging systems and constant paths' plans (default true); false keeps only the data searches and
+	 * parts (for measuring what reuse adds).
+	 */
 	reuseSolutions?: boolean;
 	/**
-	 * Keep each target's data search and data factor (default true). They pay off from the second realization
-	 * on; simulate(), which runs one, sets false.
+	 * Keep each target's data search and data factor, and the plans of constant paths (default true). They pay
+	 * off from the second realization on; simulate(), which runs one, sets false.
 	 */
 	keepPerTarget?: boolean;
 }
@@ -93,6 +98,10 @@ export interface PreparedDomain {
 	 * (the only cells that can hold a simulated node while the level is visited). Null for the random path.
 	 */
 	multigrid: { strides: Int32Array; level: Uint8Array; entries: Int32Array[] } | null;
+	/** Whether the path is constant: drawn from the seed and the domain, the same in every realization. */
+	constantPath: boolean;
+	/** On a constant path, the steps solved so far, replayed by later realizations (see PathPlan); null when not kept. */
+	plan: PathPlan | null;
 	/**
 	 * Covariances between data i and j at i·nd + j, NaN until first needed (filled by the simulation; the same
 	 * bits as evaluating them each time), or null when the domain has too many data to keep them.
@@ -155,10 +164,29 @@ export function prepareSimulation(input: SimulationInput, targets: TargetPoints,
 	const lattice = detectLattice(targets);
 	const datumAt = new Int32Array(n).fill(-1);
 	const domains = input.domains.map((d, index) => prepareDomain(d, index, targets, lattice, datumAt));
-	const left = keepDataParts(domains, reuseBytes, keepPerTarget);
+	const left = keepDataParts(domains, keepPlans(domains, reuseBytes, keepPerTarget && reuseSolutions), keepPerTarget);
 	const parts = dataPartCache(domains, left);
 	const rest = left - (parts ? parts.bytes : 0);
 	return { seed: input.seed, targets, lattice, datumAt, domains, active, cache: reuseSolutions ? solutionCache(domains, rest) : null, parts };
+}
+
+/**
+ * Allocates the plans of domains on a constant path (see PathPlan) within `bytes`, each as many steps as fit (the
+ * whole path when it can); returns the bytes left. A plan saves nearly all of a step's work in every realization
+ * after the first, so it comes before everything else that is kept.
+ */
+function keepPlans(domains: PreparedDomain[], bytes: number, perTarget: boolean): number {
+	let left = bytes;
+	if (!perTarget) return left;
+	for (const d of domains) {
+		if (!d.constantPath || d.pathNodes.length === 0) continue;
+		const kmax = d.maxData + d.maxSimulated;
+		const steps = Math.min(d.pathNodes.length, Math.floor((left - 4) / PathPlan.bytes(1, kmax)));
+		if (steps < 1) continue;
+		d.plan = new PathPlan(steps, kmax);
+		left -= PathPlan.bytes(steps, kmax);
+	}
+	return left;
 }
 
 /** Allocates the kept data parts (see PrepareOptions) within `bytes`; returns the bytes left. */
@@ -270,7 +298,7 @@ function checkDomain(d: DomainInput): void {
 	if (s.maxPerSounding !== undefined && (!Number.isInteger(s.maxPerSounding) || s.maxPerSounding < 1)) {
 		throw new RangeError('maxPerSounding must be an integer >= 1');
 	}
-	if (s.path !== undefined && s.path !== 'random' && s.path !== 'multigrid') throw new TypeError("path must be 'random' or 'multigrid'");
+	if (s.path !== undefined && !(PATH_ORDERS as readonly string[]).includes(s.path)) throw new TypeError(`path must be one of ${PATH_ORDERS.join(', ')}`);
 	if (d.transform === 'normal-score' && d.samples.length === 0) throw new RangeError('a normal-score domain needs samples');
 	if (d.trend !== undefined) validateTrend(d.trend);
 }
@@ -356,7 +384,7 @@ function prepareDomain(
 		}
 	}
 	let multigrid: PreparedDomain['multigrid'] = null;
-	if (template && lattice && d.search.path === 'multigrid') multigrid = multigridOf(template, lattice, path);
+	if (template && lattice && (d.search.path === 'multigrid' || d.search.path === 'multigrid-constant')) multigrid = multigridOf(template, lattice, path);
 	if (!template || !lattice) {
 		const tn = new Float64Array(3 * targets.length);
 		for (let i = 0; i < targets.length; i++) {
@@ -391,6 +419,8 @@ function prepareDomain(
 		tableHalf,
 		nodeGrid,
 		multigrid,
+		constantPath: d.search.path === 'random-constant' || d.search.path === 'multigrid-constant',
+		plan: null,
 		dataCov: null,
 		dataSelection: null,
 		dataFactor: null,

@@ -22,7 +22,8 @@ export function realizationStream(seed: string, realization: number, domain: num
  * Sequential Gaussian simulation (Deutsch & Journel 1998, ch. V.2.3; Goovaerts 1997, ch. 8; Isaaks 1990):
  * one conditional realization of every domain's field at the target points, in original units (NaN where
  * the target's domain is −1). Domain by domain, a seeded random path (or a multiple-grid path, see
- * multigridPath) visits the domain's targets; at each
+ * multigridPath; either drawn afresh for each realization, or constant, see SearchOptions.path) visits the
+ * domain's targets; at each
  * the nearest conditioning data (≤ maxData, ≤ maxPerSounding from one sounding) and previously simulated
  * nodes (≤ maxSimulated) inside the search ellipsoid, ranked by the ellipsoid's normalised (anisotropic)
  * distance, enter a simple or ordinary kriging system (covariances as TabulatedCovariance evaluates them);
@@ -46,13 +47,15 @@ export function simulate(
 }
 
 /**
- * Counters a caller may pass to simulatePrepared (benchmarks): kriging systems (one per simulated node), their
- * total size, and how many took a solution already solved for the same neighbourhood signature.
+ * Counters a caller may pass to simulatePrepared (benchmarks): kriging systems (one per simulated node that was not
+ * replayed), their total size, how many took a solution already solved for the same neighbourhood signature, and
+ * the nodes replayed from a constant path's plan (see PathPlan) instead.
  */
 export interface SimulationStats {
 	systems: number;
 	neighbours: number;
 	reused: number;
+	replayed: number;
 }
 
 /**
@@ -79,7 +82,7 @@ export function simulatePrepared(
 	const yCell = prep.lattice ? new Float64Array(prep.lattice.cell.length) : null;
 	const progress = { done: 0, total: prep.active, step: Math.max(1, Math.floor(prep.active / 100)), next: 0, cb: onProgress };
 	progress.next = progress.step;
-	const counters = stats ?? { systems: 0, neighbours: 0, reused: 0 };
+	const counters = stats ?? { systems: 0, neighbours: 0, reused: 0, replayed: 0 };
 	for (const dom of prep.domains) {
 		if (ready) ready.fill(0);
 		simulateDomain(prep, dom, realization, out, y, state, ready, yCell, progress, counters);
@@ -126,20 +129,16 @@ function simulateDomain(
 	}
 
 	// The path as positions in dom.pathNodes (the same permutation as of the nodes themselves), so per-node
-	// kept results (the data search) are found by position.
+	// kept results (the data search) are found by position. A constant path comes from a stream of its own and
+	// is the same in every realization; the realization's stream then draws the deviates alone.
 	const nodes = dom.pathNodes;
-	const mg = dom.multigrid;
+	const plan = dom.plan;
 	let path: Int32Array;
-	if (mg) path = multigridPath(identity(nodes.length), mg.level, rand);
+	if (!dom.constantPath) path = domainPath(dom, rand);
+	else if (plan !== null && plan.path !== null) path = plan.path;
 	else {
-		path = identity(nodes.length);
-		// Fisher–Yates shuffle (Knuth 1997, TAOCP vol. 2, alg. 3.4.2 P).
-		for (let i = path.length - 1; i > 0; i--) {
-			const j = Math.floor(rand() * (i + 1));
-			const tmp = path[i];
-			path[i] = path[j];
-			path[j] = tmp;
-		}
+		path = domainPath(dom, pathStream(prep.seed, d));
+		if (plan !== null) plan.path = path;
 	}
 
 	// Off the lattice: each path node's index among the domain's targets (both lists ascend, the path's being the
@@ -154,16 +153,21 @@ function simulateDomain(
 	}
 
 	const walk = new DomainWalk(prep, dom, y, state, ready, yCell, stats, localOf, path.length);
+	// Steps a constant path's plan already holds are replayed (the same bits as solving them again).
+	const replay = plan !== null ? plan.recorded : 0;
 	for (let step = 0; step < path.length; step++) {
 		let uu = rand();
 		// Φ⁻¹(0) is −∞; a zero from a 53-bit uniform (chance 2⁻⁵³) is nudged to the smallest step.
 		if (uu === 0) uu = 1.1102230246251565e-16;
-		walk.node(path[step], step, inverseNormalCdf(uu));
+		if (step < replay) walk.replay(path[step], step, inverseNormalCdf(uu));
+		else walk.node(path[step], step, inverseNormalCdf(uu));
 		if (++progress.done >= progress.next) {
 			progress.next += progress.step;
 			if (progress.cb) progress.cb(progress.done, progress.total);
 		}
 	}
+
+	stats.replayed += Math.min(replay, path.length);
 
 	const tbl = dom.table;
 	const trend = dom.trend;
@@ -175,6 +179,31 @@ function simulateDomain(
 			out[g] = trend ? v + trendValue(trend, X[g], Y[g], Z[g]) : v;
 		}
 	}
+}
+
+/**
+ * The stream a domain's constant path is drawn from: Alea seeded with "seed:path:d", apart from every
+ * realization's stream ("seed:r:d" with r a number).
+ */
+export function pathStream(seed: string, domain: number): () => number {
+	const prng = seedrandom.alea(`${seed}:path:${domain}`);
+	return () => prng.double();
+}
+
+/** A domain's path (positions in its pathNodes) drawn from `rand`: multiple-grid or random. */
+function domainPath(dom: PreparedDomain, rand: () => number): Int32Array {
+	const n = dom.pathNodes.length;
+	const mg = dom.multigrid;
+	if (mg) return multigridPath(identity(n), mg.level, rand);
+	const path = identity(n);
+	// Fisher–Yates shuffle (Knuth 1997, TAOCP vol. 2, alg. 3.4.2 P).
+	for (let i = path.length - 1; i > 0; i--) {
+		const j = Math.floor(rand() * (i + 1));
+		const tmp = path[i];
+		path[i] = path[j];
+		path[j] = tmp;
+	}
+	return path;
 }
 
 function identity(n: number): Int32Array {

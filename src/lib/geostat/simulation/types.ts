@@ -9,6 +9,12 @@ export interface TargetPoints {
 	domain: Int32Array;
 }
 
+/** The order a domain's nodes are visited in (see SearchOptions.path). */
+export type PathOrder = 'random' | 'multigrid' | 'random-constant' | 'multigrid-constant';
+
+/** The path orders, in the order a recipe's form offers them. */
+export const PATH_ORDERS = ['random', 'multigrid', 'random-constant', 'multigrid-constant'] as const satisfies readonly PathOrder[];
+
 /** Search neighbourhood of one domain. */
 export interface SearchOptions {
 	/** Most conditioning data per kriging system (≥ 0). */
@@ -24,8 +30,14 @@ export interface SearchOptions {
 	 * then finer ones, each in random order (see multigridPath), which reproduces long ranges with a small search.
 	 * 'multigrid' needs targets on a regular lattice (a grid) and a search small enough for a grid template
 	 * (at most 4 million cells); elsewhere the path is random.
+	 *
+	 * 'random-constant' and 'multigrid-constant': the same orders, drawn once from the seed and the domain and
+	 * visited in every realization (a constant path), so each node's kriging system is the same in every
+	 * realization: a prepared simulation solves them in its first realization and replays their weights in the
+	 * next (see PathPlan), at a small fraction of the cost. The realizations then share the path's approximation
+	 * (which nodes screen which), where a path per realization averages it out over the ensemble.
 	 */
-	path?: 'random' | 'multigrid';
+	path?: PathOrder;
 }
 
 /** Everything one domain of a simulation needs. */
