@@ -150,13 +150,19 @@ describe('simulate in Chromium and in Node.js', () => {
 		expect(nodeGrid[0]).not.toBe(nodeGrid[1]);
 	}, 120_000);
 
-	it('RealizationPool over comlink module-worker code in Chromium returns the same bits as Node, with progress to (total, total)', async () => {
+	// The second input runs both domains on a constant path: a worker that makes two of the three realizations replays
+	// the second from the plan its first recorded, in Chromium, and must still give Node's bits for that realization alone.
+	const constant: SimulationInput = {
+		...input,
+		domains: input.domains.map((d, k) => ({ ...d, search: { ...d.search, path: k === 0 ? 'random-constant' : 'multigrid-constant' } }))
+	};
+	for (const [name, inp] of [['paths per realization', input], ['constant paths', constant]] as const) it(`RealizationPool over comlink module-worker code in Chromium returns the same bits as Node, with progress to (total, total) (${name})`, async () => {
 		const page = await browser.newPage();
 		// A routed http origin (no network): blob workers need a real origin, which about:blank lacks.
 		await page.route('http://engine.test/**', (route) => route.fulfill({ contentType: 'text/html', body: '<!doctype html><title>pool</title>' }));
 		await page.goto('http://engine.test/');
 		await page.addScriptTag({ content: poolBundle });
-		const recipe = createRecipe(input, grid);
+		const recipe = createRecipe(inp, grid);
 		const realizations = [2, 9, 4];
 		const res = await page.evaluate(
 			// eslint-disable-next-line @typescript-eslint/no-explicit-any
@@ -165,7 +171,7 @@ describe('simulate in Chromium and in Node.js', () => {
 		);
 		await page.close();
 		const targets = targetsFromDefinition(grid);
-		expect(res.hashes).toEqual(realizations.map((r) => bytesHash(simulate(input, targets, r))));
+		expect(res.hashes).toEqual(realizations.map((r) => bytesHash(simulate(inp, targets, r))));
 		const active = Array.from(targets.domain).filter((d) => d >= 0).length;
 		expect(res.last).toEqual([3 * active, 3 * active]);
 		expect(res.calls).toBeGreaterThan(3);

@@ -1,6 +1,7 @@
 /** Request bodies and queries of the recipe endpoints: the setup a recipe is resolved from, and summary queries. */
 import { z } from 'zod';
 import { ENSEMBLE_STATS } from '$lib/ensemble';
+import { PATH_ORDERS } from '$lib/geostat';
 import { simulatedProperty } from './stratigraphy';
 
 const finite = (label: string) => z.number({ error: `${label} must be a number.` }).refine(Number.isFinite, { error: `${label} must be finite.` });
@@ -93,8 +94,11 @@ const searchSchema = z.object({
 	maxSimulated: count('Max simulated nodes', 0, 64).default(DEFAULT_SEARCH.maxSimulated),
 	/** Null: no limit per sounding. */
 	maxPerSounding: count('Max per sounding', 1, 64).nullable().default(DEFAULT_SEARCH.maxPerSounding),
-	/** The order nodes are visited in: random, or coarse grids first (multiple-grid path; long ranges with a small search). */
-	path: z.enum(['random', 'multigrid'], { error: 'Choose a random or a multiple-grid path.' }).default('random'),
+	/**
+	 * The order nodes are visited in: random, or coarse grids first (multiple-grid path; long ranges with a small
+	 * search); drawn for each realization, or ('…-constant') once for all of them (see SearchOptions.path).
+	 */
+	path: z.enum(PATH_ORDERS, { error: `Choose a path: ${PATH_ORDERS.join(', ')}.` }).default('random'),
 	/** Semi-axes of the search ellipsoid; null: the model's ranges. */
 	radius: z
 		.object({ major: positive('The major radius'), minor: positive('The minor radius'), vertical: positive('The vertical radius') })

@@ -86,13 +86,13 @@ describe('createRecipe(projectId, userId, setup) — identity', () => {
 			setup({ name: 'N', realizations: 5 }),
 			setup({ name: 'Grid', grid: { ...coarse, chainage: { from: 0, to: 400, cell: 8 } } }),
 			setup({ name: 'Kriging', domains: split.domains.map((d, k) => ({ domainId: d.id, simulate: true, kriging: k === 0 ? 'ordinary' : 'simple' })) }),
-			setup({ name: 'Path', domains: split.domains.map((d, k) => ({ domainId: d.id, simulate: true, search: { path: k === 0 ? 'multigrid' : 'random' } })) })
+			setup({ name: 'Path', domains: split.domains.map((d, k) => ({ domainId: d.id, simulate: true, search: { path: k === 0 ? 'multigrid' : k === 1 ? 'random-constant' : 'random' } })) })
 		];
 		const hashes = variants.map((v) => createRecipe(projectId, userId, v, db).recipe.hash);
 		expect(new Set([base, ...hashes]).size).toBe(6);
 		const path = createRecipe(projectId, userId, variants[4], db).recipe;
 		const doc = loadRecipe(projectId, path.id, db).recipe as SgsRecipe;
-		expect(doc.input.domains.map((d) => d.search.path)).toEqual(['multigrid', undefined, undefined, undefined, undefined]);
+		expect(doc.input.domains.map((d) => d.search.path)).toEqual(['multigrid', 'random-constant', undefined, undefined, undefined]);
 	});
 
 	it('a new variogram version changes the hash when the newest is taken, not when the old version is named', () => {

@@ -140,7 +140,7 @@ export function domainInput(samples: DomainSamples, variogram: VariogramView, se
 			maxSimulated: setup.search.maxSimulated,
 			...(setup.search.maxPerSounding !== null ? { maxPerSounding: setup.search.maxPerSounding } : {}),
 			...(setup.search.radius !== null ? { radius: setup.search.radius } : {}),
-			...(setup.search.path === 'multigrid' ? { path: 'multigrid' as const } : {})
+			...(setup.search.path !== 'random' ? { path: setup.search.path } : {})
 		}
 	};
 	if (trend) input.trend = trend;

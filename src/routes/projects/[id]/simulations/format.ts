@@ -1,4 +1,13 @@
 import { formatDateTime } from '$lib/dates';
+import type { PathOrder } from '$lib/geostat';
+
+/** How a path order reads in the recipe form and its provenance. */
+export const PATH_LABELS: Record<PathOrder, string> = {
+	random: 'random',
+	multigrid: 'coarse grids first',
+	'random-constant': 'random, one for all realizations',
+	'multigrid-constant': 'coarse grids first, one for all realizations'
+};
 
 /** A number to `digits` significant figures for tables and readouts ("–" for none, NaN or ±Infinity). */
 export function figure(v: number | null | undefined, digits = 4): string {

@@ -1,6 +1,6 @@
 import { RequestFailed, type ApiIssue, type MeshView, type ProjectApi, type RecipeView, type SectionView, type SiteView, type SoundingSummary, type VariogramView, type ZonationView } from '$lib/api';
 import { DEFAULT_PERCENTILES, DEFAULT_SEARCH, MAX_CELLS, type RecipeSetupInput } from '$lib/schemas/recipe';
-import { uniformValues } from '$lib/geostat';
+import { uniformValues, type PathOrder } from '$lib/geostat';
 import {
 	axesDomains,
 	cellsPerDomain,
@@ -28,7 +28,7 @@ export interface DomainRow {
 	maxData: string;
 	maxSimulated: string;
 	maxPerSounding: string;
-	path: 'random' | 'multigrid';
+	path: PathOrder;
 	radiusMajor: string;
 	radiusMinor: string;
 	radiusVertical: string;
