@@ -1,7 +1,8 @@
 // "browser-run" (issue 12): the demo's split-zonation recipe run in headless Chromium's worker pool, as a user
 // does it: starts the BUILT server (run `npx vite build` first) with the demo on a free loopback port, signs in as
 // the demo analyst, opens the recipe on the Simulations page and clicks Run. Prints the milliseconds from the
-// click to the first realization on screen (the field painted) and to all 20 in memory.
+// click to the first realization on screen (the field painted) and to all 20 in memory. "browser-run:constant":
+// the same recipe with every domain on a constant random path, made through the API as a user would in the form.
 // Run alone: `npm run bench -- browser-run`.
 import { spawn } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync } from 'node:fs';
@@ -13,7 +14,7 @@ import type { BenchCase } from './index';
 
 const root = resolve(import.meta.dirname, '..');
 
-async function run(): Promise<Record<string, number>> {
+async function run(constant: boolean): Promise<Record<string, number>> {
 	if (!existsSync(join(root, 'build', 'index.js'))) throw new Error('build first: npx vite build');
 	const dataDir = mkdtempSync(join(tmpdir(), 'conefield-bench-'));
 	const port = await freePort();
@@ -30,7 +31,15 @@ async function run(): Promise<Record<string, number>> {
 		const { projects } = (await (await api.json('GET', '/api/v1/projects')).json()) as { projects: { id: string; name: string }[] };
 		const projectId = projects.find((p) => p.name === DEMO_PROJECT_NAME)!.id;
 		const { recipes } = (await (await api.json('GET', `/api/v1/projects/${projectId}/recipes`)).json()) as { recipes: { id: string; name: string }[] };
-		const recipe = recipes.find((r) => r.name.startsWith('Sand split at channel'))!;
+		let recipe = recipes.find((r) => r.name.startsWith('Sand split at channel'))!;
+		if (constant) {
+			const base = `/api/v1/projects/${projectId}/recipes`;
+			const { setup } = (await (await api.json('GET', `${base}/${recipe.id}`)).json()).recipe;
+			const domains = setup.domains.map((d: { simulate: boolean; search: object }) => (d.simulate ? { ...d, search: { ...d.search, path: 'random-constant' } } : d));
+			const made = await api.json('POST', base, { ...setup, name: `${setup.name} (constant path)`, domains });
+			if (!made.ok) throw new Error(`recipe not made: ${made.status} ${await made.text()}`);
+			recipe = (await made.json()).recipe;
+		}
 
 		const { page } = await signInPage(browser, baseUrl, DEMO.analyst, { width: 1280, height: 800 });
 		await page.goto(`/projects/${projectId}/simulations?recipe=${recipe.id}`);
@@ -63,5 +72,8 @@ async function run(): Promise<Record<string, number>> {
 	}
 }
 
-const cases: BenchCase[] = [{ name: 'browser-run', run }];
+const cases: BenchCase[] = [
+	{ name: 'browser-run', run: () => run(false) },
+	{ name: 'browser-run:constant', run: () => run(true) }
+];
 export default cases;

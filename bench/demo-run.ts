@@ -2,17 +2,25 @@
 // realizations) through the server's node pool on all cores, as the summary endpoint makes it: the seconds for all
 // 20 and per realization, and the same for the summary's work from a cold start (regenerate all 20, then the
 // ensemble map on a worker), plus the ensemble maps alone. The demo is seeded into an in-memory database with the
-// app's own services; worker start-up (tsx loading the engine) is left out of the timings.
+// app's own services; worker start-up (tsx loading the engine) is left out of the timings. "demo-run:constant": the
+// same recipe with every domain on a constant random path (search.path 'random-constant'), a recipe of its own.
 import { availableParallelism } from 'node:os';
 import { openDatabase } from '../src/lib/server/db';
 import { seedDemo } from '../src/lib/server/services/demo';
-import { listRecipes, loadRecipe } from '../src/lib/server/services/recipes';
+import { createRecipe, getRecipe, listRecipes, loadRecipe } from '../src/lib/server/services/recipes';
+import type { RecipeSetup } from '../src/lib/schemas/recipe';
 import { recipeSummary } from '../src/lib/server/services/summaries';
 import { ensembleMapOffThread, ensembleOf, stopRealizations, useRealizationPool } from '../src/lib/server/realizations';
 import { createNodePool } from '../workers/node-pool';
 import type { BenchCase } from './index';
 
 const round = (x: number, digits = 2) => Number(x.toFixed(digits));
+
+/** The setup with every simulated domain on a constant random path, under a name of its own. */
+function constantSetup(setup: RecipeSetup): RecipeSetup {
+	if (setup.kind === 'uniform') throw new Error('the demo recipe is an SGS recipe');
+	return { ...setup, name: `${setup.name} (constant path)`, domains: setup.domains.map((d) => (d.simulate ? { ...d, search: { ...d.search, path: 'random-constant' } } : d)) };
+}
 
 async function warmPool(cores: number) {
 	const pool = createNodePool({ size: cores });
@@ -25,11 +33,12 @@ async function warmPool(cores: number) {
 	useRealizationPool(pool);
 }
 
-async function run(): Promise<Record<string, number>> {
+async function run(constant: boolean): Promise<Record<string, number>> {
 	const cores = availableParallelism();
 	const db = openDatabase(':memory:');
 	const projectId = (await seedDemo(db))!;
-	const summary = listRecipes(projectId, db).find((r) => r.name.startsWith('Sand split at channel'))!;
+	let summary = listRecipes(projectId, db).find((r) => r.name.startsWith('Sand split at channel'))!;
+	if (constant) summary = createRecipe(projectId, summary.createdBy!.id, constantSetup(getRecipe(projectId, summary.id, db).setup), db).recipe;
 	const { hash, recipe } = loadRecipe(projectId, summary.id, db);
 	const def = recipe.targets.kind === 'grid' ? recipe.targets : null;
 	const cells = def ? def.counts.x * def.counts.y * def.counts.z : 0;
@@ -67,5 +76,8 @@ async function run(): Promise<Record<string, number>> {
 	};
 }
 
-const cases: BenchCase[] = [{ name: 'demo-run', run }];
+const cases: BenchCase[] = [
+	{ name: 'demo-run', run: () => run(false) },
+	{ name: 'demo-run:constant', run: () => run(true) }
+];
 export default cases;

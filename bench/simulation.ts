@@ -1,5 +1,7 @@
 // Sequential Gaussian simulation benchmarks (issues 4 and 16): "section", "section-offgrid", "block" (each also
-// on the multiple-grid path, ":multigrid") and "pool".
+// on the multiple-grid path, ":multigrid"; the sections also on constant paths, ":constant" and
+// ":multigrid-constant", whose realizations after the first replay the first's weights) and "pool" (also
+// ":constant"). On a constant path a replayed node counts as a node simulated and a solution reused.
 // Each simulation case is set against a floor: copying, factoring and solving one k×k system with the engine's
 // own Cholesky (k = the mean neighbour count the simulation actually used), measured in a worker thread of its
 // own (floor.worker.ts) in a pass after each realization — so `ratio` says what search, covariance build and bookkeeping cost on top of the
@@ -17,7 +19,7 @@ import { median } from 'simple-statistics';
 import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
 import { prepareSimulation, recipeInput, simulatePrepared, targetsFromDefinition } from '../src/lib/geostat/index';
-import type { PrepareOptions, SimulationInput, SimulationStats, TargetPoints, VariogramModel, Sample } from '../src/lib/geostat/index';
+import type { PathOrder, PrepareOptions, SimulationInput, SimulationStats, TargetPoints, VariogramModel, Sample } from '../src/lib/geostat/index';
 import { createNodePool } from '../workers/node-pool';
 import { demoRecipe } from '../scripts/demo-recipe';
 import type { BenchCase } from './index';
@@ -128,6 +130,7 @@ interface Realization {
 	systems: number;
 	neighbours: number;
 	reused: number;
+	replayed: number;
 	floorUs: number;
 }
 
@@ -147,13 +150,13 @@ async function run(input: SimulationInput, targets: TargetPoints, realizations: 
 	const out: Run = { realizations: [], prepareMs: cpuMs() - t0, cacheMB: 0 };
 	sampleRss();
 	for (let r = 0; r < realizations; r++) {
-		const stats: SimulationStats = { systems: 0, neighbours: 0, reused: 0 };
+		const stats: SimulationStats = { systems: 0, neighbours: 0, reused: 0, replayed: 0 };
 		const t1 = cpuMs();
 		simulatePrepared(prep, r, sampleRss, stats);
 		const ms = cpuMs() - t1;
 		sampleRss();
 		floor.at ??= new Floor(Math.round(stats.neighbours / stats.systems));
-		const m = Math.min(stats.systems, 200_000);
+		const m = Math.min(stats.systems + stats.replayed, 200_000);
 		const floorUs = ((await floor.at.ms(m)) * 1000) / m;
 		out.realizations.push({ ms, ...stats, floorUs });
 	}
@@ -165,8 +168,15 @@ const round2 = (v: number) => Math.round(v * 100) / 100;
 
 /** The realizations a case's figures come from: 1…R−1, or the only one (see the head of this file). */
 const steady = (r: Run) => (r.realizations.length > 1 ? r.realizations.slice(1) : r.realizations);
-const ratioOf = (z: Realization) => (z.ms * 1000) / z.systems / z.floorUs;
+/** Nodes simulated: those whose system was solved (or taken from the cache) and those replayed from a plan. */
+const nodesOf = (z: Realization) => z.systems + z.replayed;
+const ratioOf = (z: Realization) => (z.ms * 1000) / nodesOf(z) / z.floorUs;
 const sum = (zs: Realization[], f: (z: Realization) => number) => zs.reduce((t, z) => t + f(z), 0);
+
+/** The input with every domain on the given path. */
+function withPath(input: SimulationInput, path: PathOrder): SimulationInput {
+	return { ...input, domains: input.domains.map((d) => ({ ...d, search: { ...d.search, path } })) };
+}
 
 /** The first n targets (of a grid in layers: its top layers). */
 function head(t: TargetPoints, n: number): TargetPoints {
@@ -179,10 +189,10 @@ async function simulationCase(
 	name: string,
 	setup: () => { input: SimulationInput; targets: TargetPoints },
 	realizations: number,
-	path: 'random' | 'multigrid'
+	path: PathOrder
 ): Promise<Record<string, number>> {
 	const base = setup();
-	const input: SimulationInput = { ...base.input, domains: base.input.domains.map((d) => ({ ...d, search: { ...d.search, path } })) };
+	const input = withPath(base.input, path);
 	const { targets } = base;
 	// Each configuration warmed up on a throwaway preparation first, so none is timed while the compiler still
 	// learns its paths (the block, a realization at a time, on its top 100,000 cells: the same lattice and code paths).
@@ -204,17 +214,18 @@ async function simulationCase(
 	const s = steady(on);
 	const sOff = steady(off);
 	const first = on.realizations[0];
-	const systems = sum(s, (z) => z.systems);
+	const nodes = sum(s, nodesOf);
 	return {
-		nodes: first.systems,
+		nodes: nodesOf(first),
 		targets: targets.x.length,
-		k: round2(sum(s, (z) => z.neighbours) / systems),
+		// Of the systems built (a replayed realization builds none: then those of the first).
+		k: round2(s.some((z) => z.systems > 0) ? sum(s, (z) => z.neighbours) / sum(s, (z) => z.systems) : first.neighbours / first.systems),
 		prepareMs: Math.round(on.prepareMs),
 		msPerRealization: Math.round(sum(s, (z) => z.ms) / s.length),
-		usPerNode: round2((sum(s, (z) => z.ms) * 1000) / systems),
+		usPerNode: round2((sum(s, (z) => z.ms) * 1000) / nodes),
 		floorUsPerNode: round2(median(s.map((z) => z.floorUs))),
 		ratio: round2(median(s.map(ratioOf))),
-		hitRate: round2(sum(s, (z) => z.reused) / systems),
+		hitRate: round2(sum(s, (z) => z.reused + z.replayed) / nodes),
 		...(realizations > 1 ? { msFirstRealization: Math.round(first.ms), ratioFirst: round2(ratioOf(first)) } : {}),
 		msPerRealizationNoReuse: Math.round(sum(sOff, (z) => z.ms) / sOff.length),
 		ratioNoReuse: round2(median(sOff.map(ratioOf))),
@@ -224,8 +235,10 @@ async function simulationCase(
 	};
 }
 
-async function poolCase(): Promise<Record<string, number>> {
-	const { input, targets } = sectionInput();
+async function poolCase(path: PathOrder): Promise<Record<string, number>> {
+	const base = sectionInput();
+	const { targets } = base;
+	const input = withPath(base.input, path);
 	const realizations = Array.from({ length: 8 }, (_, r) => r);
 	const cores = availableParallelism();
 	// Wall clock (what a user waits) and CPU time of this process, workers included (what the work costs, whatever
@@ -259,9 +272,14 @@ const cases: BenchCase[] = [
 	{ name: 'section:multigrid', run: () => simulationCase('section', sectionInput, 5, 'multigrid') },
 	{ name: 'section-offgrid', run: () => simulationCase('section-offgrid', offgridInput, 7, 'random') },
 	{ name: 'section-offgrid:multigrid', run: () => simulationCase('section-offgrid', offgridInput, 7, 'multigrid') },
+	{ name: 'section:constant', run: () => simulationCase('section', sectionInput, 5, 'random-constant') },
+	{ name: 'section:multigrid-constant', run: () => simulationCase('section', sectionInput, 5, 'multigrid-constant') },
+	{ name: 'section-offgrid:constant', run: () => simulationCase('section-offgrid', offgridInput, 7, 'random-constant') },
+	{ name: 'section-offgrid:multigrid-constant', run: () => simulationCase('section-offgrid', offgridInput, 7, 'multigrid-constant') },
 	{ name: 'block', run: () => simulationCase('block', blockInput, 1, 'random') },
 	{ name: 'block:multigrid', run: () => simulationCase('block', blockInput, 1, 'multigrid') },
-	{ name: 'pool', run: poolCase }
+	{ name: 'pool', run: () => poolCase('random') },
+	{ name: 'pool:constant', run: () => poolCase('random-constant') }
 ];
 
 export default cases;
