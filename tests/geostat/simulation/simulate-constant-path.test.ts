@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { prepareSimulation, simulatePrepared, simulate, recipeInput, targetsFromDefinition, dataReproduction, pathStream, realizationStream } from '../../../src/lib/geostat/index';
+import { PathPlan, prepareSimulation, simulatePrepared, simulate, recipeInput, targetsFromDefinition, dataReproduction, pathStream, realizationStream } from '../../../src/lib/geostat/index';
 import type { PathOrder, SimulationInput, SimulationStats, TargetPoints } from '../../../src/lib/geostat/index';
 import { demoRecipe } from '../../../scripts/demo-recipe';
 import { block, hash, run, section, withPath } from './fixtures';
@@ -58,8 +58,12 @@ describe('simulate on a constant path: replayed realizations have the bits of fr
 		const { input, targets } = section();
 		const constant = withPath(input, 'random-constant');
 		const full = prepareSimulation(constant, targets).domains[0].plan!;
-		const prep = prepareSimulation(constant, targets, { reuseBytes: Math.floor(full.steps / 3) * (12 + 12 * full.kmax) + 4 });
+		const reuseBytes = Math.floor(full.steps / 3) * (12 + 12 * full.kmax) + 4;
+		const prep = prepareSimulation(constant, targets, { reuseBytes });
 		const plan = prep.domains[0].plan!;
+		// As many steps as fit in three quarters of the memory.
+		expect(PathPlan.bytes(plan.steps, plan.kmax)).toBeLessThanOrEqual(0.75 * reuseBytes);
+		expect(PathPlan.bytes(plan.steps + 1, plan.kmax)).toBeGreaterThan(0.75 * reuseBytes);
 		expect(plan.steps).toBeGreaterThan(0);
 		expect(plan.steps).toBeLessThan(prep.domains[0].pathNodes.length / 2);
 		const stats: SimulationStats = { systems: 0, neighbours: 0, reused: 0, replayed: 0 };

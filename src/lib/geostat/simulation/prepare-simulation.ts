@@ -32,7 +32,8 @@ export const DEFAULT_REUSE_BYTES = 64 * 1024 * 1024;
  * Options of prepareSimulation; none changes a single bit of any realization.
  *
  * What is kept, in this order while the memory lasts (each domain in turn): for a domain on a constant path, its
- * plan (PathPlan: up to 12(kmax + 1) bytes a step, reserved for as many steps as fit); each target's data search
+ * plan (PathPlan: up to 12(kmax + 1) bytes a step, reserved for as many steps as fit in three quarters of the
+ * memory); each target's data search
  * (maxData + 1 16-bit integers a target); the covariances between a domain's data when some are off the lattice
  * (nd² doubles, filled as used); for data off the lattice, the data part of each target's factor and right-hand
  * side, the same in every realization (maxData(maxData + 3)/2 doubles a target); for data on the lattice, the same
@@ -171,13 +172,14 @@ export function prepareSimulation(input: SimulationInput, targets: TargetPoints,
 }
 
 /**
- * Allocates the plans of domains on a constant path (see PathPlan) within `bytes`, each as many steps as fit (the
- * whole path when it can); returns the bytes left. A plan saves nearly all of a step's work in every realization
- * after the first, so it comes before everything else that is kept.
+ * Allocates the plans of domains on a constant path (see PathPlan) within three quarters of `bytes`, each as many
+ * steps as fit (the whole path when it can); returns the bytes left. A plan saves nearly all of a step's work in
+ * every realization after the first, so it comes before everything else that is kept; the last quarter stays for
+ * the caches the first realization (and the steps a plan cannot hold) work with.
  */
 function keepPlans(domains: PreparedDomain[], bytes: number, perTarget: boolean): number {
-	let left = bytes;
-	if (!perTarget) return left;
+	if (!perTarget) return bytes;
+	let left = Math.floor((3 * bytes) / 4);
 	for (const d of domains) {
 		if (!d.constantPath || d.pathNodes.length === 0) continue;
 		const kmax = d.maxData + d.maxSimulated;
@@ -186,7 +188,7 @@ function keepPlans(domains: PreparedDomain[], bytes: number, perTarget: boolean)
 		d.plan = new PathPlan(steps, kmax);
 		left -= PathPlan.bytes(steps, kmax);
 	}
-	return left;
+	return bytes - Math.floor((3 * bytes) / 4) + left;
 }
 
 /** Allocates the kept data parts (see PrepareOptions) within `bytes`; returns the bytes left. */
