@@ -134,4 +134,34 @@ describe('Simulations in Chromium', () => {
 		expect(await status.textContent()).toContain(`Cancelled: ${kept} of 20`);
 		expect(await page.locator('[data-testid=run]').textContent()).toMatch(kept === 0 ? /Run 20 realizations/ : new RegExp(`Run the other ${20 - kept}`));
 	}, 120_000);
+
+	it('one path for all realizations: the form’s switch puts every domain on a constant path; realizations the browser’s workers replay show the server’s bits', async () => {
+		await page.goto(`/projects/${projectId}/simulations/new`);
+		await page.locator('[data-testid=domain-count]').first().waitFor({ timeout: 60_000 });
+		await page.locator('[data-testid=recipe-name]').fill('Browser constant');
+		await page.locator('[data-testid=seed]').fill('e2e-constant');
+		await page.locator('[data-testid=realizations]').fill('5');
+		await page.locator('[data-testid=chainage-cell]').fill('5');
+		await page.locator('[data-testid=elevation-cell]').fill('0.5');
+		await page.locator('[data-testid=constant-paths]').check();
+		const paths = page.locator('[data-testid=domain-row] select:has(option[value=random-constant])');
+		expect(await paths.evaluateAll((els) => els.map((e) => (e as HTMLSelectElement).value))).toEqual(Array(5).fill('random-constant'));
+		await page.locator('[data-testid=create]').click();
+		await page.waitForURL(/simulations\?recipe=/, { timeout: 60_000 });
+		recipeId = new URL(page.url()).searchParams.get('recipe')!;
+		const { recipe } = await (await api.json('GET', `/api/v1/projects/${projectId}/recipes/${recipeId}`)).json();
+		expect(recipe.setup.domains.filter((d: { simulate: boolean }) => d.simulate).map((d: { search: { path: string } }) => d.search.path)).toEqual(Array(5).fill('random-constant'));
+		await page.locator('[data-testid=run]').click();
+		await page.locator('[data-testid=run-status]').filter({ hasText: '5 of 5 in memory' }).waitFor({ timeout: 120_000 });
+		// Each worker solves its first realization and replays the next ones from its plan.
+		const panel = page.locator('[data-testid=field-panel]');
+		for (let r = 0; r < 5; r++) {
+			if (r > 0) {
+				await panel.focus();
+				await page.keyboard.press('ArrowRight');
+			}
+			await expect.poll(() => panel.getAttribute('data-realization')).toBe(String(r));
+			expect(await panel.getAttribute('data-values-sha256'), `realization ${r}`).toBe(sha(await realization(r)));
+		}
+	}, 180_000);
 });

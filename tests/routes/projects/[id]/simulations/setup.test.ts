@@ -168,6 +168,32 @@ describe('RecipeSetupForm', () => {
 		expect(form.rows.map((r) => r.simulate)).toEqual([true, false]);
 	});
 
+	it('one path for all realizations: the switch puts every domain on the constant form of its order and back, and the body carries it', async () => {
+		const { api, sent } = memoryApi();
+		const form = new RecipeSetupForm(api, () => undefined);
+		await form.start(null);
+		expect(form.constantPaths).toBe(false);
+		form.rows[0].path = 'multigrid';
+		form.setConstantPaths(true);
+		expect(form.rows.map((r) => r.path)).toEqual(['multigrid-constant', 'random-constant']);
+		expect(form.constantPaths).toBe(true);
+		// The clay is not simulated (no saved variogram): its path does not count.
+		expect(form.rows[1].simulate).toBe(false);
+		form.rows[1].path = 'random';
+		expect(form.constantPaths).toBe(true);
+		// The sand back on a path per realization: the switch no longer reads on.
+		form.rows[0].path = 'multigrid';
+		expect(form.constantPaths).toBe(false);
+		form.setConstantPaths(true);
+		await form.create();
+		const body = recipeSetupSchema.parse(sent[0]);
+		if (body.kind === 'uniform') throw new Error('expected an SGS setup');
+		expect(body.domains.filter((d) => d.simulate).map((d) => d.search.path)).toEqual(form.rows.filter((r) => r.simulate).map((r) => r.path));
+		form.setConstantPaths(false);
+		expect(form.rows.map((r) => r.path)).toEqual(['multigrid', 'random']);
+		expect(form.constantPaths).toBe(false);
+	});
+
 	it('freshSeed gives nine digits', () => {
 		expect(freshSeed(() => 0)).toBe('100000000');
 		expect(freshSeed(() => 0.999999999)).toMatch(/^\d{9}$/);

@@ -158,6 +158,17 @@ export class RecipeSetupForm {
 		return uniformValues(row.data.values, row.data.weights, this.percentileList);
 	}
 
+	/** Whether every simulated domain visits its nodes on a constant path (one for all realizations); false with none. */
+	readonly constantPaths = $derived(this.rows.some((r) => r.simulate) && this.rows.every((r) => !r.simulate || r.path.endsWith('-constant')));
+
+	/** Puts every domain on a constant path, or back on a path per realization, keeping each one's order (random or coarse grids first). */
+	setConstantPaths(on: boolean): void {
+		for (const r of this.rows) {
+			const order = r.path.startsWith('multigrid') ? 'multigrid' : 'random';
+			r.path = on ? `${order}-constant` : order;
+		}
+	}
+
 	/** Switches the kind: domains are included by default when they have data (and, for SGS, a saved variogram). */
 	setKind(kind: SetupKind): void {
 		this.kind = kind;
