@@ -33,6 +33,17 @@ async function readAt(fx: number, fy: number): Promise<{ cell: number; value: st
 	return { cell: Number(await readout.getAttribute('data-cell')), value: (await readout.getAttribute('data-value')) ?? '' };
 }
 
+/** Opens the recipe form and types a name, a seed, 5 realizations and a grid of 5 m × 0.5 m cells. */
+async function openSetup(name: string, seed: string): Promise<void> {
+	await page.goto(`/projects/${projectId}/simulations/new`);
+	await page.locator('[data-testid=domain-count]').first().waitFor({ timeout: 60_000 });
+	await page.locator('[data-testid=recipe-name]').fill(name);
+	await page.locator('[data-testid=seed]').fill(seed);
+	await page.locator('[data-testid=realizations]').fill('5');
+	await page.locator('[data-testid=chainage-cell]').fill('5');
+	await page.locator('[data-testid=elevation-cell]').fill('0.5');
+}
+
 beforeAll(async () => {
 	browser = await launchChromium();
 	api = await signedInSession(baseUrl, DEMO.analyst.email, DEMO.analyst.password);
@@ -46,13 +57,7 @@ afterAll(async () => {
 
 describe('Simulations in Chromium', () => {
 	it('the setup form previews the grid; the recipe it creates has the same cells per domain', async () => {
-		await page.goto(`/projects/${projectId}/simulations/new`);
-		await page.locator('[data-testid=domain-count]').first().waitFor({ timeout: 60_000 });
-		await page.locator('[data-testid=recipe-name]').fill('Browser five');
-		await page.locator('[data-testid=seed]').fill('e2e-five');
-		await page.locator('[data-testid=realizations]').fill('5');
-		await page.locator('[data-testid=chainage-cell]').fill('5');
-		await page.locator('[data-testid=elevation-cell]').fill('0.5');
+		await openSetup('Browser five', 'e2e-five');
 		await expect.poll(async () => page.locator('[data-testid=grid-counts]').textContent()).toMatch(/^80 × 34 = 2,720 cells/);
 		const preview = await page.locator('[data-testid=domain-count]').evaluateAll((els) => els.map((e) => [e.getAttribute('data-domain'), Number(e.getAttribute('data-cells'))]));
 		await page.locator('[data-testid=create]').click();
@@ -136,13 +141,7 @@ describe('Simulations in Chromium', () => {
 	}, 120_000);
 
 	it('one path for all realizations: the form’s switch puts every domain on a constant path; realizations the browser’s workers replay show the server’s bits', async () => {
-		await page.goto(`/projects/${projectId}/simulations/new`);
-		await page.locator('[data-testid=domain-count]').first().waitFor({ timeout: 60_000 });
-		await page.locator('[data-testid=recipe-name]').fill('Browser constant');
-		await page.locator('[data-testid=seed]').fill('e2e-constant');
-		await page.locator('[data-testid=realizations]').fill('5');
-		await page.locator('[data-testid=chainage-cell]').fill('5');
-		await page.locator('[data-testid=elevation-cell]').fill('0.5');
+		await openSetup('Browser constant', 'e2e-constant');
 		await page.locator('[data-testid=constant-paths]').check();
 		const paths = page.locator('[data-testid=domain-row] select:has(option[value=random-constant])');
 		expect(await paths.evaluateAll((els) => els.map((e) => (e as HTMLSelectElement).value))).toEqual(Array(5).fill('random-constant'));

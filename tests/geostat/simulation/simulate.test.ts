@@ -127,9 +127,10 @@ describe('simulate(input, targets, r) — conditional', () => {
 		{ x: 16, y: 0, z: 0, value: 0.8 }
 	];
 
-	it('simulate at a node between data: mean and variance over 2,000 realizations ≈ the simple-kriging estimate and variance (Goovaerts 1997, ch. 8)', () => {
+	// The path drawn per realization, and a constant path (the same for all realizations, see SearchOptions.path).
+	for (const [path, seed] of [[undefined, 'between'], ['random-constant', 'between-constant']] as const) it(`simulate at a node between data${path ? `, ${path} path` : ''}: mean and variance over 2,000 realizations ≈ the simple-kriging estimate and variance (Goovaerts 1997, ch. 8)`, () => {
 		const targets = line(21);
-		const input: SimulationInput = { seed: 'between', domains: [gaussianDomain({ samples: data, search: { maxData: 3, maxSimulated: 20 } })] };
+		const input: SimulationInput = { seed, domains: [gaussianDomain({ samples: data, search: { maxData: 3, maxSimulated: 20, ...(path ? { path } : {}) } })] };
 		const prep = prepareSimulation(input, targets);
 		const Rn = 2000;
 		let s = 0;
@@ -309,6 +310,39 @@ describe('simulate — edge cases', () => {
 	});
 });
 
+// A section's model: exponential, 20 m horizontally and 1 m vertically.
+const sectionModel: VariogramModel = { azimuth: 90, structures: [{ type: 'exponential', sill: 1, rangeMajor: 20, rangeMinor: 20, rangeVertical: 1 }] };
+
+/**
+ * Simulates 100 unconditional realizations of an 80 m × 4 m section (1 × 0.25 m, sectionModel, 8 simulated nodes) on
+ * the given path and checks the pooled horizontal covariance at lags 1–15 m against the model within 0.07; returns
+ * the prepared simulation. Tolerance: the pooled covariance of 100 realizations rests on roughly
+ * 100·(80/13)·(4/0.7) ≈ 3,500 independent values, a standard error near √(2/3500) ≈ 0.024; 0.07 is three of them
+ * (the estimate is unbiased: known mean 0).
+ */
+function expectHorizontalCovariance(path: PathOrder, seed: string) {
+	const nx = 80;
+	const nz = 16;
+	const input: SimulationInput = { seed, domains: [gaussianDomain({ model: sectionModel, search: { maxData: 0, maxSimulated: 8, path } })] };
+	const prep = prepareSimulation(input, section(nx, nz, 1, 0.25));
+	const lags = [1, 3, 6, 10, 15];
+	const c = lags.map(() => 0);
+	const cnt = lags.map(() => 0);
+	for (let r = 0; r < 100; r++) {
+		const f = simulatePrepared(prep, r);
+		lags.forEach((h, l) => {
+			for (let k = 0; k < nz; k++) {
+				for (let i = 0; i + h < nx; i++) {
+					c[l] += f[k * nx + i] * f[k * nx + i + h];
+					cnt[l]++;
+				}
+			}
+		});
+	}
+	lags.forEach((h, l) => expectAbsClose(c[l] / cnt[l], covariance(sectionModel, h, 0, 0), 0.07, `${path}: C(${h} m)`));
+	return prep;
+}
+
 describe('simulate — multiple-grid path (search.path "multigrid")', () => {
 	it('multigrid on a line reproduces mean 0, variance = sill and the model covariance at lags 1, 2, 5, 10 within 0.1, as the random path does', () => {
 		const n = 40;
@@ -322,31 +356,9 @@ describe('simulate — multiple-grid path (search.path "multigrid")', () => {
 	});
 
 	it('multigrid on a section with a small search reproduces the horizontal covariance at lags 1–15 m within 0.07 (100 realizations)', () => {
-		// 80 m × 4 m at 1 × 0.25 m, exponential 20 m / 1 m, 8 simulated nodes: three levels along x (strides 1, 2, 4).
-		// Tolerance: the pooled covariance of 100 realizations rests on roughly 100·(80/13)·(4/0.7) ≈ 3,500 independent
-		// values, a standard error near √(2/3500) ≈ 0.024; 0.07 is three of them (the estimate is unbiased: known mean 0).
-		const nx = 80;
-		const nz = 16;
-		const targets = section(nx, nz, 1, 0.25);
-		const model: VariogramModel = { azimuth: 90, structures: [{ type: 'exponential', sill: 1, rangeMajor: 20, rangeMinor: 20, rangeVertical: 1 }] };
-		const input: SimulationInput = { seed: 'section-mg', domains: [gaussianDomain({ model, search: { maxData: 0, maxSimulated: 8, path: 'multigrid' } })] };
-		const prep = prepareSimulation(input, targets);
+		// 8 simulated nodes on the section: three levels along x (strides 1, 2, 4).
+		const prep = expectHorizontalCovariance('multigrid', 'section-mg');
 		expect(Array.from(prep.domains[0].multigrid!.strides)).toEqual([1, 1, 1, 2, 1, 1, 4, 1, 1]);
-		const lags = [1, 3, 6, 10, 15];
-		const c = lags.map(() => 0);
-		const cnt = lags.map(() => 0);
-		for (let r = 0; r < 100; r++) {
-			const f = simulatePrepared(prep, r);
-			lags.forEach((h, l) => {
-				for (let k = 0; k < nz; k++) {
-					for (let i = 0; i + h < nx; i++) {
-						c[l] += f[k * nx + i] * f[k * nx + i + h];
-						cnt[l]++;
-					}
-				}
-			});
-		}
-		lags.forEach((h, l) => expectAbsClose(c[l] / cnt[l], covariance(model, h, 0, 0), 0.07, `C(${h} m)`));
 	});
 
 	it('multigrid honours the data exactly, repeats bit for bit, and differs from the random path', () => {
@@ -389,55 +401,13 @@ describe('simulate — constant path (search.path "random-constant", "multigrid-
 	});
 
 	it('multigrid-constant on a section with a small search reproduces the horizontal covariance at lags 1–15 m within 0.07 (100 realizations)', () => {
-		// As the multiple-grid test above (same section, model, search and tolerance), with one path for all realizations.
-		const nx = 80;
-		const nz = 16;
-		const targets = section(nx, nz, 1, 0.25);
-		const model: VariogramModel = { azimuth: 90, structures: [{ type: 'exponential', sill: 1, rangeMajor: 20, rangeMinor: 20, rangeVertical: 1 }] };
-		const input: SimulationInput = { seed: 'section-mg-constant', domains: [gaussianDomain({ model, search: { maxData: 0, maxSimulated: 8, path: 'multigrid-constant' } })] };
-		const prep = prepareSimulation(input, targets);
-		const lags = [1, 3, 6, 10, 15];
-		const c = lags.map(() => 0);
-		const cnt = lags.map(() => 0);
-		for (let r = 0; r < 100; r++) {
-			const f = simulatePrepared(prep, r);
-			lags.forEach((h, l) => {
-				for (let k = 0; k < nz; k++) {
-					for (let i = 0; i + h < nx; i++) {
-						c[l] += f[k * nx + i] * f[k * nx + i + h];
-						cnt[l]++;
-					}
-				}
-			});
-		}
-		lags.forEach((h, l) => expectAbsClose(c[l] / cnt[l], covariance(model, h, 0, 0), 0.07, `C(${h} m)`));
-	});
-
-	it('random-constant at a node between data: mean and variance over 2,000 realizations ≈ the simple-kriging estimate and variance (Goovaerts 1997, ch. 8)', () => {
-		const data: Sample[] = [
-			{ x: 3, y: 0, z: 0, value: 1.0 },
-			{ x: 9, y: 0, z: 0, value: -0.5 },
-			{ x: 16, y: 0, z: 0, value: 0.8 }
-		];
-		const input: SimulationInput = { seed: 'between-constant', domains: [gaussianDomain({ samples: data, search: { maxData: 3, maxSimulated: 20, path: 'random-constant' } })] };
-		const prep = prepareSimulation(input, line(21));
-		const Rn = 2000;
-		let s = 0;
-		let ss = 0;
-		for (let r = 0; r < Rn; r++) {
-			const v = simulatePrepared(prep, r)[6];
-			s += v;
-			ss += v * v;
-		}
-		const mean = s / Rn;
-		const variance = ss / Rn - mean * mean;
-		const sk = krige(data, { x: 6, y: 0, z: 0 }, expModel, { type: 'simple', mean: 0 });
-		expectAbsClose(mean, sk.estimate, 4 * Math.sqrt(sk.variance / Rn), 'mean');
-		expectAbsClose(variance, sk.variance, 4 * sk.variance * Math.sqrt(2 / Rn), 'variance');
+		// As the multiple-grid test (same section, model, search and tolerance), with one path for all realizations.
+		const prep = expectHorizontalCovariance('multigrid-constant', 'section-mg-constant');
+		expect(prep.domains[0].plan!.recorded).toBe(prep.domains[0].pathNodes.length);
 	});
 
 	/**
-	 * Per node pair of a 60 m × 5 m section (1 m × 0.25 m, exponential 20 m / 1 m, unconditional), the root mean square
+	 * Per node pair of a 60 m × 5 m section (1 m × 0.25 m, sectionModel, unconditional), the root mean square
 	 * over pairs of (ensemble covariance − model covariance), at a lag of (hx m, hz m), over R realizations; and the
 	 * sampling error of one pair's ensemble covariance, √((1 + C²)/R) (Gaussian fields of unit variance).
 	 */
@@ -445,15 +415,14 @@ describe('simulate — constant path (search.path "random-constant", "multigrid-
 		const nx = 60;
 		const nz = 20;
 		const targets = section(nx, nz, 1, 0.25);
-		const model: VariogramModel = { azimuth: 90, structures: [{ type: 'exponential', sill: 1, rangeMajor: 20, rangeMinor: 20, rangeVertical: 1 }] };
-		const prep = prepareSimulation({ seed: 'pairs', domains: [gaussianDomain({ model, search: { maxData: 0, maxSimulated, path } })] }, targets);
+		const prep = prepareSimulation({ seed: 'pairs', domains: [gaussianDomain({ model: sectionModel, search: { maxData: 0, maxSimulated, path } })] }, targets);
 		const kz = Math.round(hz / 0.25);
 		const cross = new Float64Array(nx * nz);
 		for (let r = 0; r < R; r++) {
 			const f = simulatePrepared(prep, r);
 			for (let k = 0; k + kz < nz; k++) for (let i = 0; i + hx < nx; i++) cross[k * nx + i] += f[k * nx + i] * f[(k + kz) * nx + i + hx];
 		}
-		const c = covariance(model, hx, 0, hz);
+		const c = covariance(sectionModel, hx, 0, hz);
 		let e2 = 0;
 		let cnt = 0;
 		for (let k = 0; k + kz < nz; k++) {
