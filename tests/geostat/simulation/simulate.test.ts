@@ -448,6 +448,6 @@ describe('simulate — constant path (search.path "random-constant", "multigrid-
 			const mg = pairError('multigrid-constant', 8, R, hx, hz);
 			expect(mg.rms, `multigrid-constant, 8 nodes, (${hx}, ${hz})`).toBeLessThan(1.5 * mg.se);
 		}
-	});
+	}, 60_000);
 });
 

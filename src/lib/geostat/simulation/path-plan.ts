@@ -25,9 +25,14 @@ export class PathPlan {
 	readonly ref: Int32Array;
 	readonly w: Float64Array;
 
+	/** Bytes a step with up to kmax entries reserves (its standard deviation, its start, kmax weights and references). */
+	static bytesPerStep(kmax: number): number {
+		return 12 + 12 * kmax;
+	}
+
 	/** Bytes a plan of `steps` steps with up to kmax entries each reserves. */
 	static bytes(steps: number, kmax: number): number {
-		return steps * (12 + 12 * kmax) + 4;
+		return steps * PathPlan.bytesPerStep(kmax) + 4;
 	}
 
 	/** @throws {RangeError} if steps or kmax is not an integer ≥ 0 */

@@ -183,7 +183,7 @@ function keepPlans(domains: PreparedDomain[], bytes: number, perTarget: boolean)
 	for (const d of domains) {
 		if (!d.constantPath || d.pathNodes.length === 0) continue;
 		const kmax = d.maxData + d.maxSimulated;
-		const steps = Math.min(d.pathNodes.length, Math.floor((left - 4) / PathPlan.bytes(1, kmax)));
+		const steps = Math.min(d.pathNodes.length, Math.floor((left - 4) / PathPlan.bytesPerStep(kmax)));
 		if (steps < 1) continue;
 		d.plan = new PathPlan(steps, kmax);
 		left -= PathPlan.bytes(steps, kmax);
