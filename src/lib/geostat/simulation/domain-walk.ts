@@ -215,7 +215,7 @@ export class DomainWalk {
 				pv[k] = dom.dval[i];
 				tp[k] = table !== null && dom.donlat[i] === 1 ? dom.dlat[3 * i] * sx + dom.dlat[3 * i + 1] * sy + dom.dlat[3 * i + 2] : -1;
 				pid[k] = i;
-				ref[k] = -1 - i;
+				if (record) ref[k] = -1 - i;
 				if (tp[k] < 0) off++;
 				k++;
 			}
@@ -276,7 +276,7 @@ export class DomainWalk {
 					pv[k] = y[h];
 					tp[k] = -1;
 					pid[k] = -1;
-					ref[k] = h;
+					if (record) ref[k] = h;
 					k++;
 				}
 			}

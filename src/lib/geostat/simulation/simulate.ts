@@ -14,7 +14,12 @@ import type { SimulationInput, TargetPoints } from './types';
  * double arithmetic, so it repeats bit for bit in every JavaScript engine.
  */
 export function realizationStream(seed: string, realization: number, domain: number): () => number {
-	const prng = seedrandom.alea(`${seed}:${realization}:${domain}`);
+	return aleaStream(`${seed}:${realization}:${domain}`);
+}
+
+/** Doubles in [0, 1) from Alea seeded with `key`. */
+function aleaStream(key: string): () => number {
+	const prng = seedrandom.alea(key);
 	return () => prng.double();
 }
 
@@ -167,7 +172,7 @@ function simulateDomain(
 		}
 	}
 
-	stats.replayed += Math.min(replay, path.length);
+	stats.replayed += replay;
 
 	const tbl = dom.table;
 	const trend = dom.trend;
@@ -186,8 +191,7 @@ function simulateDomain(
  * realization's stream ("seed:r:d" with r a number).
  */
 export function pathStream(seed: string, domain: number): () => number {
-	const prng = seedrandom.alea(`${seed}:path:${domain}`);
-	return () => prng.double();
+	return aleaStream(`${seed}:path:${domain}`);
 }
 
 /** A domain's path (positions in its pathNodes) drawn from `rand`: multiple-grid or random. */
