@@ -118,6 +118,17 @@ describe('the owner', () => {
 		expect((await owner.json('GET', `/api/v1/projects/${project.id}`)).status).toBe(404);
 	});
 
+	it('without JavaScript, a refused new-project form comes back with the name, description and unit typed', async () => {
+		const name = 'N'.repeat(121);
+		const res = await owner.form('/projects/new?/create', { name, description: 'Kept <as> typed', lengthUnit: 'ft' }, 'text/html');
+		expect(res.status).toBe(400);
+		const page = await res.text();
+		expect(page).toMatch(new RegExp(`<input[^>]*name="name"[^>]*value="${name}"`));
+		expect(page).toMatch(/<textarea[^>]*name="description"[^>]*>Kept &lt;as> typed<\/textarea>/);
+		expect(page).toMatch(/<input[^>]*value="ft"[^>]*checked/);
+		expect(page).not.toMatch(/<input[^>]*value="m"[^>]*checked/);
+	});
+
 	it('cannot demote or remove the last owner (409)', async () => {
 		const members = (await (await owner.json('GET', `/api/v1/projects/${demoId}/members`)).json()) as {
 			members: { userId: string; role: string }[];
@@ -204,7 +215,10 @@ describe('sign-in', () => {
 		// The page without JavaScript shows the same message, with the status of the refusal.
 		const html = await s.form('/signin?/password', { email, password }, 'text/html');
 		expect(html.status).toBe(429);
-		expect(await html.text()).toContain('Too many failed sign-in attempts');
+		const page = await html.text();
+		expect(page).toContain('Too many failed sign-in attempts');
+		// ... and the e-mail comes back in its field (rendered from the field's defaultValue).
+		expect(page).toMatch(new RegExp(`<input[^>]*name="email"[^>]*value="${email}"`));
 		// Other accounts from the same address are unaffected.
 		expect((await signedInSession(baseUrl, DEMO.analyst.email, DEMO.analyst.password)).signedIn).toBe(true);
 	});
